@@ -1,0 +1,15 @@
+import { defineConfig } from "vitest/config";
+import path from "node:path";
+
+// Unit tests run anywhere; integration and e2e tests expect the services that scripts/test.mjs starts.
+export default defineConfig({
+  resolve: { alias: { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "tests/support/server-only.ts") } },
+  test: {
+    include: ["tests/**/*.test.ts"],
+    environment: "node",
+    testTimeout: 30_000,
+    hookTimeout: 120_000,
+    fileParallelism: false,
+    pool: "forks",
+  },
+});
