@@ -1,0 +1,92 @@
+import { bigserial, boolean, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { labs, users } from "./auth";
+import { chamberKindEnum, desiccantEventKindEnum, readingSourceEnum } from "./enums";
+
+export const chambers = pgTable("chambers", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  name: text("name").notNull(),
+  kind: chamberKindEnum("kind").notNull(),
+  saltId: text("salt_id"),
+  desiccantKind: text("desiccant_kind"),
+  desiccantMassG: doublePrecision("desiccant_mass_g"),
+  nominalTempC: doublePrecision("nominal_temp_c").notNull(),
+  volumeL: doublePrecision("volume_l"),
+  setpointRhPercent: doublePrecision("setpoint_rh_percent").notNull(),
+  toleranceRhPercent: doublePrecision("tolerance_rh_percent").notNull(),
+  airExchangePerDay: doublePrecision("air_exchange_per_day"),
+  roomRhPercent: doublePrecision("room_rh_percent"),
+  notes: text("notes").notNull().default(""),
+  archivedAt: timestamp("archived_at", { withTimezone: true }),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("chambers_lab_idx").on(t.labId, t.name)]);
+
+export const readings = pgTable("readings", {
+  id: bigserial("id", { mode: "number" }).primaryKey(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "restrict" }),
+  takenAt: timestamp("taken_at", { withTimezone: true }).notNull(),
+  rhPercent: doublePrecision("rh_percent").notNull(),
+  tempC: doublePrecision("temp_c"),
+  dewPointC: doublePrecision("dew_point_c"),
+  source: readingSourceEnum("source").notNull(),
+  instrument: text("instrument").notNull().default(""),
+  importId: uuid("import_id"),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [
+  uniqueIndex("readings_chamber_time_instrument_idx").on(t.chamberId, t.takenAt, t.instrument),
+  index("readings_lab_chamber_time_idx").on(t.labId, t.chamberId, t.takenAt),
+]);
+
+export const readingImports = pgTable("reading_imports", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "restrict" }),
+  filename: text("filename").notNull(),
+  rowsImported: integer("rows_imported").notNull().default(0),
+  duplicatesSkipped: integer("duplicates_skipped").notNull().default(0),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("reading_imports_lab_idx").on(t.labId, t.createdAt)]);
+
+export const desiccantEvents = pgTable("desiccant_events", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "restrict" }),
+  kind: desiccantEventKindEnum("kind").notNull(),
+  at: timestamp("at", { withTimezone: true }).notNull(),
+  massG: doublePrecision("mass_g"),
+  notes: text("notes").notNull().default(""),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("desiccant_events_lab_chamber_idx").on(t.labId, t.chamberId, t.at)]);
+
+export const chamberTokens = pgTable("chamber_tokens", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "restrict" }),
+  label: text("label").notNull(),
+  // SHA-256 of the token; the token is shown once when created.
+  tokenHash: text("token_hash").notNull(),
+  lastUsedAt: timestamp("last_used_at", { withTimezone: true }),
+  revokedAt: timestamp("revoked_at", { withTimezone: true }),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [uniqueIndex("chamber_tokens_hash_idx").on(t.tokenHash), index("chamber_tokens_lab_idx").on(t.labId, t.chamberId)]);
+
+export const hygrometerChecks = pgTable("hygrometer_checks", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  instrument: text("instrument").notNull(),
+  saltId: text("salt_id").notNull(),
+  tempC: doublePrecision("temp_c").notNull(),
+  readingRhPercent: doublePrecision("reading_rh_percent").notNull(),
+  referenceRhPercent: doublePrecision("reference_rh_percent").notNull(),
+  offsetRhPercent: doublePrecision("offset_rh_percent").notNull(),
+  applied: boolean("applied").notNull().default(false),
+  checkedAt: timestamp("checked_at", { withTimezone: true }).notNull(),
+  createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("hygrometer_checks_lab_idx").on(t.labId, t.instrument, t.checkedAt)]);

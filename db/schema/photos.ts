@@ -1,0 +1,79 @@
+import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, bigint } from "drizzle-orm/pg-core";
+import { labs, users } from "./auth";
+import { photoStatusEnum, silicateChangeEnum } from "./enums";
+import { specimens } from "./specimens";
+import { inspections, trials } from "./trials";
+
+export const photos = pgTable("photos", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  trialId: uuid("trial_id").references(() => trials.id, { onDelete: "restrict" }),
+  inspectionId: uuid("inspection_id").references(() => inspections.id, { onDelete: "restrict" }),
+  specimenId: uuid("specimen_id").notNull().references(() => specimens.id, { onDelete: "restrict" }),
+  objectKey: text("object_key").notNull(),
+  filename: text("filename").notNull(),
+  status: photoStatusEnum("status").notNull().default("pending"),
+  contentType: text("content_type").notNull(),
+  sizeBytes: bigint("size_bytes", { mode: "number" }).notNull(),
+  sha256: text("sha256"),
+  width: integer("width"),
+  height: integer("height"),
+  capturedAtRaw: text("captured_at_raw"),
+  capturedOffset: text("captured_offset"),
+  capturedAt: timestamp("captured_at", { withTimezone: true }),
+  camera: text("camera"),
+  lens: text("lens"),
+  exposure: text("exposure"),
+  orientation: integer("orientation"),
+  gps: jsonb("gps").$type<{ lat: number; lon: number } | null>(),
+  derivatives: jsonb("derivatives").$type<Record<string, string>>().notNull().default({}),
+  uploadedBy: uuid("uploaded_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [
+  uniqueIndex("photos_object_key_idx").on(t.objectKey),
+  index("photos_lab_specimen_idx").on(t.labId, t.specimenId, t.createdAt),
+  index("photos_lab_inspection_idx").on(t.labId, t.inspectionId),
+]);
+
+export type MarkGeometry =
+  | { kind: "outline"; points: { x: number; y: number }[] }
+  | { kind: "polygon"; points: { x: number; y: number }[] }
+  | { kind: "circle"; cx: number; cy: number; r: number }
+  | { kind: "brush"; points: { x: number; y: number }[]; radius: number }
+  | { kind: "erase"; points: { x: number; y: number }[]; radius: number };
+
+export const marks = pgTable("marks", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  photoId: uuid("photo_id").notNull().references(() => photos.id, { onDelete: "restrict" }),
+  scorerId: uuid("scorer_id").references(() => users.id, { onDelete: "set null" }),
+  geometry: jsonb("geometry").$type<MarkGeometry>().notNull(),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [index("marks_lab_photo_idx").on(t.labId, t.photoId, t.scorerId)]);
+
+export const scores = pgTable("scores", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  trialId: uuid("trial_id").notNull().references(() => trials.id, { onDelete: "restrict" }),
+  inspectionId: uuid("inspection_id").notNull().references(() => inspections.id, { onDelete: "restrict" }),
+  specimenId: uuid("specimen_id").notNull().references(() => specimens.id, { onDelete: "restrict" }),
+  photoId: uuid("photo_id").references(() => photos.id, { onDelete: "set null" }),
+  scorerId: uuid("scorer_id").references(() => users.id, { onDelete: "set null" }),
+  blind: boolean("blind").notNull().default(false),
+  spotCount: integer("spot_count").notNull().default(0),
+  areaPercent: doublePrecision("area_percent").notNull().default(0),
+  astmGrade: integer("astm_grade"),
+  astmLetter: text("astm_letter"),
+  isoDegree: integer("iso_degree"),
+  autoEstimatePercent: doublePrecision("auto_estimate_percent"),
+  weeping: boolean("weeping").notNull().default(false),
+  silicateChange: silicateChangeEnum("silicate_change").notNull().default("none"),
+  noChange: boolean("no_change").notNull().default(false),
+  notes: text("notes").notNull().default(""),
+  isRecord: boolean("is_record").notNull().default(true),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [
+  uniqueIndex("scores_unique_idx").on(t.inspectionId, t.specimenId, t.scorerId),
+  index("scores_lab_trial_idx").on(t.labId, t.trialId, t.specimenId),
+]);
