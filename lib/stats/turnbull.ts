@@ -1,0 +1,259 @@
+// Turnbull's NPMLE for interval-censored times: rust is only ever seen at an inspection, so each
+// specimen's first-rust time is known to lie in (last clean inspection, first rusted inspection].
+import type { SurvivalObservation } from "./survival";
+
+/** (lower, upper]; upper = Infinity when never seen to fail; lower = upper means an exact time. */
+export interface IntervalObservation {
+  lower: number;
+  upper: number;
+  /** How many identical observations this row stands for (default 1); lets tabulated data in. */
+  count?: number;
+}
+
+export interface TurnbullInterval {
+  lower: number;
+  upper: number;
+  probability: number;
+}
+
+export interface TurnbullResult {
+  intervals: TurnbullInterval[];
+  /**
+   * 1 − mass of innermost intervals with upper ≤ t. The NPMLE says only how much mass falls in each
+   * innermost interval, not where inside it; by convention the whole mass counts at its right end.
+   */
+  survivalAt(t: number): number;
+}
+
+export interface TurnbullFit extends TurnbullResult {
+  iterations: number;
+  converged: boolean;
+}
+
+export interface TurnbullOptions {
+  /** Stop when no interval's probability moves by more than this in one step. */
+  tolerance?: number;
+  maxIterations?: number;
+}
+
+// Endpoint order at equal values: an exact time's closed left end, then right ends (closed), then
+// open left ends. That makes (0,6] and (6,12] two classes and keeps an exact time t inside (s, t].
+const LEFT_CLOSED = -1;
+const RIGHT = 0;
+const LEFT_OPEN = 1;
+
+interface Endpoint {
+  value: number;
+  kind: number;
+}
+
+function compareEndpoints(a: Endpoint, b: Endpoint): number {
+  return a.value !== b.value ? (a.value < b.value ? -1 : 1) : a.kind - b.kind;
+}
+
+interface Collapsed {
+  lowers: number[];
+  uppers: number[];
+  weights: number[];
+  total: number;
+}
+
+// Identical (lower, upper] rows are merged with summed weights: with a fixed inspection schedule a
+// group of thousands of specimens has only a few hundred distinct intervals.
+function collapse(obs: readonly IntervalObservation[]): Collapsed {
+  const byLower = new Map<number, Map<number, number>>();
+  let total = 0;
+  for (const o of obs) {
+    const w = o.count ?? 1;
+    if (!Number.isFinite(o.lower)) throw new RangeError(`turnbull: lower must be finite, got ${o.lower}`);
+    if (Number.isNaN(o.upper) || o.upper < o.lower) {
+      throw new RangeError(`turnbull: need lower ≤ upper, got (${o.lower}, ${o.upper}]`);
+    }
+    if (!(w >= 0) || !Number.isFinite(w)) throw new RangeError(`turnbull: count must be ≥ 0, got ${w}`);
+    if (w === 0) continue;
+    let inner = byLower.get(o.lower);
+    if (!inner) byLower.set(o.lower, (inner = new Map()));
+    inner.set(o.upper, (inner.get(o.upper) ?? 0) + w);
+    total += w;
+  }
+  const out: Collapsed = { lowers: [], uppers: [], weights: [], total };
+  for (const [lower, inner] of byLower) {
+    for (const [upper, w] of inner) {
+      out.lowers.push(lower);
+      out.uppers.push(upper);
+      out.weights.push(w);
+    }
+  }
+  return out;
+}
+
+const leftOf = (lower: number, upper: number): Endpoint => ({ value: lower, kind: lower === upper ? LEFT_CLOSED : LEFT_OPEN });
+
+/** The NPMLE with fit diagnostics; `turnbull` is this without them. */
+export function turnbullFit(obs: readonly IntervalObservation[], options: TurnbullOptions = {}): TurnbullFit {
+  const tolerance = options.tolerance ?? 1e-10;
+  const maxIterations = options.maxIterations ?? 100_000;
+  const data = collapse(obs);
+  const m = data.weights.length;
+  if (m === 0) return withSurvival([], 0, true);
+
+  // Innermost intervals (Turnbull's equivalence classes): a left end directly followed by a right end.
+  const ends: (Endpoint & { isLeft: boolean })[] = [];
+  for (let i = 0; i < m; i++) {
+    ends.push({ ...leftOf(data.lowers[i], data.uppers[i]), isLeft: true });
+    ends.push({ value: data.uppers[i], kind: RIGHT, isLeft: false });
+  }
+  ends.sort(compareEndpoints);
+  const innerLeft: Endpoint[] = [];
+  const innerRight: Endpoint[] = [];
+  for (let e = 0; e + 1 < ends.length; e++) {
+    if (ends[e].isLeft && !ends[e + 1].isLeft) {
+      innerLeft.push(ends[e]);
+      innerRight.push(ends[e + 1]);
+    }
+  }
+  const count = innerLeft.length;
+
+  // Each observation covers a contiguous run [first, last] of innermost intervals.
+  const first = new Int32Array(m);
+  const last = new Int32Array(m);
+  for (let i = 0; i < m; i++) {
+    const left = leftOf(data.lowers[i], data.uppers[i]);
+    const right: Endpoint = { value: data.uppers[i], kind: RIGHT };
+    let a = 0;
+    while (compareEndpoints(innerLeft[a], left) < 0) a++;
+    let b = count - 1;
+    while (compareEndpoints(innerRight[b], right) > 0) b--;
+    first[i] = a;
+    last[i] = b;
+  }
+
+  // Self-consistency (EM) step in O(m + count): prefix sums give each observation's covered mass,
+  // a difference array spreads weight/mass back over its run.
+  let p = new Float64Array(count).fill(1 / count);
+  let next = new Float64Array(count);
+  const prefix = new Float64Array(count + 1);
+  const spread = new Float64Array(count + 1);
+  let iterations = 0;
+  let converged = false;
+  while (iterations < maxIterations) {
+    iterations++;
+    for (let j = 0; j < count; j++) prefix[j + 1] = prefix[j] + p[j];
+    spread.fill(0);
+    for (let i = 0; i < m; i++) {
+      const covered = prefix[last[i] + 1] - prefix[first[i]];
+      const share = data.weights[i] / covered;
+      spread[first[i]] += share;
+      spread[last[i] + 1] -= share;
+    }
+    let running = 0;
+    let change = 0;
+    let sum = 0;
+    for (let j = 0; j < count; j++) {
+      running += spread[j];
+      next[j] = (p[j] * running) / data.total;
+      sum += next[j];
+    }
+    for (let j = 0; j < count; j++) {
+      next[j] /= sum; // guards drift from the running sum's rounding
+      change = Math.max(change, Math.abs(next[j] - p[j]));
+    }
+    [p, next] = [next, p];
+    if (change < tolerance) {
+      converged = true;
+      break;
+    }
+  }
+
+  const intervals = innerLeft.map((l, j) => ({ lower: l.value, upper: innerRight[j].value, probability: p[j] }));
+  return withSurvival(intervals, iterations, converged);
+}
+
+function withSurvival(intervals: TurnbullInterval[], iterations: number, converged: boolean): TurnbullFit {
+  const uppers = intervals.map((iv) => iv.upper);
+  const cumulative: number[] = [];
+  let acc = 0;
+  for (const iv of intervals) cumulative.push((acc += iv.probability));
+  return {
+    intervals,
+    iterations,
+    converged,
+    survivalAt(t: number): number {
+      // Innermost intervals are disjoint and sorted, so their right ends are increasing.
+      let lo = 0;
+      let hi = uppers.length;
+      while (lo < hi) {
+        const mid = (lo + hi) >> 1;
+        if (uppers[mid] <= t) lo = mid + 1;
+        else hi = mid;
+      }
+      return lo === 0 ? 1 : Math.min(1, Math.max(0, 1 - cumulative[lo - 1]));
+    },
+  };
+}
+
+/** Turnbull NPMLE: innermost intervals with their probability mass, and S(t). */
+export function turnbull(obs: readonly IntervalObservation[]): TurnbullResult {
+  const fit = turnbullFit(obs);
+  return { intervals: fit.intervals, survivalAt: fit.survivalAt };
+}
+
+export interface TurnbullCurveStep {
+  /** Where the chart draws the drop (the innermost interval's right end, by our convention). */
+  time: number;
+  /** Where the drop could have begun: the innermost interval's left end. */
+  intervalLower: number;
+  /** Survival after this interval. */
+  survival: number;
+}
+
+// Masses this small are EM leftovers on intervals the NPMLE leaves empty, not real drops.
+const NEGLIGIBLE_MASS = 1e-9;
+
+/** Chart steps: S = 1 before the first step; one step per innermost interval holding mass. */
+export function survivalCurveFromTurnbull(result: TurnbullResult): TurnbullCurveStep[] {
+  const steps: TurnbullCurveStep[] = [];
+  let survival = 1;
+  for (const iv of result.intervals) {
+    if (iv.probability <= NEGLIGIBLE_MASS || !Number.isFinite(iv.upper)) continue;
+    survival = Math.max(0, survival - iv.probability);
+    steps.push({ time: iv.upper, intervalLower: iv.lower, survival });
+  }
+  return steps;
+}
+
+export interface TurnbullMedian {
+  /** Right end of the innermost interval where S first reaches 0.5 (same convention as survivalAt). */
+  time: number;
+  /** The median is only known to lie in (lower, upper]. */
+  lower: number;
+  upper: number;
+}
+
+/** Median time from the NPMLE, or null when S never gets down to 0.5. */
+export function medianFromTurnbull(result: TurnbullResult): TurnbullMedian | null {
+  let survival = 1;
+  for (const iv of result.intervals) {
+    if (!Number.isFinite(iv.upper)) break;
+    survival -= iv.probability;
+    if (iv.probability > NEGLIGIBLE_MASS && survival <= 0.5 + 1e-9) {
+      return { time: iv.upper, lower: iv.lower, upper: iv.upper };
+    }
+  }
+  return null;
+}
+
+/**
+ * Right-endpoint imputation for KM/log-rank: a failure counts at the inspection where rust was seen,
+ * a never-rusted specimen is censored at its last clean inspection. Counts expand to repeated rows.
+ */
+export function rightEndpointKm(intervalObs: readonly IntervalObservation[]): SurvivalObservation[] {
+  const out: SurvivalObservation[] = [];
+  for (const o of intervalObs) {
+    const count = o.count ?? 1;
+    if (!Number.isInteger(count) || count < 0) throw new RangeError(`rightEndpointKm: count must be a whole number, got ${count}`);
+    const row = Number.isFinite(o.upper) ? { time: o.upper, event: true } : { time: o.lower, event: false };
+    for (let c = 0; c < count; c++) out.push({ ...row });
+  }
+  return out;
+}
