@@ -1,0 +1,65 @@
+// S3 clients built from the environment, so the same code talks to the local fake or to real S3.
+// No "server-only" marker: scripts (tsx) and tests import this too.
+import { S3Client } from "@aws-sdk/client-s3";
+
+export interface StorageConfig {
+  /** Where the server reaches storage. */
+  endpoint: string;
+  /** Where the browser reaches storage; presigned URLs are signed for this host. */
+  publicEndpoint: string;
+  region: string;
+  accessKeyId: string;
+  secretAccessKey: string;
+  bucket: string;
+  forcePathStyle: boolean;
+}
+
+export function readStorageConfig(env: NodeJS.ProcessEnv = process.env): StorageConfig {
+  const endpoint = env.S3_ENDPOINT || "http://127.0.0.1:9390";
+  return {
+    endpoint,
+    publicEndpoint: env.S3_PUBLIC_ENDPOINT || endpoint,
+    region: env.S3_REGION || "us-east-1",
+    accessKeyId: env.S3_ACCESS_KEY_ID || "rustline-local",
+    secretAccessKey: env.S3_SECRET_ACCESS_KEY || "rustline-local-secret-key",
+    bucket: env.S3_BUCKET || "rustline",
+    forcePathStyle: !/^(0|false|no)$/i.test(env.S3_FORCE_PATH_STYLE ?? "true"),
+  };
+}
+
+export function createS3Client(config: StorageConfig, endpoint: string = config.endpoint): S3Client {
+  return new S3Client({
+    endpoint,
+    region: config.region,
+    forcePathStyle: config.forcePathStyle,
+    credentials: { accessKeyId: config.accessKeyId, secretAccessKey: config.secretAccessKey },
+    // Newer SDKs add CRC32 checksums and aws-chunked bodies by default; plain bodies keep
+    // presigned URLs simple and work with every S3-compatible store.
+    requestChecksumCalculation: "WHEN_REQUIRED",
+    responseChecksumValidation: "WHEN_REQUIRED",
+  });
+}
+
+export interface Storage {
+  config: StorageConfig;
+  /** For server-side reads and writes. */
+  client: S3Client;
+  /** For presigning only: signs URLs with the public endpoint's host. */
+  presignClient: S3Client;
+}
+
+let cached: { key: string; storage: Storage } | null = null;
+
+/** The storage clients for the current environment (rebuilt if the S3_* variables change). */
+export function getStorage(): Storage {
+  const config = readStorageConfig();
+  const key = JSON.stringify(config);
+  if (cached?.key !== key) {
+    cached?.storage.client.destroy();
+    cached?.storage.presignClient.destroy();
+    const client = createS3Client(config);
+    const presignClient = config.publicEndpoint === config.endpoint ? client : createS3Client(config, config.publicEndpoint);
+    cached = { key, storage: { config, client, presignClient } };
+  }
+  return cached.storage;
+}
