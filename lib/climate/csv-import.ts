@@ -1,0 +1,189 @@
+// Import of hygrometer/logger CSV exports into chamber readings. Logger files vary by maker:
+// metadata lines before the header, ";" with decimal commas, °F, local time without offset, day-
+// first dates. The options cover those; previewCsv guesses them so the form starts pre-filled.
+// papaparse does the splitting (quotes, embedded delimiters); everything else is ours.
+
+import { detectDelimiter, eachRow, parseLoggerNumber, prepareText } from "@/lib/climate/csv-rows";
+import { parseLocalTime, zoneResolver, type DateFormat } from "@/lib/climate/time-parse";
+
+export type CsvDelimiter = "auto" | "," | ";" | "\t";
+/** A header name (matched case-insensitively) or a 0-based column index. */
+export type ColumnRef = string | number;
+
+export interface CsvColumnMapping {
+  /** One column, or a [date, time] pair for loggers that split them. */
+  time: ColumnRef | readonly [ColumnRef, ColumnRef];
+  rhPercent: ColumnRef;
+  tempC?: ColumnRef | null;
+  dewPointC?: ColumnRef | null;
+}
+
+export interface CsvImportOptions {
+  mapping: CsvColumnMapping;
+  delimiter?: CsvDelimiter;
+  /** Physical lines to skip before the header (logger metadata). */
+  skipLines?: number;
+  /** Whether the first row after the skipped lines is a header. Default true. */
+  hasHeader?: boolean;
+  /** Zone for timestamps without an offset: IANA name ("Europe/Berlin") or offset ("+02:00"). Default UTC. */
+  timeZone?: string;
+  /** Unit of the temperature and dew point columns. Default "C". */
+  temperatureUnit?: "C" | "F";
+  dateFormat?: DateFormat;
+}
+
+export interface ImportedReading {
+  takenAt: Date;
+  rhPercent: number;
+  tempC: number | null;
+  dewPointC?: number | null;
+}
+
+export interface CsvImportError {
+  /** 1-based physical line of the file. */
+  line: number;
+  message: string;
+}
+
+export interface CsvImportResult {
+  /** Valid readings sorted by time. */
+  rows: ImportedReading[];
+  errors: CsvImportError[];
+  duplicatesSkipped: number;
+}
+
+export const TEMP_LIMITS_C: readonly [number, number] = [-60, 90];
+
+interface ResolvedColumns {
+  time: number[];
+  rh: number;
+  temp: number | null;
+  dew: number | null;
+}
+
+function resolveColumn(ref: ColumnRef, header: string[] | null, label: string): number {
+  if (typeof ref === "number") {
+    if (!Number.isInteger(ref) || ref < 0) throw new RangeError(`${label}: column index must be a whole number ≥ 0`);
+    return ref;
+  }
+  if (!header) throw new RangeError(`${label}: column "${ref}" is a name, but the file has no header row`);
+  const wanted = ref.trim().toLowerCase();
+  const index = header.findIndex((h) => h.trim().toLowerCase() === wanted);
+  if (index < 0) throw new RangeError(`${label}: column "${ref}" is not in the header`);
+  return index;
+}
+
+function resolveColumns(mapping: CsvColumnMapping, header: string[] | null): ResolvedColumns {
+  const timeRefs: readonly ColumnRef[] = Array.isArray(mapping.time) ? mapping.time : [mapping.time as ColumnRef];
+  return {
+    time: timeRefs.map((ref) => resolveColumn(ref, header, "Time")),
+    rh: resolveColumn(mapping.rhPercent, header, "RH"),
+    temp: mapping.tempC == null ? null : resolveColumn(mapping.tempC, header, "Temperature"),
+    dew: mapping.dewPointC == null ? null : resolveColumn(mapping.dewPointC, header, "Dew point"),
+  };
+}
+
+export function importCsv(text: string, options: CsvImportOptions): CsvImportResult {
+  const skipLines = options.skipLines ?? 0;
+  if (!Number.isInteger(skipLines) || skipLines < 0) throw new RangeError("skipLines must be a whole number ≥ 0");
+  const { body, lineOffset } = prepareText(text, skipLines);
+  const delimiter = !options.delimiter || options.delimiter === "auto" ? detectDelimiter(body) : options.delimiter;
+  const zone = zoneResolver(options.timeZone ?? "UTC");
+  const dateFormat = options.dateFormat ?? "auto";
+  const fahrenheit = options.temperatureUnit === "F";
+  const toC = (value: number) => (fahrenheit ? ((value - 32) * 5) / 9 : value);
+  const wantDew = options.mapping.dewPointC != null;
+
+  const rows: ImportedReading[] = [];
+  const errors: CsvImportError[] = [];
+  const seen = new Set<number>();
+  let duplicatesSkipped = 0;
+  let sorted = true;
+  let lastMs = -Infinity;
+  let columns: ResolvedColumns | null = options.hasHeader === false ? resolveColumns(options.mapping, null) : null;
+  let needed = columns ? Math.max(...columns.time, columns.rh, columns.temp ?? 0, columns.dew ?? 0) + 1 : 0;
+  let failed = false;
+
+  eachRow(body, lineOffset, delimiter, (cells, line, parseError) => {
+    if (failed) return;
+    if (!columns) {
+      try {
+        columns = resolveColumns(options.mapping, cells.map((c) => c.replace(/^\uFEFF/, "")));
+      } catch (error) {
+        errors.push({ line, message: (error as Error).message });
+        failed = true;
+        return;
+      }
+      needed = Math.max(...columns.time, columns.rh, columns.temp ?? 0, columns.dew ?? 0) + 1;
+      return;
+    }
+    if (parseError) {
+      errors.push({ line, message: `Unreadable row: ${parseError}` });
+      return;
+    }
+    if (cells.length < needed) {
+      errors.push({ line, message: `Expected at least ${needed} columns, found ${cells.length}` });
+      return;
+    }
+    const problems: string[] = [];
+    const timeText = columns.time.length === 1 ? cells[columns.time[0]] : columns.time.map((i) => cells[i].trim()).join(" ");
+    const local = parseLocalTime(timeText, dateFormat);
+    const takenMs = local === null ? Number.NaN : local.offsetMinutes === null ? zone.toUtcMs(local.wallMs) : local.wallMs - local.offsetMinutes * 60_000;
+    if (Number.isNaN(takenMs)) problems.push(`time "${timeText.trim()}" is not a recognised date and time`);
+
+    const rh = parseLoggerNumber(cells[columns.rh]);
+    if (rh === null) problems.push("RH is empty");
+    else if (Number.isNaN(rh)) problems.push(`RH "${cells[columns.rh].trim()}" is not a number`);
+    else if (rh < 0 || rh > 100) problems.push(`RH ${rh} % is outside 0–100 %`);
+
+    let tempC: number | null = null;
+    if (columns.temp !== null) {
+      const raw = parseLoggerNumber(cells[columns.temp]);
+      if (raw !== null && Number.isNaN(raw)) problems.push(`temperature "${cells[columns.temp].trim()}" is not a number`);
+      else if (raw !== null) {
+        tempC = toC(raw);
+        if (tempC < TEMP_LIMITS_C[0] || tempC > TEMP_LIMITS_C[1]) problems.push(`temperature ${round1(tempC)} °C is outside −60…90 °C`);
+      }
+    }
+    let dewPointC: number | null = null;
+    if (columns.dew !== null) {
+      const raw = parseLoggerNumber(cells[columns.dew]);
+      if (raw !== null && Number.isNaN(raw)) problems.push(`dew point "${cells[columns.dew].trim()}" is not a number`);
+      else if (raw !== null) {
+        dewPointC = toC(raw);
+        if (dewPointC < -90 || dewPointC > TEMP_LIMITS_C[1]) problems.push(`dew point ${round1(dewPointC)} °C is outside −90…90 °C`);
+      }
+    }
+    if (problems.length > 0) {
+      errors.push({ line, message: capitalise(problems.join("; ")) });
+      return;
+    }
+    if (seen.has(takenMs)) {
+      duplicatesSkipped++;
+      return;
+    }
+    seen.add(takenMs);
+    if (takenMs < lastMs) sorted = false;
+    lastMs = takenMs;
+    const reading: ImportedReading = { takenAt: new Date(takenMs), rhPercent: rh as number, tempC };
+    if (wantDew) reading.dewPointC = dewPointC;
+    rows.push(reading);
+  });
+
+  if (!columns && !failed && options.hasHeader !== false) {
+    errors.push({ line: lineOffset + 1, message: "The file has no header row after the skipped lines" });
+  }
+  if (!sorted) rows.sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
+  return { rows, errors, duplicatesSkipped };
+}
+
+function round1(value: number): number {
+  return Math.round(value * 10) / 10;
+}
+
+function capitalise(s: string): string {
+  return s.charAt(0).toUpperCase() + s.slice(1);
+}
+
+export { previewCsv, type CsvPreview } from "@/lib/climate/csv-preview";
+export { parseLoggerNumber } from "@/lib/climate/csv-rows";

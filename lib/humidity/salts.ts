@@ -1,0 +1,193 @@
+// Equilibrium relative humidity over saturated salt solutions, from the polynomial fits of
+// L. Greenspan, "Humidity Fixed Points of Binary Saturated Aqueous Solutions",
+// J. Res. Natl. Bur. Stand. 81A(1):89–96 (1977) — the values behind ASTM E104 and OIML R 121.
+// Fit form: RH% = A0 + A1·t + A2·t² + A3·t³ with t in °C.
+//
+// Copies of these coefficients circulate with sign errors (LiCl A1, CH3COOK A2, K2CO3 A1); the
+// signs below were checked by reproducing Greenspan's tabulated values at 10/20/25/30 °C
+// (tests/unit/humidity-salts.test.ts).
+//
+// Uncertainty: Greenspan tabulates an uncertainty for every temperature, but only the 25 °C
+// values are on hand (recalled, REFERENCES.md §1 [mem]). We report that 25 °C value as the
+// uncertainty at every temperature in the fit range. It is the right order of magnitude; at the
+// ends of the range Greenspan's own figures are somewhat larger, so treat it as a lower bound there.
+//
+// Fit ranges are recalled, not re-read (REFERENCES.md §1 [mem]); outside them we refuse rather
+// than extrapolate, because a cubic fit can drift quickly past its data.
+
+import { ghsStatements, type GhsStatement } from "@/lib/humidity/ghs";
+
+export type SaltId = "LiCl" | "CH3COOK" | "MgCl2" | "K2CO3" | "Mg(NO3)2" | "NaCl" | "KCl" | "KNO3" | "K2SO4";
+
+export interface SaltInfo {
+  id: SaltId;
+  displayName: string;
+  /** [A0, A1, A2, A3] of RH% = A0 + A1·t + A2·t² + A3·t³, t in °C. */
+  coefficients: readonly [number, number, number, number];
+  rangeC: readonly [number, number];
+  /** Greenspan 1977 Table 1 uncertainty at 25 °C (%RH), used across the range (see header). */
+  uncertaintyPercent: number;
+  ghs: GhsStatement[];
+  /** Plain-language hazard summary for the chamber form. */
+  hazardText: string;
+  /** True for chlorides: slurry splashed on a specimen adds the very ion that drives iron corrosion. */
+  isChloride: boolean;
+  source: string;
+}
+
+const GREENSPAN = "Greenspan 1977, J. Res. NBS 81A:89–96 (fit coefficients; 25 °C uncertainty from memory)";
+const NOT_CLASSIFIED = "Generally not classified as hazardous under GHS (from memory; check the SDS).";
+
+export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
+  LiCl: {
+    id: "LiCl",
+    displayName: "Lithium chloride (LiCl)",
+    coefficients: [11.2323, 8.24245e-3, -2.1489e-4, 0],
+    rangeC: [0, 100],
+    uncertaintyPercent: 0.27,
+    ghs: ghsStatements(["H302", "H315", "H319"]),
+    hazardText: "Harmful if swallowed; irritates skin and eyes.",
+    isChloride: true,
+    source: GREENSPAN,
+  },
+  CH3COOK: {
+    id: "CH3COOK",
+    displayName: "Potassium acetate (CH3COOK)",
+    coefficients: [22.4388, 0.156288, -6.12268e-3, 0],
+    rangeC: [5, 30],
+    uncertaintyPercent: 0.32,
+    ghs: [],
+    hazardText: NOT_CLASSIFIED,
+    isChloride: false,
+    source: GREENSPAN,
+  },
+  MgCl2: {
+    id: "MgCl2",
+    displayName: "Magnesium chloride (MgCl2)",
+    coefficients: [33.6686, -7.97397e-3, -1.08988e-3, 0],
+    rangeC: [0, 100],
+    uncertaintyPercent: 0.16,
+    ghs: [],
+    hazardText: NOT_CLASSIFIED,
+    isChloride: true,
+    source: GREENSPAN,
+  },
+  K2CO3: {
+    id: "K2CO3",
+    displayName: "Potassium carbonate (K2CO3)",
+    coefficients: [43.1315, 1.47523e-3, 0, 0],
+    rangeC: [0, 30],
+    uncertaintyPercent: 0.39,
+    ghs: ghsStatements(["H315", "H319", "H335"]),
+    hazardText: "Irritates skin, eyes and airways; the solution is alkaline.",
+    isChloride: false,
+    source: GREENSPAN,
+  },
+  "Mg(NO3)2": {
+    id: "Mg(NO3)2",
+    displayName: "Magnesium nitrate (Mg(NO3)2)",
+    coefficients: [60.3514, -0.298153, 0, 0],
+    rangeC: [0, 40],
+    uncertaintyPercent: 0.22,
+    ghs: ghsStatements(["H272", "H319"]),
+    hazardText: "Oxidiser (UN1474, class 5.1): keep away from combustibles; irritates eyes.",
+    isChloride: false,
+    source: GREENSPAN,
+  },
+  NaCl: {
+    id: "NaCl",
+    displayName: "Sodium chloride (NaCl)",
+    coefficients: [75.5164, 0.0398321, -2.65459e-3, 2.848e-5],
+    rangeC: [0, 80],
+    uncertaintyPercent: 0.12,
+    ghs: [],
+    hazardText: NOT_CLASSIFIED,
+    isChloride: true,
+    source: GREENSPAN,
+  },
+  KCl: {
+    id: "KCl",
+    displayName: "Potassium chloride (KCl)",
+    coefficients: [88.619, -0.19334, 8.99706e-4, 0],
+    rangeC: [0, 90],
+    uncertaintyPercent: 0.26,
+    ghs: [],
+    hazardText: NOT_CLASSIFIED,
+    isChloride: true,
+    source: GREENSPAN,
+  },
+  KNO3: {
+    id: "KNO3",
+    displayName: "Potassium nitrate (KNO3)",
+    coefficients: [96.3361, 0.0112371, -4.84514e-3, 0],
+    rangeC: [0, 50],
+    uncertaintyPercent: 0.55,
+    ghs: ghsStatements(["H272"]),
+    hazardText: "Oxidiser: keep away from combustibles (classification from memory; check the SDS).",
+    isChloride: false,
+    source: GREENSPAN,
+  },
+  K2SO4: {
+    id: "K2SO4",
+    displayName: "Potassium sulfate (K2SO4)",
+    coefficients: [98.7792, -0.0590502, 0, 0],
+    rangeC: [0, 50],
+    uncertaintyPercent: 0.45,
+    ghs: [],
+    hazardText: NOT_CLASSIFIED,
+    isChloride: false,
+    source: GREENSPAN,
+  },
+};
+
+/** Salt ids in ascending order of equilibrium RH, for pickers. */
+export const SALT_IDS: readonly SaltId[] = Object.keys(SALTS) as SaltId[];
+
+export function isSaltId(value: string): value is SaltId {
+  return Object.prototype.hasOwnProperty.call(SALTS, value);
+}
+
+export interface SaltEquilibrium {
+  rhPercent: number;
+  uncertaintyPercent: number | null;
+  rangeC: [number, number];
+}
+
+export function saltEquilibriumRh(salt: SaltId, tempC: number): SaltEquilibrium {
+  const info = SALTS[salt];
+  if (!info) throw new RangeError(`Unknown salt "${String(salt)}"`);
+  const [lowC, highC] = info.rangeC;
+  if (!Number.isFinite(tempC) || tempC < lowC || tempC > highC) {
+    throw new RangeError(
+      `${info.displayName}: the Greenspan 1977 fit is valid from ${lowC} °C to ${highC} °C; got ${tempC} °C`,
+    );
+  }
+  const [a0, a1, a2, a3] = info.coefficients;
+  const rhPercent = a0 + tempC * (a1 + tempC * (a2 + tempC * a3));
+  return { rhPercent, uncertaintyPercent: info.uncertaintyPercent, rangeC: [lowC, highC] };
+}
+
+export interface SaltRhPoint {
+  tempC: number;
+  rhPercent: number;
+  uncertaintyPercent: number | null;
+}
+
+/** Points from the low to the high end of the fit range (both ends included) for a chart. */
+export function saltRhCurve(salt: SaltId, stepC = 1): SaltRhPoint[] {
+  if (!Number.isFinite(stepC) || stepC <= 0) throw new RangeError(`stepC must be a positive number; got ${stepC}`);
+  const [lowC, highC] = SALTS[salt].rangeC;
+  const points: SaltRhPoint[] = [];
+  const count = Math.floor((highC - lowC) / stepC + 1e-9);
+  // Computing t from the index (not by repeated addition) keeps 0.1 °C steps free of drift.
+  for (let i = 0; i <= count; i++) {
+    const tempC = Math.min(highC, lowC + i * stepC);
+    points.push({ tempC, ...pick(saltEquilibriumRh(salt, tempC)) });
+  }
+  if (points[points.length - 1].tempC < highC) points.push({ tempC: highC, ...pick(saltEquilibriumRh(salt, highC)) });
+  return points;
+}
+
+function pick(eq: SaltEquilibrium): Omit<SaltRhPoint, "tempC"> {
+  return { rhPercent: eq.rhPercent, uncertaintyPercent: eq.uncertaintyPercent };
+}
