@@ -1,0 +1,150 @@
+// Seeded random allocation of specimens to treatment arms, optionally blocked by material class.
+//
+// Rules (shown to researchers, so keep them plain):
+// - The result depends only on the seed and on the sets of specimen and arm ids, not on their
+//   input order: specimens are sorted by id, arms by id, and blocks by key before any random draw.
+// - Blocked: inside each block the specimens are shuffled and dealt one by one around a cycle of
+//   the arms. The cycle starts with the arms that hold the fewest specimens so far (ties broken at
+//   random), so each arm's count inside a block differs by at most 1 and, because leftovers always
+//   go to the emptiest arms, overall arm sizes also differ by at most 1.
+// - replicatesPerArm: only arms × replicates specimens are used, drawn from the blocks in
+//   proportion to block size (largest remainder, ties at random); the rest are reported unallocated.
+import { createRng, shuffled, type Rng } from "./prng";
+
+export type AllocationSpecimen = { id: string; materialClass: string };
+export type AllocationArm = { id: string };
+export type Assignment = { specimenId: string; armId: string };
+
+export type AllocationInput = {
+  specimens: readonly AllocationSpecimen[];
+  arms: readonly AllocationArm[];
+  seed: string | number;
+  blockBy?: "materialClass" | null;
+  replicatesPerArm?: number | null;
+};
+
+export type AllocationResult = {
+  assignments: Assignment[];
+  /** Specimen ids left out because replicatesPerArm asked for fewer specimens than were given. */
+  unallocated: string[];
+};
+
+/** Assignments only; see allocateDetailed for the unallocated specimens. */
+export function allocate(input: AllocationInput): Assignment[] {
+  return allocateDetailed(input).assignments;
+}
+
+export function allocateDetailed(input: AllocationInput): AllocationResult {
+  validate(input);
+  const rng = createRng(input.seed);
+  const arms = input.arms.map((a) => a.id).sort(compareIds);
+  const specimens = input.specimens.slice().sort((a, b) => compareIds(a.id, b.id));
+
+  const blocks = groupIntoBlocks(specimens, input.blockBy ?? null);
+  let unallocated: string[] = [];
+  if (input.replicatesPerArm != null) {
+    const needed = arms.length * input.replicatesPerArm;
+    if (needed > specimens.length) {
+      throw new RangeError(
+        `replicatesPerArm ${input.replicatesPerArm} × ${arms.length} arms needs ${needed} specimens; only ${specimens.length} given`,
+      );
+    }
+    const picked = pickProportionally(blocks, needed, rng);
+    unallocated = picked.leftOut;
+    blocks.splice(0, blocks.length, ...picked.blocks);
+  }
+
+  const armCounts = new Map<string, number>(arms.map((a) => [a, 0]));
+  const armOf = new Map<string, string>();
+  for (const block of blocks) {
+    const order = cycleOrder(arms, armCounts, rng);
+    const dealt = shuffled(block.ids, rng);
+    dealt.forEach((specimenId, i) => {
+      const armId = order[i % order.length] as string;
+      armOf.set(specimenId, armId);
+      armCounts.set(armId, (armCounts.get(armId) ?? 0) + 1);
+    });
+  }
+
+  // Report in the caller's order so a table of specimens lines up with its assignments.
+  const assignments: Assignment[] = [];
+  for (const s of input.specimens) {
+    const armId = armOf.get(s.id);
+    if (armId !== undefined) assignments.push({ specimenId: s.id, armId });
+  }
+  const leftOutSet = new Set(unallocated);
+  unallocated = input.specimens.filter((s) => leftOutSet.has(s.id)).map((s) => s.id);
+  return { assignments, unallocated };
+}
+
+type Block = { key: string; ids: string[] };
+
+function groupIntoBlocks(specimens: readonly AllocationSpecimen[], blockBy: "materialClass" | null): Block[] {
+  if (blockBy === null) return [{ key: "", ids: specimens.map((s) => s.id) }];
+  const byKey = new Map<string, string[]>();
+  for (const s of specimens) {
+    const list = byKey.get(s.materialClass) ?? [];
+    list.push(s.id);
+    byKey.set(s.materialClass, list);
+  }
+  return [...byKey.entries()]
+    .sort(([a], [b]) => compareIds(a, b))
+    .map(([key, ids]) => ({ key, ids }));
+}
+
+/** Arms with the fewest specimens so far come first; ties are shuffled. */
+function cycleOrder(arms: readonly string[], counts: Map<string, number>, rng: Rng): string[] {
+  const tieBreak = new Map(shuffled(arms, rng).map((a, i) => [a, i]));
+  return arms
+    .slice()
+    .sort((a, b) => (counts.get(a) ?? 0) - (counts.get(b) ?? 0) || (tieBreak.get(a) ?? 0) - (tieBreak.get(b) ?? 0));
+}
+
+/** Hamilton (largest remainder) quotas per block, then a random subset inside each block. */
+function pickProportionally(blocks: readonly Block[], needed: number, rng: Rng): { blocks: Block[]; leftOut: string[] } {
+  const total = blocks.reduce((n, b) => n + b.ids.length, 0);
+  const exact = blocks.map((b) => (b.ids.length * needed) / total);
+  const quota = exact.map(Math.floor);
+  let remaining = needed - quota.reduce((a, b) => a + b, 0);
+  const jitter = blocks.map(() => rng());
+  const byRemainder = blocks
+    .map((_, i) => i)
+    .sort((i, j) => exact[j] - quota[j] - (exact[i] - quota[i]) || jitter[i] - jitter[j]);
+  for (const i of byRemainder) {
+    if (remaining === 0) break;
+    if (quota[i] < blocks[i].ids.length) {
+      quota[i] += 1;
+      remaining -= 1;
+    }
+  }
+  const leftOut: string[] = [];
+  const kept = blocks.map((b, i) => {
+    const order = shuffled(b.ids, rng);
+    leftOut.push(...order.slice(quota[i]));
+    return { key: b.key, ids: order.slice(0, quota[i]).sort(compareIds) };
+  });
+  return { blocks: kept.filter((b) => b.ids.length > 0), leftOut };
+}
+
+function validate(input: AllocationInput): void {
+  if (input.arms.length === 0) throw new RangeError("at least one arm is needed");
+  assertUnique(input.arms.map((a) => a.id), "arm");
+  assertUnique(input.specimens.map((s) => s.id), "specimen");
+  const r = input.replicatesPerArm;
+  if (r != null && (!Number.isInteger(r) || r < 1)) {
+    throw new RangeError(`replicatesPerArm must be a positive integer, got ${r}`);
+  }
+}
+
+function assertUnique(ids: readonly string[], what: string): void {
+  const seen = new Set<string>();
+  for (const id of ids) {
+    if (seen.has(id)) throw new RangeError(`duplicate ${what} id ${id}`);
+    seen.add(id);
+  }
+}
+
+/** Code-unit order, not locale order, so every machine sorts the same way. */
+function compareIds(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
