@@ -1,0 +1,3 @@
+export * from "./plans";
+export * from "./status";
+export { addCalendarDays, startOfDay, DAY_MS } from "./calendar";
