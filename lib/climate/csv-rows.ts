@@ -48,22 +48,29 @@ export type RowVisitor = (cells: string[], line: number, parseError: string | nu
 export function eachRow(body: string, lineOffset: number, delimiter: string, visit: RowVisitor, preview = 0): void {
   let countedTo = 0;
   let line = lineOffset + 1;
-  let prevCursor = 0;
   Papa.parse<string[]>(body, {
     delimiter,
     newline: "\n",
     skipEmptyLines: "greedy",
     preview,
     step: (result) => {
-      // Skip the blank lines papaparse dropped, then count newlines up to the row's first character.
-      let start = prevCursor;
-      while (start < body.length && (body[start] === "\n" || body[start] === " " || body[start] === "\t")) start++;
-      for (let i = countedTo; i < start; i++) if (body.charCodeAt(i) === 10) line++;
-      countedTo = start;
-      prevCursor = result.meta.cursor;
+      // Find the row's last line from where papaparse stopped (stepping back over the line end),
+      // then subtract newlines inside quoted cells to get the line the row starts on. Counting
+      // from the end rather than the start keeps lines right after rows papaparse dropped (";;;").
+      let end = result.meta.cursor;
+      while (end > countedTo && isBlank(body.charCodeAt(end - 1))) end--;
+      for (let i = countedTo; i < end; i++) if (body.charCodeAt(i) === 10) line++;
+      countedTo = end;
+      let embedded = 0;
+      for (const cell of result.data) {
+        for (let at = cell.indexOf("\n"); at >= 0; at = cell.indexOf("\n", at + 1)) embedded++;
+      }
       const parseError = result.errors.length > 0 ? result.errors[0].message : null;
-      visit(result.data, line, parseError);
+      visit(result.data, line - embedded, parseError);
     },
   });
 }
 
+function isBlank(code: number): boolean {
+  return code === 10 || code === 32 || code === 9;
+}

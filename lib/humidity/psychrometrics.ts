@@ -101,6 +101,9 @@ export function dewPointC(tempC: number, rhPercent: number): number {
  * Frost point: the temperature at which the air's vapour would saturate over ice. Where the vapour
  * pressure is above the triple-point pressure no ice can form, so the dew point over water is
  * returned instead (the same convention as ASHRAE and psychrolib).
+ * Below 0 °C, air near water saturation is supersaturated over ice and the frost point comes out
+ * above the air temperature: frost will grow. We return that value as is (psychrolib caps it at
+ * the air temperature), so the inverse stays exact.
  */
 export function frostPointC(tempC: number, rhPercent: number): number {
   const lnE = Math.log(vaporPressureHpa(tempC, rhPercent));
