@@ -27,7 +27,7 @@ try {
   run(bin("tsx"), ["db/migrate.ts"], env, "migrating the database");
   run(bin("tsx"), ["db/seed.ts", "--if-empty"], env, "seeding the demo lab (only when the database is empty)");
   buildIfChanged(env);
-  const worker = spawn(bin("tsx"), ["scripts/worker.ts"], { cwd: root, env, stdio: "inherit" });
+  const worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], { cwd: root, env, stdio: "inherit" });
   children.push(worker);
   const next = spawn(bin("next"), ["start", "-p", env.PORT], { cwd: root, env, stdio: "inherit" });
   children.push(next);

@@ -206,7 +206,9 @@ CREATE TABLE "reminder_log" (
 	"inspection_id" uuid NOT NULL,
 	"user_id" uuid NOT NULL,
 	"kind" text NOT NULL,
-	"sent_at" timestamp with time zone DEFAULT now() NOT NULL,
+	"queued_at" timestamp with time zone DEFAULT now() NOT NULL,
+	"sent_at" timestamp with time zone,
+	"attempts" integer DEFAULT 0 NOT NULL,
 	CONSTRAINT "reminder_log_inspection_id_user_id_kind_pk" PRIMARY KEY("inspection_id","user_id","kind")
 );
 --> statement-breakpoint

@@ -87,7 +87,10 @@ export const reminderLog = pgTable("reminder_log", {
   inspectionId: uuid("inspection_id").notNull().references(() => inspections.id, { onDelete: "cascade" }),
   userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
   kind: text("kind").notNull(),
-  sentAt: timestamp("sent_at", { withTimezone: true }).notNull().defaultNow(),
+  queuedAt: timestamp("queued_at", { withTimezone: true }).notNull().defaultNow(),
+  // Null until the mail server accepted the message; the queue retries until then.
+  sentAt: timestamp("sent_at", { withTimezone: true }),
+  attempts: integer("attempts").notNull().default(0),
 }, (t) => [primaryKey({ columns: [t.inspectionId, t.userId, t.kind] })]);
 
 // After a trial is concluded only notes can be appended.

@@ -1,0 +1,49 @@
+import { notFound, redirect } from "next/navigation";
+import { getLabContext } from "@/lib/auth/context";
+import { formatDateTime } from "@/lib/format";
+import { listMessages } from "@/lib/mail-store";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata = { title: "Demo mailbox" };
+
+// Plain text with its links made clickable (invitation and reminder links).
+function Linked({ text }: { text: string }) {
+  const parts = text.split(/(https?:\/\/[^\s<>"]+)/g);
+  return <>{parts.map((p, i) => (/^https?:\/\//.test(p) ? <a key={i} className="link break-all" href={p}>{p}</a> : <span key={i}>{p}</span>))}</>;
+}
+
+export default async function MailboxPage({ searchParams }: { searchParams: Promise<{ to?: string }> }) {
+  if (process.env.DEMO_MODE !== "1") notFound();
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  const { to } = await searchParams;
+  const messages = await listMessages(process.env.MAIL_DIR ?? ".data/mail", { to: to || undefined, limit: 100 });
+  return (
+    <div className="space-y-4">
+      <h1 className="text-2xl font-semibold">Demo mailbox</h1>
+      <p className="text-sm muted max-w-3xl">
+        In demo mode Rustline sends mail to a local SMTP server that keeps every message here instead of delivering it.
+        Open an invitation or reminder link from this page. With a real mail service configured (SMTP_URL) this page is off.
+      </p>
+      <form method="get" className="flex gap-2 items-end">
+        <label className="text-sm">Recipient<input name="to" defaultValue={to ?? ""} className="field" placeholder="name@example.org" /></label>
+        <button className="btn-quiet">Filter</button>
+      </form>
+      {messages.length === 0 ? <EmptyState text="No mail yet. Invitations and inspection reminders will appear here." /> : (
+        <ul className="space-y-3">
+          {messages.map((m) => (
+            <li key={m.id} className="panel p-4">
+              <details>
+                <summary className="cursor-pointer">
+                  <span className="font-medium">{m.subject || "(no subject)"}</span>
+                  <span className="text-sm muted"> — to {m.to.join(", ")} · {formatDateTime(m.receivedAt)}</span>
+                </summary>
+                <pre className="mt-3 whitespace-pre-wrap text-sm font-sans"><Linked text={m.text} /></pre>
+              </details>
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,64 @@
+// Inspection reminders: the day before and when overdue, e-mail each technician of the trial.
+// The scan claims (inspection, user, kind) rows in reminder_log so a reminder is queued once;
+// the send job marks it sent, and the queue retries while the mail server is unreachable.
+import { and, eq, gt, isNull, lt, sql } from "drizzle-orm";
+import { appUrl, sendMail } from "@/lib/mail/send";
+import { formatDateTime } from "@/lib/format";
+import { db } from "../client";
+import { inspections, reminderLog, trialMembers, trials, users } from "../schema";
+
+export const OVERDUE_GRACE_HOURS = 6;
+export type ReminderKind = "day-before" | "overdue";
+export type ReminderJob = { inspectionId: string; userId: string; kind: ReminderKind };
+
+/** Find reminders that are due now and claim them; returns the jobs to send. */
+export async function claimDueReminders(now = new Date()): Promise<ReminderJob[]> {
+  const in24h = new Date(now.getTime() + 24 * 3_600_000);
+  const overdueBefore = new Date(now.getTime() - OVERDUE_GRACE_HOURS * 3_600_000);
+  const rows = await db
+    .select({ inspectionId: inspections.id, plannedAt: inspections.plannedAt, userId: trialMembers.userId })
+    .from(inspections)
+    .innerJoin(trials, eq(trials.id, inspections.trialId))
+    .innerJoin(trialMembers, and(eq(trialMembers.trialId, trials.id), eq(trialMembers.role, "technician")))
+    .innerJoin(users, eq(users.id, trialMembers.userId))
+    .where(and(eq(trials.status, "running"), isNull(inspections.doneAt), lt(inspections.plannedAt, in24h), eq(users.remindersOptOut, false)));
+  const jobs: ReminderJob[] = [];
+  for (const r of rows) {
+    const kind: ReminderKind = r.plannedAt < overdueBefore ? "overdue" : r.plannedAt > now ? "day-before" : "overdue";
+    if (kind === "overdue" && r.plannedAt >= overdueBefore) continue; // within the grace period
+    const claimed = await db.insert(reminderLog).values({ inspectionId: r.inspectionId, userId: r.userId, kind }).onConflictDoNothing().returning();
+    if (claimed.length) jobs.push({ inspectionId: r.inspectionId, userId: r.userId, kind });
+  }
+  return jobs;
+}
+
+/** Send one claimed reminder; throws when the mail server refuses, so the queue retries. */
+export async function sendReminder(job: ReminderJob) {
+  const [log] = await db.select().from(reminderLog).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
+  if (!log || log.sentAt) return "already-sent";
+  const [info] = await db
+    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, trialId: trials.id, trialTitle: trials.title, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
+    .from(inspections)
+    .innerJoin(trials, eq(trials.id, inspections.trialId))
+    .innerJoin(users, eq(users.id, job.userId))
+    .where(eq(inspections.id, job.inspectionId));
+  if (!info || info.doneAt || info.optOut) {
+    await db.update(reminderLog).set({ sentAt: new Date() }).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
+    return "skipped";
+  }
+  await db.update(reminderLog).set({ attempts: sql`${reminderLog.attempts} + 1` }).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
+  const link = appUrl(`/trials/${info.trialId}/inspections/${job.inspectionId}`);
+  const when = formatDateTime(info.plannedAt);
+  await sendMail({
+    to: info.email,
+    subject: job.kind === "overdue" ? `Overdue inspection: ${info.trialTitle}, day ${info.dayNumber}` : `Inspection tomorrow: ${info.trialTitle}, day ${info.dayNumber}`,
+    text: `Hello ${info.name},\n\n${job.kind === "overdue" ? "This inspection is overdue" : "This inspection is due"}: ${info.trialTitle}, day ${info.dayNumber}, planned for ${when}.\n\nOpen it: ${link}\n\nYou get these because you are a technician on this trial. Turn them off in Lab settings.`,
+  });
+  await db.update(reminderLog).set({ sentAt: new Date() }).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind), isNull(reminderLog.sentAt)));
+  return "sent";
+}
+
+/** Claimed but unsent reminders older than a minute (re-queued by the scan after a worker restart). */
+export async function unsentReminders(now = new Date()) {
+  return db.select().from(reminderLog).where(and(isNull(reminderLog.sentAt), lt(reminderLog.queuedAt, new Date(now.getTime() - 60_000)), gt(reminderLog.queuedAt, new Date(now.getTime() - 14 * 86_400_000))));
+}

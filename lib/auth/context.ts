@@ -1,0 +1,37 @@
+// Resolve who is calling and in which lab, and check one permission. Every server action and
+// route handler goes through requireLab (via labAction / labRoute); nothing trusts the UI.
+import { getServerSession } from "next-auth";
+import { getMembership } from "@/db/queries/memberships";
+import { AppError } from "./errors";
+import { authOptions } from "./options";
+import { can, type Permission, type Role } from "./permissions";
+
+export type SessionIdentity = { userId: string; labId: string | null } | null;
+export type LabContext = { userId: string; labId: string; role: Role; labName: string };
+
+export async function currentIdentity(): Promise<SessionIdentity> {
+  const s = await getServerSession(authOptions);
+  if (!s?.userId) return null;
+  return { userId: s.userId, labId: s.labId };
+}
+
+/** Session → membership (read fresh from the database) → permission. */
+export async function requireLab(identity: SessionIdentity, permission: Permission): Promise<LabContext> {
+  if (!identity) throw new AppError("unauthenticated", "Please sign in.");
+  if (!identity.labId) throw new AppError("forbidden", "You are not a member of any lab yet.");
+  const m = await getMembership({ userId: identity.userId, labId: identity.labId });
+  if (!m) throw new AppError("forbidden", "You are no longer a member of this lab.");
+  if (!can(m.role, permission)) {
+    throw new AppError("forbidden", `Your role (${m.role}) does not allow this.`);
+  }
+  return { userId: identity.userId, labId: identity.labId, role: m.role, labName: m.labName };
+}
+
+/** For Server Components: the context or null when signed out / not a member. */
+export async function getLabContext(permission: Permission = "lab.read"): Promise<LabContext | null> {
+  try {
+    return await requireLab(await currentIdentity(), permission);
+  } catch {
+    return null;
+  }
+}

@@ -1,0 +1,42 @@
+// The background worker started by `npm start`: inspection reminders (and later photo processing)
+// from the pg-boss queue on the same PostgreSQL.
+import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
+import { claimDueReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
+import { closeDb } from "@/db/client";
+
+const pollS = Number(process.env.WORKER_POLL_S ?? 2);
+
+async function scanOnce() {
+  const boss = await getBoss();
+  const jobs = await claimDueReminders();
+  for (const j of jobs) {
+    await boss.send(QUEUES.sendReminder, j, { retryLimit: 30, retryDelay: 5, retryBackoff: true, expireInSeconds: 120 });
+  }
+  if (jobs.length) console.log(`[worker] queued ${jobs.length} reminder(s)`);
+}
+
+async function main() {
+  const boss = await getBoss();
+  await boss.work<ReminderJob>(QUEUES.sendReminder, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async ([job]) => {
+    const r = await sendReminder(job.data);
+    console.log(`[worker] reminder ${job.data.kind} for ${job.data.inspectionId}: ${r}`);
+  });
+  await boss.work(QUEUES.reminderScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => scanOnce());
+  // Scan every minute; tests and the app can also request a scan by sending a reminder-scan job.
+  await boss.schedule(QUEUES.reminderScan, "* * * * *");
+  await scanOnce().catch((e) => console.error("[worker] scan failed:", e.message));
+  console.log("[worker] running");
+}
+
+async function shutdown() {
+  await stopBoss().catch(() => undefined);
+  await closeDb().catch(() => undefined);
+  process.exit(0);
+}
+process.on("SIGTERM", shutdown);
+process.on("SIGINT", shutdown);
+
+main().catch((err) => {
+  console.error("[worker] failed to start:", err);
+  process.exit(1);
+});
