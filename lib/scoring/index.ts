@@ -1,0 +1,3 @@
+export * from "./grades";
+export * from "./geometry";
+export * from "./rust-estimate";
