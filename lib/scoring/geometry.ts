@@ -112,21 +112,21 @@ export function rustedAreaDetail(face: readonly Point[], spots: readonly Mark[])
     const y = y0 + (j + 0.5) * h;
     polygonCrossings(face, y, faceCrossings);
     if (faceCrossings.length < 2) continue;
-    row.fill(0);
+    // Rows no mark reaches only add to the face count; sparse spots then cost little.
+    const active = shapes.filter((_, k) => y >= bounds[k].minY && y <= bounds[k].maxY);
+    if (active.length > 0) row.fill(0);
     const fill = (xa: number, xb: number, value: number) => {
       const i0 = Math.max(0, Math.ceil((xa - x0) / h - 0.5));
       const i1 = Math.min(nx, Math.ceil((xb - x0) / h - 0.5));
       if (i1 > i0) row.fill(value, i0, i1);
     };
-    shapes.forEach(({ shape, value }, k) => {
-      if (y < bounds[k].minY || y > bounds[k].maxY) return;
-      forEachInterval(shape, y, crossings, (xa, xb) => fill(xa, xb, value));
-    });
+    for (const { shape, value } of active) forEachInterval(shape, y, crossings, (xa, xb) => fill(xa, xb, value));
     for (let c = 0; c + 1 < faceCrossings.length; c += 2) {
       const i0 = Math.max(0, Math.ceil((faceCrossings[c] - x0) / h - 0.5));
       const i1 = Math.min(nx, Math.ceil((faceCrossings[c + 1] - x0) / h - 0.5));
-      for (let i = i0; i < i1; i++) rustSamples += row[i];
-      if (i1 > i0) faceSamples += i1 - i0;
+      if (i1 <= i0) continue;
+      faceSamples += i1 - i0;
+      if (active.length > 0) for (let i = i0; i < i1; i++) rustSamples += row[i];
     }
   }
 
