@@ -20,6 +20,8 @@ const csp = [
 
 const nextConfig: NextConfig = {
   reactStrictMode: true,
+  // Parallel local builds (e.g. several dev servers) can each use their own folder under .data/.
+  distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   serverExternalPackages: ["@node-rs/argon2", "sharp", "pg-boss", "s3rver"],
   experimental: { serverActions: { bodySizeLimit: "2mb" } },
