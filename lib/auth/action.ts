@@ -1,4 +1,5 @@
 // The one wrapper for server actions: session → lab membership → permission → zod parse → handler.
+import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { AppError, toAppError } from "./errors";
 import { currentIdentity, requireLab, type LabContext, type SessionIdentity } from "./context";
@@ -66,15 +67,34 @@ export async function runLabAction<S extends z.ZodType, T>(
   }
 }
 
+export type LabActionFn<T> = ((prev: ActionState<T> | undefined, formData: FormData) => Promise<ActionState<T>>) & {
+  /** The same chain for an explicit identity and input object (tests, scripts). Not reachable from a client. */
+  withIdentity: (identity: SessionIdentity, input: Record<string, unknown>) => Promise<ActionState<T>>;
+  permission: Permission;
+};
+
 /** Define a server action for useActionState: `(prevState, formData) => state`. */
 export function labAction<S extends z.ZodType, T = unknown>(
   permission: Permission,
   schema: S,
   handler: (ctx: LabContext, data: z.infer<S>) => Promise<ActionState<T> | void>,
-) {
-  return async (_prev: ActionState<T> | undefined, formData: FormData): Promise<ActionState<T>> => {
+): LabActionFn<T> {
+  const action = async (_prev: ActionState<T> | undefined, formData: FormData): Promise<ActionState<T>> => {
     return runLabAction(await currentIdentity(), permission, schema, formToObject(formData), handler);
   };
+  return Object.assign(action, {
+    withIdentity: (identity: SessionIdentity, input: Record<string, unknown>) => runLabAction(identity, permission, schema, input, handler),
+    permission,
+  });
+}
+
+/** revalidatePath that is a no-op outside a Next request (tests and scripts call actions directly). */
+export function revalidate(path: string) {
+  try {
+    revalidatePath(path);
+  } catch (err) {
+    if (!/static generation store missing|Invariant/i.test(err instanceof Error ? err.message : "")) throw err;
+  }
 }
 
 export { AppError };

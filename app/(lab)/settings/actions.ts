@@ -1,11 +1,10 @@
 "use server";
-import { revalidatePath } from "next/cache";
 import { eq } from "drizzle-orm";
 import { z } from "zod";
 import { db } from "@/db/client";
 import { users } from "@/db/schema";
 import { changePassword, createInvitation, setMemberRole } from "@/db/queries/accounts";
-import { labAction } from "@/lib/auth/action";
+import { labAction, revalidate } from "@/lib/auth/action";
 import { appUrl, sendMail } from "@/lib/mail/send";
 import { ROLE_LABELS } from "@/lib/auth/permissions";
 import { changePasswordSchema, inviteSchema, memberRoleSchema } from "@/lib/validation/auth";
@@ -24,13 +23,13 @@ export const inviteMember = labAction("members.manage", inviteSchema, async (ctx
     console.error("[mail] invitation not sent:", err);
     throw new AppError("unavailable", `The invitation was saved but the e-mail could not be sent. Copy this link to ${data.email}: ${link}`);
   }
-  revalidatePath("/settings");
+  revalidate("/settings");
   return { message: `Invitation sent to ${invitation.email}.` };
 });
 
 export const changeMemberRole = labAction("members.manage", memberRoleSchema, async (ctx, data) => {
   await setMemberRole({ labId: ctx.labId, actorId: ctx.userId, userId: data.userId, role: data.role });
-  revalidatePath("/settings");
+  revalidate("/settings");
   return { message: "Role updated." };
 });
 
@@ -41,6 +40,6 @@ export const changeOwnPassword = labAction("lab.read", changePasswordSchema, asy
 
 export const setReminderPreference = labAction("lab.read", z.object({ optOut: z.enum(["0", "1"]) }), async (ctx, data) => {
   await db.update(users).set({ remindersOptOut: data.optOut === "1" }).where(eq(users.id, ctx.userId));
-  revalidatePath("/settings");
+  revalidate("/settings");
   return { message: data.optOut === "1" ? "You will not get reminder e-mails." : "You will get reminder e-mails." };
 });

@@ -1,9 +1,12 @@
 import { defineConfig } from "vitest/config";
 import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const here = path.dirname(fileURLToPath(import.meta.url));
 
 // Unit tests run anywhere; integration and e2e tests expect the services that scripts/test.mjs starts.
 export default defineConfig({
-  resolve: { alias: { "@": path.resolve(__dirname), "server-only": path.resolve(__dirname, "tests/support/server-only.ts") } },
+  resolve: { alias: { "@": here, "server-only": path.resolve(here, "tests/support/server-only.ts") } },
   test: {
     include: ["tests/**/*.test.ts"],
     environment: "node",
