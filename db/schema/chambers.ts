@@ -1,4 +1,4 @@
-import { bigserial, boolean, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigserial, boolean, doublePrecision, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chamberKindEnum, desiccantEventKindEnum, readingSourceEnum } from "./enums";
 
@@ -47,6 +47,7 @@ export const readingImports = pgTable("reading_imports", {
   filename: text("filename").notNull(),
   rowsImported: integer("rows_imported").notNull().default(0),
   duplicatesSkipped: integer("duplicates_skipped").notNull().default(0),
+  instrument: text("instrument").notNull().default(""),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("reading_imports_lab_idx").on(t.labId, t.createdAt)]);
@@ -86,7 +87,23 @@ export const hygrometerChecks = pgTable("hygrometer_checks", {
   referenceRhPercent: doublePrecision("reference_rh_percent").notNull(),
   offsetRhPercent: doublePrecision("offset_rh_percent").notNull(),
   applied: boolean("applied").notNull().default(false),
+  // The chamber page the check was recorded from (informational; the offset belongs to the instrument).
+  chamberId: uuid("chamber_id").references(() => chambers.id, { onDelete: "restrict" }),
+  notes: text("notes").notNull().default(""),
   checkedAt: timestamp("checked_at", { withTimezone: true }).notNull(),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("hygrometer_checks_lab_idx").on(t.labId, t.instrument, t.checkedAt)]);
+
+// Desiccant exhaustion reminders: the scan claims (charge event, recipient) once; sentAt stays null
+// until the mail server accepted the message, so unsent claims are retried by later scans.
+export const desiccantReminders = pgTable("desiccant_reminders", {
+  eventId: uuid("event_id").notNull().references(() => desiccantEvents.id, { onDelete: "cascade" }),
+  userId: uuid("user_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "cascade" }),
+  exhaustionAt: timestamp("exhaustion_at", { withTimezone: true }).notNull(),
+  queuedAt: timestamp("queued_at", { withTimezone: true }).notNull().defaultNow(),
+  sentAt: timestamp("sent_at", { withTimezone: true }),
+  attempts: integer("attempts").notNull().default(0),
+}, (t) => [primaryKey({ columns: [t.eventId, t.userId] }), index("desiccant_reminders_unsent_idx").on(t.sentAt, t.queuedAt)]);
