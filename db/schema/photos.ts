@@ -1,4 +1,6 @@
+import { sql } from "drizzle-orm";
 import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, bigint } from "drizzle-orm/pg-core";
+import type { Mark } from "../../lib/scoring/geometry";
 import { labs, users } from "./auth";
 import { photoStatusEnum, silicateChangeEnum } from "./enums";
 import { specimens } from "./specimens";
@@ -35,12 +37,11 @@ export const photos = pgTable("photos", {
   index("photos_lab_inspection_idx").on(t.labId, t.inspectionId),
 ]);
 
-export type MarkGeometry =
-  | { kind: "outline"; points: { x: number; y: number }[] }
-  | { kind: "polygon"; points: { x: number; y: number }[] }
-  | { kind: "circle"; cx: number; cy: number; r: number }
-  | { kind: "brush"; points: { x: number; y: number }[]; radius: number }
-  | { kind: "erase"; points: { x: number; y: number }[]; radius: number };
+// Geometry is stored exactly as lib/scoring/geometry computes with it (original-image pixels), so the
+// area is re-derivable from the rows alone. An erase mark wraps the shape it clears.
+export type MarkGeometry = Mark;
+/** "face": the outline of the specimen face (one per photo and scorer); "spot": rust marks and erasures. */
+export type MarkRole = "face" | "spot";
 
 export const marks = pgTable("marks", {
   id: uuid("id").primaryKey().defaultRandom(),
@@ -48,6 +49,9 @@ export const marks = pgTable("marks", {
   photoId: uuid("photo_id").notNull().references(() => photos.id, { onDelete: "restrict" }),
   scorerId: uuid("scorer_id").references(() => users.id, { onDelete: "set null" }),
   geometry: jsonb("geometry").$type<MarkGeometry>().notNull(),
+  role: text("role").$type<MarkRole>().notNull().default("spot"),
+  // Paint order: marks apply in sequence (an erase clears what came before it).
+  seq: integer("seq").notNull().default(0),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("marks_lab_photo_idx").on(t.labId, t.photoId, t.scorerId)]);
 
@@ -71,9 +75,14 @@ export const scores = pgTable("scores", {
   noChange: boolean("no_change").notNull().default(false),
   notes: text("notes").notNull().default(""),
   isRecord: boolean("is_record").notNull().default(true),
+  /** Where the area came from: "marks", "estimate" (accepted colour estimate), "manual" or "previous". */
+  areaSource: text("area_source"),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [
   uniqueIndex("scores_unique_idx").on(t.inspectionId, t.specimenId, t.scorerId),
+  // One score of record per specimen × inspection, and one consensus score (scorer_id null) at most.
+  uniqueIndex("scores_record_idx").on(t.inspectionId, t.specimenId).where(sql`${t.isRecord}`),
+  uniqueIndex("scores_consensus_idx").on(t.inspectionId, t.specimenId).where(sql`${t.scorerId} is null`),
   index("scores_lab_trial_idx").on(t.labId, t.trialId, t.specimenId),
 ]);
