@@ -102,3 +102,20 @@ export const trialNotes = pgTable("trial_notes", {
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [index("trial_notes_trial_idx").on(t.labId, t.trialId, t.createdAt)]);
+
+// The draft allocation: which selected specimen goes to which arm. armId null = selected but left
+// over (more specimens than arms × replicates). Starting the trial turns these rows into placements.
+export const trialAllocations = pgTable("trial_allocations", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  trialId: uuid("trial_id").notNull().references(() => trials.id, { onDelete: "restrict" }),
+  specimenId: uuid("specimen_id").notNull().references(() => specimens.id, { onDelete: "restrict" }),
+  armId: uuid("arm_id").references(() => trialArms.id, { onDelete: "restrict" }),
+  // The material class at allocation time (the block), so later edits of a specimen do not rewrite it.
+  blockKey: text("block_key").notNull().default(""),
+  swapReason: text("swap_reason"),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [
+  uniqueIndex("trial_allocations_specimen_idx").on(t.trialId, t.specimenId),
+  index("trial_allocations_lab_idx").on(t.labId, t.trialId),
+]);
