@@ -29,6 +29,8 @@ export const photos = pgTable("photos", {
   orientation: integer("orientation"),
   gps: jsonb("gps").$type<{ lat: number; lon: number } | null>(),
   derivatives: jsonb("derivatives").$type<Record<string, string>>().notNull().default({}),
+  // Why previews could not be made (e.g. a format the server cannot decode); null when fine.
+  processingNote: text("processing_note"),
   uploadedBy: uuid("uploaded_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [
