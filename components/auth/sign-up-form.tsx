@@ -1,24 +1,24 @@
 "use client";
 import { signIn } from "next-auth/react";
 import { useRouter } from "next/navigation";
-import { useActionState, useEffect, useRef } from "react";
+import { useActionState, useEffect, useState } from "react";
 import { signUp } from "@/app/(auth)/sign-up/actions";
 import { Field, FormMessage, SubmitButton } from "@/components/ui/form";
 
 export function SignUpForm() {
   const [state, action] = useActionState(signUp, undefined);
-  const password = useRef<HTMLInputElement>(null);
+  // Controlled, because React resets uncontrolled fields after a form action and we sign in with it afterwards.
+  const [password, setPassword] = useState("");
   const router = useRouter();
 
   useEffect(() => {
     if (state?.ok && state.values?.email) {
-      const pw = (document.getElementById("f-password") as HTMLInputElement | null)?.value ?? "";
-      signIn("credentials", { email: state.values.email, password: pw, redirect: false }).then(() => {
+      signIn("credentials", { email: state.values.email, password, redirect: false }).then(() => {
         router.push("/");
         router.refresh();
       });
     }
-  }, [state, router]);
+  }, [state]);
 
   return (
     <form action={action} className="panel p-6 space-y-4" noValidate>
@@ -28,7 +28,7 @@ export function SignUpForm() {
       <Field name="email" label="E-mail" type="email" state={state} autoComplete="email" />
       <div className="space-y-1">
         <label htmlFor="f-password" className="block text-sm font-medium">Password</label>
-        <input ref={password} id="f-password" name="password" type="password" autoComplete="new-password" className="field"
+        <input value={password} onChange={(e) => setPassword(e.target.value)} id="f-password" name="password" type="password" autoComplete="new-password" className="field"
           aria-invalid={state?.errors?.password ? true : undefined} aria-describedby="f-password-hint f-password-err" />
         <p id="f-password-hint" className="text-xs muted">At least 10 characters, mixing letters with digits or symbols.</p>
         {state?.errors?.password && <p id="f-password-err" role="alert" className="text-sm text-rust-600">{state.errors.password.join(" ")}</p>}

@@ -1,0 +1,40 @@
+// npm run bench — start the local services, use a throwaway database (rustline_bench, reset each run),
+// and run every benchmark in bench/, each printing its own figures. Nothing here asserts a time.
+import { spawnSync } from "node:child_process";
+import fs from "node:fs";
+import path from "node:path";
+import { bin, ensureDependencies, root, run } from "./lib/bootstrap.mjs";
+
+ensureDependencies();
+const { localEnv } = await import("./lib/env.mjs");
+const { startServices, stopServices } = await import("./lib/services.mjs");
+
+const base = localEnv("test");
+const env = {
+  ...process.env,
+  ...base,
+  DATABASE_URL: base.DATABASE_URL.replace(/\/rustline_test$/, "/rustline_bench_test"),
+  NODE_ENV: "production",
+};
+const only = process.argv.slice(2);
+let started = [];
+let failed = 0;
+try {
+  started = await startServices(env, { databases: ["rustline", "rustline_test", "rustline_bench_test"] });
+  run(bin("tsx"), ["db/migrate.ts", "--reset"], env, "resetting and migrating the bench database");
+  const files = fs.readdirSync(path.join(root, "bench")).filter((f) => f.endsWith("-bench.ts") && (!only.length || only.some((o) => f.includes(o)))).sort();
+  for (const f of files) {
+    console.log(`\n=== ${f} ===`);
+    const r = spawnSync(process.execPath, ["--conditions=react-server", "--import", "tsx", path.join("bench", f)], { cwd: root, env, stdio: "inherit" });
+    if (r.status !== 0) {
+      failed++;
+      console.log(`(${f} exited with ${r.status})`);
+    }
+  }
+} catch (err) {
+  console.error(`\n[bench] ${err instanceof Error ? err.message : err}`);
+  failed++;
+} finally {
+  await stopServices(started);
+}
+process.exit(failed ? 1 : 0);
