@@ -28,6 +28,8 @@ export const PERMISSIONS = {
   "photos.upload": STAFF,
   "photos.gps": STAFF,
   "scores.write": STAFF,
+  // Recording the agreed score after scorers discussed a disagreement (trials with the consensus rule).
+  "scores.consensus": DESIGN,
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Permission = keyof typeof PERMISSIONS;
