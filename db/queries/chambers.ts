@@ -1,0 +1,223 @@
+import "server-only";
+import crypto from "node:crypto";
+import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
+import { AppError } from "@/lib/auth/errors";
+import { desiccantBudget, projectedExhaustionDate, type DesiccantBudget } from "@/lib/humidity/desiccant";
+import { hygrometerOffset } from "@/lib/climate/hygrometer-check";
+import type { SaltId } from "@/lib/humidity/salts";
+import type { ChamberInput, DesiccantEventKind } from "@/lib/validation/chambers";
+import { recordAudit } from "../audit";
+import { db, type DbOrTx } from "../client";
+import { chamberTokens, chambers, desiccantEvents, hygrometerChecks, inspections, readings, trialArms } from "../schema";
+
+export type Chamber = typeof chambers.$inferSelect;
+export type DesiccantEvent = typeof desiccantEvents.$inferSelect;
+
+export const CHAMBER_SORTS = ["name", "kind", "setpoint", "temperature", "lastReading", "created"] as const;
+export type ChamberSort = (typeof CHAMBER_SORTS)[number];
+
+const lastReadingAt = sql<Date | null>`(select max(r.taken_at) from ${readings} r where r.chamber_id = ${chambers.id})`.mapWith((v) => (v ? new Date(v) : null));
+const lastRh = sql<number | null>`(select r.rh_percent from ${readings} r where r.chamber_id = ${chambers.id} order by r.taken_at desc limit 1)`.mapWith((v) => (v == null ? null : Number(v)));
+
+/** One page of a lab's chambers, sorted and filtered on the server. */
+export async function listChambers({ labId, q, kind, archived = false, sort = "name", dir = "asc", page = 1, pageSize = 20 }: {
+  labId: string; q?: string; kind?: string; archived?: boolean; sort?: ChamberSort; dir?: "asc" | "desc"; page?: number; pageSize?: number;
+}) {
+  const where: SQL[] = [eq(chambers.labId, labId), archived ? isNotNull(chambers.archivedAt) : isNull(chambers.archivedAt)];
+  if (q) where.push(ilike(chambers.name, `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`));
+  if (kind) where.push(sql`${chambers.kind}::text = ${kind}`);
+  const col = { name: chambers.name, kind: chambers.kind, setpoint: chambers.setpointRhPercent, temperature: chambers.nominalTempC, lastReading: lastReadingAt, created: chambers.createdAt }[sort];
+  const order = dir === "desc" ? sql`${col} desc nulls last` : sql`${col} asc nulls last`;
+  const [rows, [{ total }]] = await Promise.all([
+    db
+      .select({ id: chambers.id, name: chambers.name, kind: chambers.kind, saltId: chambers.saltId, desiccantKind: chambers.desiccantKind, nominalTempC: chambers.nominalTempC, setpointRhPercent: chambers.setpointRhPercent, toleranceRhPercent: chambers.toleranceRhPercent, lastReadingAt, lastRh })
+      .from(chambers)
+      .where(and(...where))
+      .orderBy(order, asc(chambers.id))
+      .limit(pageSize)
+      .offset((page - 1) * pageSize),
+    db.select({ total: count() }).from(chambers).where(and(...where)),
+  ]);
+  return { rows, total };
+}
+
+/** The chamber, or not-found for a missing id or another lab's chamber. */
+export async function getChamber({ labId, chamberId }: { labId: string; chamberId: string }, tx: DbOrTx = db): Promise<Chamber> {
+  if (!/^[0-9a-f-]{36}$/i.test(chamberId)) throw new AppError("not-found", "No such chamber in this lab.");
+  const [row] = await tx.select().from(chambers).where(and(eq(chambers.id, chamberId), eq(chambers.labId, labId))).limit(1);
+  if (!row) throw new AppError("not-found", "No such chamber in this lab.");
+  return row;
+}
+
+export async function createChamber({ labId, userId, values }: { labId: string; userId: string; values: ChamberInput }) {
+  return db.transaction(async (tx) => {
+    const [row] = await tx.insert(chambers).values({ ...values, labId, createdBy: userId }).returning();
+    await recordAudit(tx, { labId, userId, entity: "chamber", entityId: row.id, action: "create", summary: `Chamber "${row.name}" defined (${row.setpointRhPercent} ± ${row.toleranceRhPercent} %RH)`, after: row });
+    return row;
+  });
+}
+
+export async function updateChamber({ labId, userId, chamberId, values }: { labId: string; userId: string; chamberId: string; values: ChamberInput }) {
+  return db.transaction(async (tx) => {
+    const before = await getChamber({ labId, chamberId }, tx);
+    const [after] = await tx.update(chambers).set({ ...values, updatedAt: new Date() }).where(and(eq(chambers.id, chamberId), eq(chambers.labId, labId))).returning();
+    await recordAudit(tx, { labId, userId, entity: "chamber", entityId: chamberId, action: "update", summary: `Chamber "${after.name}" edited`, before, after });
+    return after;
+  });
+}
+
+export async function setChamberArchived({ labId, userId, chamberId, archived }: { labId: string; userId: string; chamberId: string; archived: boolean }) {
+  return db.transaction(async (tx) => {
+    const before = await getChamber({ labId, chamberId }, tx);
+    const [after] = await tx.update(chambers).set({ archivedAt: archived ? new Date() : null, updatedAt: new Date() }).where(eq(chambers.id, chamberId)).returning();
+    await recordAudit(tx, { labId, userId, entity: "chamber", entityId: chamberId, action: "update", summary: `Chamber "${after.name}" ${archived ? "archived" : "restored"}`, before: { archivedAt: before.archivedAt }, after: { archivedAt: after.archivedAt } });
+    return after;
+  });
+}
+
+// ——— Desiccant upkeep ———
+
+export async function listDesiccantEvents({ labId, chamberId, limit = 100 }: { labId: string; chamberId: string; limit?: number }) {
+  return db.select().from(desiccantEvents).where(and(eq(desiccantEvents.labId, labId), eq(desiccantEvents.chamberId, chamberId))).orderBy(desc(desiccantEvents.at), desc(desiccantEvents.createdAt)).limit(limit);
+}
+
+export async function addDesiccantEvent({ labId, userId, chamberId, kind, at, massG, notes }: { labId: string; userId: string; chamberId: string; kind: DesiccantEventKind; at: Date; massG?: number; notes: string }) {
+  return db.transaction(async (tx) => {
+    const chamber = await getChamber({ labId, chamberId }, tx);
+    if (chamber.kind !== "desiccant") throw new AppError("invalid", "This chamber does not use a desiccant.");
+    const [row] = await tx.insert(desiccantEvents).values({ labId, chamberId, kind, at, massG: massG ?? null, notes, createdBy: userId }).returning();
+    await recordAudit(tx, { labId, userId, entity: "desiccant-event", entityId: row.id, action: "create", summary: `Desiccant ${kind} in "${chamber.name}"${massG != null ? ` (${massG} g)` : ""}`, after: row });
+    return row;
+  });
+}
+
+/** Events that start a fresh charge; "checked" only records a weighing or a look. */
+export const RESET_EVENTS = new Set(["charged", "regenerated", "replaced"]);
+
+export type DesiccantStatus = {
+  budget: DesiccantBudget | null;
+  /** Why no budget could be computed (missing volume, room RH…). */
+  missing: string[];
+  lastCharge: DesiccantEvent | null;
+  exhaustionAt: Date | null;
+};
+
+/** Water budget (lib/humidity/desiccant) and exhaustion date counted from the last charge or regeneration. */
+export function desiccantStatus(chamber: Chamber, events: readonly DesiccantEvent[]): DesiccantStatus {
+  const lastCharge = [...events].filter((e) => RESET_EVENTS.has(e.kind)).sort((a, b) => b.at.getTime() - a.at.getTime())[0] ?? null;
+  const missing: string[] = [];
+  if (!chamber.desiccantKind) missing.push("desiccant kind");
+  const massG = lastCharge?.massG ?? chamber.desiccantMassG;
+  if (massG == null) missing.push("desiccant mass");
+  if (chamber.volumeL == null) missing.push("jar volume");
+  if (chamber.roomRhPercent == null) missing.push("room RH");
+  if (chamber.airExchangePerDay == null) missing.push("air exchanges per day");
+  if (missing.length) return { budget: null, missing, lastCharge, exhaustionAt: null };
+  let budget: DesiccantBudget;
+  try {
+    budget = desiccantBudget({
+      kind: chamber.desiccantKind as Parameters<typeof desiccantBudget>[0]["kind"],
+      massG: massG!,
+      jarVolumeL: chamber.volumeL!,
+      tempC: chamber.nominalTempC,
+      insideRhPercent: chamber.setpointRhPercent,
+      outsideRhPercent: chamber.roomRhPercent!,
+      airExchangePerDay: chamber.airExchangePerDay!,
+    });
+  } catch (err) {
+    return { budget: null, missing: [(err as Error).message], lastCharge, exhaustionAt: null };
+  }
+  const exhaustionAt = lastCharge ? projectedExhaustionDate(lastCharge.at, budget) : null;
+  return { budget, missing, lastCharge, exhaustionAt };
+}
+
+/** Latest inspection of a trial that has this chamber in an arm: the jar was opened then. */
+export async function lastInspectionOpening({ labId, chamberId }: { labId: string; chamberId: string }): Promise<Date | null> {
+  const [row] = await db
+    .select({ doneAt: inspections.doneAt })
+    .from(inspections)
+    .innerJoin(trialArms, and(eq(trialArms.trialId, inspections.trialId), eq(trialArms.chamberId, chamberId)))
+    .where(and(eq(inspections.labId, labId), isNotNull(inspections.doneAt)))
+    .orderBy(desc(inspections.doneAt))
+    .limit(1);
+  return row?.doneAt ?? null;
+}
+
+// ——— Logger tokens ———
+
+export function hashChamberToken(token: string) {
+  return crypto.createHash("sha256").update(token).digest("hex");
+}
+
+/** A new token for one chamber; the plain token is returned once and only its SHA-256 is kept. */
+export async function createChamberToken({ labId, userId, chamberId, label }: { labId: string; userId: string; chamberId: string; label: string }) {
+  const token = `rlc_${crypto.randomBytes(32).toString("base64url")}`;
+  const row = await db.transaction(async (tx) => {
+    const chamber = await getChamber({ labId, chamberId }, tx);
+    const [created] = await tx.insert(chamberTokens).values({ labId, chamberId, label, tokenHash: hashChamberToken(token), createdBy: userId }).returning();
+    await recordAudit(tx, { labId, userId, entity: "chamber-token", entityId: created.id, action: "create", summary: `Logger token "${label}" created for "${chamber.name}"`, after: created });
+    return created;
+  });
+  return { token, row };
+}
+
+export async function listChamberTokens({ labId, chamberId }: { labId: string; chamberId: string }) {
+  return db
+    .select({ id: chamberTokens.id, label: chamberTokens.label, createdAt: chamberTokens.createdAt, lastUsedAt: chamberTokens.lastUsedAt, revokedAt: chamberTokens.revokedAt })
+    .from(chamberTokens)
+    .where(and(eq(chamberTokens.labId, labId), eq(chamberTokens.chamberId, chamberId)))
+    .orderBy(desc(chamberTokens.createdAt));
+}
+
+export async function revokeChamberToken({ labId, userId, chamberId, tokenId }: { labId: string; userId: string; chamberId: string; tokenId: string }) {
+  return db.transaction(async (tx) => {
+    const [before] = await tx.select().from(chamberTokens).where(and(eq(chamberTokens.id, tokenId), eq(chamberTokens.labId, labId), eq(chamberTokens.chamberId, chamberId)));
+    if (!before) throw new AppError("not-found", "No such token for this chamber.");
+    if (before.revokedAt) return before;
+    const [after] = await tx.update(chamberTokens).set({ revokedAt: new Date() }).where(eq(chamberTokens.id, tokenId)).returning();
+    await recordAudit(tx, { labId, userId, entity: "chamber-token", entityId: tokenId, action: "update", summary: `Logger token "${before.label}" revoked`, before, after });
+    return after;
+  });
+}
+
+// ——— Hygrometer checks ———
+
+export type HygrometerCheck = typeof hygrometerChecks.$inferSelect;
+
+export async function addHygrometerCheck({ labId, userId, chamberId, values }: {
+  labId: string; userId: string; chamberId: string;
+  values: { instrument: string; saltId: SaltId; tempC: number; readingRhPercent: number; checkedAt: Date; apply: boolean; notes: string };
+}) {
+  const offset = hygrometerOffset({ readingRhPercent: values.readingRhPercent, salt: values.saltId, tempC: values.tempC });
+  return db.transaction(async (tx) => {
+    const chamber = await getChamber({ labId, chamberId }, tx);
+    const [row] = await tx.insert(hygrometerChecks).values({
+      labId, chamberId, instrument: values.instrument, saltId: values.saltId, tempC: values.tempC, readingRhPercent: values.readingRhPercent,
+      referenceRhPercent: offset.referenceRhPercent, offsetRhPercent: offset.offsetPercent, applied: values.apply, checkedAt: values.checkedAt, notes: values.notes, createdBy: userId,
+    }).returning();
+    await recordAudit(tx, { labId, userId, entity: "hygrometer-check", entityId: row.id, action: "create", summary: `Hygrometer "${values.instrument}" checked over ${values.saltId} (offset ${offset.offsetPercent.toFixed(2)} %RH${values.apply ? ", applied" : ""}) from "${chamber.name}"`, after: row });
+    return row;
+  });
+}
+
+export async function setHygrometerCheckApplied({ labId, userId, checkId, applied }: { labId: string; userId: string; checkId: string; applied: boolean }) {
+  return db.transaction(async (tx) => {
+    const [before] = await tx.select().from(hygrometerChecks).where(and(eq(hygrometerChecks.id, checkId), eq(hygrometerChecks.labId, labId)));
+    if (!before) throw new AppError("not-found", "No such hygrometer check in this lab.");
+    const [after] = await tx.update(hygrometerChecks).set({ applied }).where(eq(hygrometerChecks.id, checkId)).returning();
+    await recordAudit(tx, { labId, userId, entity: "hygrometer-check", entityId: checkId, action: "update", summary: `Offset of "${before.instrument}" ${applied ? "applied to readings from" : "no longer applied from"} ${before.checkedAt.toISOString().slice(0, 16)}`, before, after });
+    return after;
+  });
+}
+
+/** Checks of the given instruments (lab-wide: an offset belongs to the instrument, wherever it sits). */
+export async function listHygrometerChecks({ labId, instruments }: { labId: string; instruments: string[] }) {
+  if (instruments.length === 0) return [];
+  return db.select().from(hygrometerChecks).where(and(eq(hygrometerChecks.labId, labId), inArray(hygrometerChecks.instrument, instruments))).orderBy(desc(hygrometerChecks.checkedAt));
+}
+
+/** Distinct instruments that have logged in this chamber. */
+export async function listChamberInstruments({ labId, chamberId }: { labId: string; chamberId: string }) {
+  const rows = await db.selectDistinct({ instrument: readings.instrument }).from(readings).where(and(eq(readings.labId, labId), eq(readings.chamberId, chamberId)));
+  return rows.map((r) => r.instrument).sort();
+}

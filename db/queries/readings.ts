@@ -1,0 +1,243 @@
+import "server-only";
+import { and, desc, eq, sql } from "drizzle-orm";
+import { AppError } from "@/lib/auth/errors";
+import { bandStats, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
+import { importCsv, type CsvImportError } from "@/lib/climate/csv-import";
+import { applyOffset } from "@/lib/climate/hygrometer-check";
+import { dewPointC } from "@/lib/humidity/psychrometrics";
+import type { ApiReading, CsvImportOptionsInput, Period } from "@/lib/validation/chambers";
+import { recordAudit } from "../audit";
+import { db, getPool, type DbOrTx } from "../client";
+import { chamberTokens, chambers, readingImports, readings } from "../schema";
+import { getChamber, hashChamberToken, listHygrometerChecks, type Chamber, type HygrometerCheck } from "./chambers";
+
+export type NewReading = { takenAt: Date; rhPercent: number; tempC: number | null; dewPointC: number | null; instrument: string };
+type Source = "manual" | "csv" | "api";
+
+const BATCH = 10_000;
+
+/**
+ * Insert readings in batches through unnest() (one statement per 10,000 rows instead of one bind
+ * parameter per value); a row that already exists for chamber + time + instrument is skipped.
+ * Returns how many were stored.
+ */
+export async function insertReadings(
+  tx: DbOrTx,
+  { labId, chamberId, source, importId = null, rows, onBatch }: { labId: string; chamberId: string; source: Source; importId?: string | null; rows: readonly NewReading[]; onBatch?: (done: number) => void | Promise<void> },
+): Promise<number> {
+  let stored = 0;
+  for (let i = 0; i < rows.length; i += BATCH) {
+    const part = rows.slice(i, i + BATCH);
+    const result = await tx.execute<{ n: string }>(sql`
+      with ins as (
+        insert into ${readings} (lab_id, chamber_id, taken_at, rh_percent, temp_c, dew_point_c, source, instrument, import_id)
+        select ${labId}::uuid, ${chamberId}::uuid, u.t, u.rh, u.tc, u.dp, ${source}::reading_source, u.ins, ${importId}::uuid
+        from unnest(${sql.param(part.map((r) => r.takenAt.toISOString()))}::timestamptz[],
+                    ${sql.param(part.map((r) => r.rhPercent))}::float8[],
+                    ${sql.param(part.map((r) => r.tempC))}::float8[],
+                    ${sql.param(part.map((r) => r.dewPointC))}::float8[],
+                    ${sql.param(part.map((r) => r.instrument))}::text[]) as u(t, rh, tc, dp, ins)
+        on conflict (chamber_id, taken_at, instrument) do nothing
+        returning 1
+      ) select count(*)::text as n from ins`);
+    stored += Number(result.rows[0]?.n ?? 0);
+    await onBatch?.(Math.min(rows.length, i + BATCH));
+  }
+  return stored;
+}
+
+export async function addManualReading({ labId, userId, chamberId, reading }: { labId: string; userId: string; chamberId: string; reading: Omit<NewReading, "dewPointC"> }) {
+  return db.transaction(async (tx) => {
+    const chamber = await getChamber({ labId, chamberId }, tx);
+    if (chamber.archivedAt) throw new AppError("conflict", "This chamber is archived; restore it before adding readings.");
+    const [row] = await tx.insert(readings).values({ labId, chamberId, ...reading, source: "manual" }).onConflictDoNothing().returning();
+    if (!row) {
+      throw new AppError("conflict", "Nothing was saved.", { takenAt: [`"${reading.instrument}" already has a reading at this time in this chamber.`] });
+    }
+    await recordAudit(tx, { labId, userId, entity: "reading", entityId: String(row.id), action: "create", summary: `Reading ${reading.rhPercent} %RH typed in for "${chamber.name}"`, after: row });
+    return row;
+  });
+}
+
+export type ImportProgress = { phase: "parsing" } | { phase: "storing"; done: number; total: number };
+export type ImportOutcome =
+  | { ok: false; errors: CsvImportError[]; totalErrors: number }
+  | { ok: true; importId: string; stored: number; duplicatesInFile: number; duplicatesExisting: number; firstAt: Date; lastAt: Date };
+
+const MAX_ERRORS_SHOWN = 200;
+
+/**
+ * All-or-nothing import of a logger CSV: parse everything first; any row error means nothing is
+ * stored and the errors (with line numbers) come back. Otherwise one transaction stores the rows,
+ * the reading_imports record and the audit event, so a failure half way leaves no trace.
+ */
+export async function importReadingsFromCsv({ labId, userId, chamberId, filename, text, options, onProgress }: {
+  labId: string; userId: string; chamberId: string; filename: string; text: string; options: CsvImportOptionsInput;
+  onProgress?: (p: ImportProgress) => void | Promise<void>;
+}): Promise<ImportOutcome> {
+  const chamber = await getChamber({ labId, chamberId });
+  if (chamber.archivedAt) throw new AppError("conflict", "This chamber is archived; restore it before importing readings.");
+  await onProgress?.({ phase: "parsing" });
+  let parsed: ReturnType<typeof importCsv>;
+  try {
+    parsed = importCsv(text, {
+      mapping: options.mapping,
+      delimiter: options.delimiter,
+      skipLines: options.skipLines,
+      hasHeader: options.hasHeader,
+      timeZone: options.timeZone,
+      temperatureUnit: options.temperatureUnit,
+      dateFormat: options.dateFormat,
+    });
+  } catch (err) {
+    if (err instanceof RangeError) return { ok: false, errors: [{ line: 0, message: err.message }], totalErrors: 1 };
+    throw err;
+  }
+  if (parsed.errors.length > 0) {
+    return { ok: false, errors: parsed.errors.slice(0, MAX_ERRORS_SHOWN), totalErrors: parsed.errors.length };
+  }
+  if (parsed.rows.length === 0) return { ok: false, errors: [{ line: 0, message: "The file has no readings below the header." }], totalErrors: 1 };
+  const rows: NewReading[] = parsed.rows.map((r) => ({ takenAt: r.takenAt, rhPercent: r.rhPercent, tempC: r.tempC, dewPointC: r.dewPointC ?? null, instrument: options.instrument }));
+  const total = rows.length;
+  return db.transaction(async (tx) => {
+    const [imp] = await tx.insert(readingImports).values({ labId, chamberId, filename, instrument: options.instrument, createdBy: userId }).returning();
+    const stored = await insertReadings(tx, { labId, chamberId, source: "csv", importId: imp.id, rows, onBatch: (done) => onProgress?.({ phase: "storing", done, total }) });
+    const duplicatesExisting = total - stored;
+    const duplicatesSkipped = parsed.duplicatesSkipped + duplicatesExisting;
+    const [after] = await tx.update(readingImports).set({ rowsImported: stored, duplicatesSkipped }).where(eq(readingImports.id, imp.id)).returning();
+    await recordAudit(tx, {
+      labId, userId, entity: "reading-import", entityId: imp.id, action: "create",
+      summary: `Imported ${stored} readings from "${filename}" into "${chamber.name}" (${duplicatesSkipped} duplicates skipped)`,
+      after: { ...after, options: { ...options } },
+    });
+    return { ok: true as const, importId: imp.id, stored, duplicatesInFile: parsed.duplicatesSkipped, duplicatesExisting, firstAt: rows[0].takenAt, lastAt: rows[rows.length - 1].takenAt };
+  });
+}
+
+export async function listReadingImports({ labId, chamberId, limit = 10 }: { labId: string; chamberId: string; limit?: number }) {
+  return db.select().from(readingImports).where(and(eq(readingImports.labId, labId), eq(readingImports.chamberId, chamberId))).orderBy(desc(readingImports.createdAt)).limit(limit);
+}
+
+export async function listRecentReadings({ labId, chamberId, limit = 10 }: { labId: string; chamberId: string; limit?: number }) {
+  return db.select().from(readings).where(and(eq(readings.labId, labId), eq(readings.chamberId, chamberId))).orderBy(desc(readings.takenAt)).limit(limit);
+}
+
+/**
+ * Logger API: store readings posted with a chamber token. An unknown or revoked token is
+ * "unauthenticated" (401); a valid token used on another chamber's URL is "not-found" (404), so a
+ * token never reveals which other chambers exist.
+ */
+export async function postReadingsWithToken({ token, chamberId, body }: { token: string; chamberId: string; body: ApiReading[] }) {
+  const [found] = await db
+    .select({ id: chamberTokens.id, labId: chamberTokens.labId, chamberId: chamberTokens.chamberId, label: chamberTokens.label, revokedAt: chamberTokens.revokedAt, chamberName: chambers.name, archivedAt: chambers.archivedAt })
+    .from(chamberTokens)
+    .innerJoin(chambers, eq(chambers.id, chamberTokens.chamberId))
+    .where(eq(chamberTokens.tokenHash, hashChamberToken(token)))
+    .limit(1);
+  if (!found || found.revokedAt) throw new AppError("unauthenticated", "The token is not valid or has been revoked.");
+  if (found.chamberId !== chamberId) throw new AppError("not-found", "No such chamber for this token.");
+  if (found.archivedAt) throw new AppError("conflict", "This chamber is archived; readings are not accepted.");
+  const rows: NewReading[] = body.map((r) => ({ takenAt: new Date(r.takenAt), rhPercent: r.rhPercent, tempC: r.tempC ?? null, dewPointC: r.dewPointC ?? null, instrument: r.instrument ?? "logger" }));
+  return db.transaction(async (tx) => {
+    const stored = await insertReadings(tx, { labId: found.labId, chamberId, source: "api", rows });
+    await tx.update(chamberTokens).set({ lastUsedAt: new Date() }).where(eq(chamberTokens.id, found.id));
+    await recordAudit(tx, {
+      labId: found.labId, userId: null, entity: "reading-batch", entityId: found.id, action: "create",
+      summary: `${stored} reading(s) posted to "${found.chamberName}" with logger token "${found.label}"${rows.length - stored ? ` (${rows.length - stored} duplicates skipped)` : ""}`,
+      after: { received: rows.length, stored, first: rows[0]?.takenAt, last: rows[rows.length - 1]?.takenAt },
+    });
+    return { received: rows.length, stored, duplicatesSkipped: rows.length - stored };
+  });
+}
+
+// ——— Chart and analysis ———
+
+export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
+type Row = { takenAt: Date; rhPercent: number; rhRaw: number; tempC: number | null; dewLogged: number | null; instrument: string };
+export type OffsetInUse = { instrument: string; offsetPercent: number; from: Date; saltId: string };
+
+const DAY_MS = 86_400_000;
+
+/** Raw rows in time order, as arrays (no per-row objects from pg), for a period of one chamber. */
+async function loadRows(labId: string, chamberId: string, from: Date | null, to: Date | null): Promise<Row[]> {
+  const values: unknown[] = [labId, chamberId];
+  let where = "lab_id = $1 and chamber_id = $2";
+  if (from) where += ` and taken_at >= $${values.push(from.toISOString())}`;
+  if (to) where += ` and taken_at <= $${values.push(to.toISOString())}`;
+  const res = await getPool().query<[number, number, number | null, number | null, string]>({
+    text: `select extract(epoch from taken_at) * 1000, rh_percent, temp_c, dew_point_c, instrument from readings where ${where} order by taken_at, instrument`,
+    values,
+    rowMode: "array",
+  });
+  return res.rows.map((r) => {
+    const rh = Number(r[1]);
+    return { takenAt: new Date(Number(r[0])), rhPercent: rh, rhRaw: rh, tempC: r[2], dewLogged: r[3], instrument: r[4] };
+  });
+}
+
+/** Apply each instrument's hygrometer offsets from the check time on (latest applied check wins); raw rows are never changed. */
+function applyOffsets(rows: Row[], checks: readonly HygrometerCheck[]): OffsetInUse[] {
+  const byInstrument = new Map<string, HygrometerCheck[]>();
+  for (const c of checks) if (c.applied) byInstrument.set(c.instrument, [...(byInstrument.get(c.instrument) ?? []), c]);
+  if (byInstrument.size === 0) return [];
+  for (const list of byInstrument.values()) list.sort((a, b) => a.checkedAt.getTime() - b.checkedAt.getTime());
+  const pointer = new Map<string, number>();
+  const used = new Map<string, OffsetInUse>();
+  for (const r of rows) {
+    const list = byInstrument.get(r.instrument);
+    if (!list) continue;
+    let i = pointer.get(r.instrument) ?? -1;
+    while (i + 1 < list.length && list[i + 1].checkedAt.getTime() <= r.takenAt.getTime()) i++;
+    pointer.set(r.instrument, i);
+    if (i < 0) continue;
+    r.rhPercent = applyOffset(r.rhRaw, list[i].offsetRhPercent);
+    used.set(`${list[i].id}`, { instrument: r.instrument, offsetPercent: list[i].offsetRhPercent, from: list[i].checkedAt, saltId: list[i].saltId });
+  }
+  return [...used.values()];
+}
+
+function dewOf(r: Row): number | null {
+  if (r.tempC != null && r.rhPercent > 0) {
+    try {
+      return dewPointC(r.tempC, r.rhPercent);
+    } catch {
+      return null;
+    }
+  }
+  return r.dewLogged;
+}
+
+/** Gaps longer than this are not counted as time (the logger was off): 3 × the typical interval, 1 h to 1 day. */
+function gapLimitMinutes(rows: readonly Row[]): number {
+  if (rows.length < 3) return 60;
+  const step = Math.max(1, Math.floor(rows.length / 2000));
+  const gaps: number[] = [];
+  for (let i = step; i < rows.length; i += step) gaps.push((rows[i].takenAt.getTime() - rows[i - 1].takenAt.getTime()) / 60_000);
+  gaps.sort((a, b) => a - b);
+  return Math.min(1440, Math.max(60, 3 * gaps[Math.floor(gaps.length / 2)]));
+}
+
+export async function getChamberSeries({ labId, chamber, period, maxPoints = 1600, now = new Date(), settleFrom = [] }: {
+  labId: string; chamber: Chamber; period: Period; maxPoints?: number; now?: Date; settleFrom?: { label: string; at: Date }[];
+}) {
+  const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
+  const rows = await loadRows(labId, chamber.id, from, null);
+  const instruments = [...new Set(rows.map((r) => r.instrument))];
+  const checks = await listHygrometerChecks({ labId, instruments });
+  const offsets = applyOffsets(rows, checks);
+  const band = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  const maxGapMinutes = gapLimitMinutes(rows);
+  const stats = bandStats(rows, band, { maxGapMinutes });
+  const settle = [];
+  for (const ev of settleFrom) {
+    // Settling is judged on the data after the event, whether or not the chosen period covers it.
+    const inRange = from === null || ev.at >= from;
+    const data = inRange ? rows : await loadRows(labId, chamber.id, new Date(ev.at.getTime() - DAY_MS), new Date(ev.at.getTime() + 30 * DAY_MS));
+    if (!inRange) applyOffsets(data, checks);
+    const hasAfter = data.length > 0 && data[data.length - 1].takenAt > ev.at;
+    settle.push({ ...ev, minutes: hasAfter ? settleTimeMinutes(data, band, ev.at, { maxGapMinutes }) : null, hasData: hasAfter });
+  }
+  const points: SeriesPoint[] = downsample(rows, maxPoints).map((r) => ({ t: r.takenAt.getTime(), rh: r.rhPercent, rhRaw: r.rhRaw, tempC: r.tempC, dewC: dewOf(r), instrument: r.instrument }));
+  return { period, from, count: rows.length, firstAt: rows[0]?.takenAt ?? null, lastAt: rows[rows.length - 1]?.takenAt ?? null, points, band, stats, maxGapMinutes, offsets, settle, instruments };
+}
+export type ChamberSeries = Awaited<ReturnType<typeof getChamberSeries>>;
