@@ -2,6 +2,7 @@
 // from the pg-boss queue on the same PostgreSQL.
 import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
 import { claimDueReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
+import { runDesiccantScan } from "@/db/jobs/desiccant";
 import { closeDb } from "@/db/client";
 
 const pollS = Number(process.env.WORKER_POLL_S ?? 2);
@@ -24,6 +25,12 @@ async function main() {
   await boss.work(QUEUES.reminderScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => scanOnce());
   // Scan every minute; tests and the app can also request a scan by sending a reminder-scan job.
   await boss.schedule(QUEUES.reminderScan, "* * * * *");
+  // Desiccant exhaustion reminders: hourly scan; a failed mail makes the job throw and pg-boss retry it.
+  await boss.work(QUEUES.desiccantScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
+    const r = await runDesiccantScan();
+    if (r.claimed || r.sent) console.log(`[worker] desiccant reminders: ${r.claimed} claimed, ${r.sent} sent`);
+  });
+  await boss.schedule(QUEUES.desiccantScan, "17 * * * *", undefined, { retryLimit: 5, retryDelay: 60, retryBackoff: true });
   await scanOnce().catch((e) => console.error("[worker] scan failed:", e.message));
   console.log("[worker] running");
 }
