@@ -1,11 +1,12 @@
-// Inspection reminders: the day before and when overdue, e-mail each technician of the trial.
+// Inspection reminders: the day before and when overdue, e-mail each technician of the trial
+// (trial_members with role "technician" who are still lab members and have not opted out).
 // The scan claims (inspection, user, kind) rows in reminder_log so a reminder is queued once;
 // the send job marks it sent, and the queue retries while the mail server is unreachable.
 import { and, eq, gt, isNull, lt, sql } from "drizzle-orm";
 import { appUrl, sendMail } from "@/lib/mail/send";
 import { formatDateTime } from "@/lib/format";
 import { db } from "../client";
-import { inspections, reminderLog, trialMembers, trials, users } from "../schema";
+import { inspections, memberships, reminderLog, trialMembers, trials, users } from "../schema";
 
 export const OVERDUE_GRACE_HOURS = 6;
 export type ReminderKind = "day-before" | "overdue";
@@ -21,6 +22,8 @@ export async function claimDueReminders(now = new Date()): Promise<ReminderJob[]
     .innerJoin(trials, eq(trials.id, inspections.trialId))
     .innerJoin(trialMembers, and(eq(trialMembers.trialId, trials.id), eq(trialMembers.role, "technician")))
     .innerJoin(users, eq(users.id, trialMembers.userId))
+    // Only people still in the lab: someone removed from it keeps no trial mail.
+    .innerJoin(memberships, and(eq(memberships.userId, trialMembers.userId), eq(memberships.labId, trials.labId)))
     .where(and(eq(trials.status, "running"), isNull(inspections.doneAt), lt(inspections.plannedAt, in24h), eq(users.remindersOptOut, false)));
   const jobs: ReminderJob[] = [];
   for (const r of rows) {
@@ -37,12 +40,13 @@ export async function sendReminder(job: ReminderJob) {
   const [log] = await db.select().from(reminderLog).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
   if (!log || log.sentAt) return "already-sent";
   const [info] = await db
-    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, trialId: trials.id, trialTitle: trials.title, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
+    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, trialId: trials.id, trialTitle: trials.title, trialStatus: trials.status, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
     .from(inspections)
     .innerJoin(trials, eq(trials.id, inspections.trialId))
     .innerJoin(users, eq(users.id, job.userId))
     .where(eq(inspections.id, job.inspectionId));
-  if (!info || info.doneAt || info.optOut) {
+  // Done, opted out, or the trial concluded meanwhile: nothing to remind about any more.
+  if (!info || info.doneAt || info.optOut || info.trialStatus !== "running") {
     await db.update(reminderLog).set({ sentAt: new Date() }).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
     return "skipped";
   }
