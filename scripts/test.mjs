@@ -32,7 +32,7 @@ try {
   run(bin("tsc"), ["--noEmit", "-p", "."], env, "type-checking");
   buildIfChanged(env);
   ensureChromium();
-  const worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], { cwd: root, env: { ...env, WORKER_POLL_S: "1" }, stdio: ["ignore", "inherit", "inherit"] });
+  const worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], { cwd: root, env: { ...env, WORKER_POLL_S: "1", REMINDER_RETRY_DELAY_S: "1" }, stdio: ["ignore", "inherit", "inherit"] });
   children.push(worker);
   const next = spawn(bin("next"), ["start", "-p", testPort], { cwd: root, env, stdio: ["ignore", "ignore", "inherit"] });
   children.push(next);

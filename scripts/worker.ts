@@ -3,15 +3,18 @@
 import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
 import { claimDueReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
 import { runDesiccantScan } from "@/db/jobs/desiccant";
+import { registerPhotoJobs } from "@/db/jobs/photos";
 import { closeDb } from "@/db/client";
 
 const pollS = Number(process.env.WORKER_POLL_S ?? 2);
+// First retry after this many seconds, doubling each time (pg-boss backoff) while mail is down.
+const retryDelayS = Number(process.env.REMINDER_RETRY_DELAY_S ?? 30);
 
 async function scanOnce() {
   const boss = await getBoss();
   const jobs = await claimDueReminders();
   for (const j of jobs) {
-    await boss.send(QUEUES.sendReminder, j, { retryLimit: 30, retryDelay: 5, retryBackoff: true, expireInSeconds: 120 });
+    await boss.send(QUEUES.sendReminder, j, { retryLimit: 30, retryDelay: retryDelayS, retryBackoff: true, expireInSeconds: 120 });
   }
   if (jobs.length) console.log(`[worker] queued ${jobs.length} reminder(s)`);
 }
@@ -25,6 +28,7 @@ async function main() {
   await boss.work(QUEUES.reminderScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => scanOnce());
   // Scan every minute; tests and the app can also request a scan by sending a reminder-scan job.
   await boss.schedule(QUEUES.reminderScan, "* * * * *");
+  await registerPhotoJobs(boss, pollS);
   // Desiccant exhaustion reminders: hourly scan; a failed mail makes the job throw and pg-boss retry it.
   await boss.work(QUEUES.desiccantScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
     const r = await runDesiccantScan();
