@@ -1,0 +1,71 @@
+// Every server action and route handler of the app, found on disk and imported, with the permission
+// each declares (labAction / labRoute attach it). The authorization matrix and the fuzz tests walk this.
+import fs from "node:fs";
+import path from "node:path";
+import { PERMISSIONS, ROLES, type Permission, type Role } from "@/lib/auth/permissions";
+import { repoRoot } from "./s3";
+
+export type ActionEntry = { file: string; name: string; permission: Permission | null; fn: unknown };
+export type RouteEntry = { file: string; route: string; method: string; permission: Permission | null; fn: unknown };
+
+function walk(dir: string, out: string[] = []) {
+  for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
+    const p = path.join(dir, e.name);
+    if (e.isDirectory()) walk(p, out);
+    else out.push(p);
+  }
+  return out;
+}
+
+const appDir = path.join(repoRoot, "app");
+
+export async function listActions(): Promise<ActionEntry[]> {
+  const files = walk(appDir).filter((f) => /[/\\]actions\.ts$/.test(f)).sort();
+  const out: ActionEntry[] = [];
+  for (const f of files) {
+    const mod = (await import(f)) as Record<string, unknown>;
+    for (const [name, fn] of Object.entries(mod)) {
+      if (typeof fn !== "function") continue;
+      const permission = (fn as { permission?: Permission }).permission ?? null;
+      out.push({ file: path.relative(repoRoot, f), name, permission, fn });
+    }
+  }
+  return out;
+}
+
+const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"];
+
+export async function listRoutes(): Promise<RouteEntry[]> {
+  const files = walk(path.join(appDir, "api")).filter((f) => /[/\\]route\.ts$/.test(f)).sort();
+  const out: RouteEntry[] = [];
+  for (const f of files) {
+    const route = "/" + path.relative(appDir, path.dirname(f)).split(path.sep).join("/");
+    const mod = (await import(f)) as Record<string, unknown>;
+    for (const m of METHODS) {
+      const fn = mod[m];
+      if (typeof fn !== "function") continue;
+      out.push({ file: path.relative(repoRoot, f), route, method: m, permission: (fn as { permission?: Permission }).permission ?? null, fn });
+    }
+  }
+  return out;
+}
+
+export function allowedRoles(permission: Permission): Role[] {
+  return ROLES.filter((r) => (PERMISSIONS[permission] as readonly Role[]).includes(r));
+}
+
+/** The Markdown table printed in DEVELOPERS.md. */
+export function matrixMarkdown(actions: ActionEntry[], routes: RouteEntry[], publicRoutes: Record<string, string>): string {
+  const head = `| entry point | permission | ${ROLES.join(" | ")} | signed out |\n|---|---|${ROLES.map(() => "---").join("|")}|---|`;
+  const cell = (p: Permission | null, r: Role) => (p ? (allowedRoles(p).includes(r) ? "✓" : "refused") : "");
+  const rows: string[] = [];
+  for (const a of actions) {
+    if (!a.permission) continue;
+    rows.push(`| action \`${a.name}\` (${a.file.replace(/^app\//, "").replace(/\/actions\.ts$/, "")}) | ${a.permission} | ${ROLES.map((r) => cell(a.permission, r)).join(" | ")} | refused |`);
+  }
+  for (const r of routes) {
+    if (r.permission) rows.push(`| ${r.method} \`${r.route}\` | ${r.permission} | ${ROLES.map((x) => cell(r.permission, x)).join(" | ")} | 401 |`);
+    else rows.push(`| ${r.method} \`${r.route}\` | ${publicRoutes[`${r.method} ${r.route}`] ?? "?"} | ${ROLES.map(() => "–").join(" | ")} | – |`);
+  }
+  return `${head}\n${rows.join("\n")}`;
+}
