@@ -82,6 +82,9 @@ async function main() {
       const arm = armById.get(a.armId)!;
       return { labId: lab.id, trialId: trial.id, specimenId: a.specimenId, armId: a.armId, chamberId: chambers[arm.chamberKey], treatmentId: treatments[arm.treatmentKey], fromAt: start, reason: "Random allocation" };
     })).returning();
+    // The allocation table the trial pages show (the draft record the placements came from).
+    const classOf = new Map(specimenRows.map((r) => [r.id, r.materialClass]));
+    await tx.insert(s.trialAllocations).values(assignment.map((a) => ({ labId: lab.id, trialId: trial.id, specimenId: a.specimenId, armId: a.armId, blockKey: classOf.get(a.specimenId) ?? "" })));
 
     const days = planDays(demoTrial.schedulePlan);
     const inspectionRows = await tx.insert(s.inspections).values(days.map((d) => {

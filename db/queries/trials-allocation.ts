@@ -17,6 +17,13 @@ export function newSeed() {
   return `${words[bytes[0] % words.length]}-${words[bytes[1] % words.length]}-${(bytes[2] * 256 + bytes[3]) % 10000}`;
 }
 
+/** Arm keys for the allocation: the label, made unique with the chamber id if two chambers share a name. */
+export function armKeysOf(arms: { id: string; label: string; chamberId: string }[]) {
+  const seen = new Map<string, number>();
+  for (const a of arms) seen.set(a.label, (seen.get(a.label) ?? 0) + 1);
+  return new Map(arms.map((a) => [a.id, (seen.get(a.label) ?? 0) > 1 ? `${a.label} [${a.chamberId.slice(0, 8)}]` : a.label]));
+}
+
 export async function allocateTrial({ actor, trialId, specimenIds, seed, blockByMaterial }: {
   actor: Actor; trialId: string; specimenIds: string[]; seed: string; blockByMaterial: boolean;
 }) {
@@ -26,8 +33,8 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
     assertDraftWritable(trial);
     const unique = [...new Set(specimenIds)];
     const [arms, chosen] = await Promise.all([
-      tx.select({ id: trialArms.id }).from(trialArms).where(eq(trialArms.trialId, trialId)),
-      tx.select({ id: specimens.id, materialClass: specimens.materialClass }).from(specimens)
+      tx.select({ id: trialArms.id, label: trialArms.label, chamberId: trialArms.chamberId }).from(trialArms).where(eq(trialArms.trialId, trialId)),
+      tx.select({ id: specimens.id, label: specimens.label, materialClass: specimens.materialClass }).from(specimens)
         .where(and(eq(specimens.labId, actor.labId), inArray(specimens.id, unique))),
     ]);
     if (chosen.length !== unique.length) throw new AppError("invalid", "A chosen specimen is not in this lab.", { specimenIds: ["Choose specimens of this lab."] });
@@ -36,7 +43,19 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
     if (chosen.length < needed) {
       throw new AppError("invalid", `${arms.length} arms × ${trial.replicatesPerArm} replicates need ${needed} specimens; ${chosen.length} chosen.`, { specimenIds: [`Choose at least ${needed} specimens.`] });
     }
-    const result = allocateDetailed({ specimens: chosen, arms, seed, blockBy: blockByMaterial ? "materialClass" : null, replicatesPerArm: trial.replicatesPerArm });
+    // Keyed by the printed labels, not database ids, so anyone holding the allocation table and the
+    // seed can recompute it with lib/allocation (labels are unique per lab and per trial).
+    const armKeys = armKeysOf(arms);
+    const armByKey = new Map(arms.map((a) => [armKeys.get(a.id)!, a.id]));
+    const specimenByLabel = new Map(chosen.map((c) => [c.label, c.id]));
+    const byLabel = allocateDetailed({
+      specimens: chosen.map((c) => ({ id: c.label, materialClass: c.materialClass })), arms: [...armByKey.keys()].map((id) => ({ id })),
+      seed, blockBy: blockByMaterial ? "materialClass" : null, replicatesPerArm: trial.replicatesPerArm,
+    });
+    const result = {
+      assignments: byLabel.assignments.map((a) => ({ specimenId: specimenByLabel.get(a.specimenId)!, armId: armByKey.get(a.armId)! })),
+      unallocated: byLabel.unallocated.map((l) => specimenByLabel.get(l)!),
+    };
     const classOf = new Map(chosen.map((c) => [c.id, c.materialClass]));
     const previous = await tx.delete(trialAllocations).where(eq(trialAllocations.trialId, trialId)).returning();
     const rows = [
