@@ -31,7 +31,10 @@ export function toAppError(err: unknown): AppError {
   const pgCode = e?.code ?? e?.cause?.code;
   if (pgCode === "23505") return new AppError("conflict", "That already exists.");
   if (pgCode === "23503") return new AppError("conflict", "Other records still refer to this one.");
-  if (pgCode === "22P02" || pgCode === "22003") return new AppError("invalid", "A value was not in the expected form.");
+  if (pgCode === "22P02" || pgCode === "22003" || pgCode === "22007" || pgCode === "22008") return new AppError("invalid", "A value was not in the expected form.");
+  if (pgCode === "22021" || pgCode === "22P05") return new AppError("invalid", "The text contains characters that cannot be stored (for example a NUL character).");
+  if (pgCode === "22001") return new AppError("invalid", "A text is longer than allowed.");
+  if (pgCode === "54001") return new AppError("invalid", "The input is too deeply nested or too large.");
   if (pgCode === "ECONNREFUSED" || pgCode === "57P01" || pgCode === "57P03" || /ECONNREFUSED|Connection terminated|timeout exceeded when trying to connect/i.test(e?.message ?? "")) {
     return new AppError("unavailable", "The database is not reachable right now. Nothing was saved; try again in a moment.");
   }
