@@ -1,0 +1,101 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { db } from "@/db/client";
+import { scorerAssignment } from "@/db/queries/scores";
+import { ASTM_CATEGORIES, scorerAgreement, type PairAgreement } from "@/db/queries/scores-agreement";
+import { getTrialForLab } from "@/db/queries/scores-read";
+import { AppError } from "@/lib/auth/errors";
+import { getLabContext } from "@/lib/auth/context";
+import { describeKappa } from "@/lib/stats/outcomes";
+import { BlandAltmanLazy } from "@/components/scoring/bland-altman-lazy";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata = { title: "Agreement between scorers" };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const k = (x: number | undefined) => (x == null ? "—" : Number.isNaN(x) ? "undefined" : x.toFixed(2));
+const pp = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x).toFixed(3)}`;
+
+function interpretation(p: PairAgreement): string[] {
+  const out: string[] = [];
+  if (!p.kappa) out.push("No item was graded by both, so grade agreement cannot be measured yet.");
+  else if (Number.isNaN(p.kappa.quadratic)) out.push(`Both gave every one of the ${p.n} items the same single grade, so kappa is undefined: agreement beyond chance cannot be told apart from chance.`);
+  else {
+    out.push(`Grades: quadratic-weighted κ = ${p.kappa.quadratic.toFixed(2)}, ${describeKappa(p.kappa.quadratic)}; unweighted κ = ${k(p.kappa.none)} counts only exact matches (${p.exactMatches} of ${p.n}).`);
+    if (p.kappa.quadratic <= 0.6) out.push("Disagreement at this level can blur real differences between treatments; discuss the photos where they differ and consider a consensus score.");
+  }
+  const ba = p.blandAltman;
+  if (ba) {
+    out.push(`Area: on average ${p.a.name} scores ${pp(ba.bias)} percentage points relative to ${p.b.name}; 95 % of differences are expected between ${pp(ba.lower)} and ${pp(ba.upper)} points (n = ${ba.n}).`);
+  } else out.push("Fewer than two items scored by both: no limits of agreement for area yet.");
+  return out;
+}
+
+export default async function AgreementPage({ params }: { params: Promise<{ trialId: string }> }) {
+  const ctx = await getLabContext("analysis.read");
+  if (!ctx) redirect("/sign-in");
+  const { trialId } = await params;
+  if (!UUID.test(trialId)) notFound();
+  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  const blind = (await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind && trial.status !== "concluded";
+  const data = blind ? null : await scorerAgreement({ labId: ctx.labId, trialId });
+
+  return (
+    <div className="space-y-6">
+      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> › <span>Agreement</span></nav>
+      <h1 className="text-2xl font-semibold">Agreement between scorers</h1>
+      <p className="text-sm muted max-w-3xl">
+        For each pair of scorers, on the specimen × inspection items both scored: Cohen&apos;s kappa on ASTM D610 grades
+        (grades 0–10 as {ASTM_CATEGORIES} ordered categories; linear and quadratic weights credit near misses) and Bland–Altman
+        limits of agreement on rusted area %. The kappa wording follows the bands of Landis &amp; Koch (1977).
+      </p>
+      {blind ? (
+        <p className="panel p-3 text-sm" role="note">You score this trial blind, so agreement figures stay hidden from you until the trial is concluded.</p>
+      ) : !data || data.scorers.length < 2 ? (
+        <EmptyState text={`Agreement needs scores from at least two scorers on the same photos; ${data?.scorers.length ? `only ${data.scorers[0].name} has scored so far` : "nobody has scored yet"}. Assign a second (blind) scorer on the scoring page.`}
+          action={{ href: `/trials/${trialId}/scoring`, label: "Go to the scoring page" }} />
+      ) : data.pairs.length === 0 ? (
+        <EmptyState text="The scorers have not scored any of the same photos yet." action={{ href: `/trials/${trialId}/scoring`, label: "Go to the scoring queue" }} />
+      ) : (
+        <>
+          <section aria-labelledby="table-h" className="space-y-2">
+            <h2 id="table-h" className="font-semibold">Agreement table</h2>
+            <div className="overflow-x-auto">
+              <table className="data" data-testid="agreement-table">
+                <thead>
+                  <tr>
+                    <th scope="col">Scorer A</th><th scope="col">Scorer B</th><th scope="col">n (graded)</th><th scope="col">Exact grade matches</th>
+                    <th scope="col">κ unweighted</th><th scope="col">κ linear</th><th scope="col">κ quadratic</th>
+                    <th scope="col">Area bias A−B (points)</th><th scope="col">95 % limits (points)</th><th scope="col">n (area)</th>
+                  </tr>
+                </thead>
+                <tbody>
+                  {data.pairs.map((p) => (
+                    <tr key={`${p.a.id}-${p.b.id}`}>
+                      <td>{p.a.name}</td><td>{p.b.name}</td><td className="tabular-nums">{p.n}</td>
+                      <td className="tabular-nums">{p.n ? `${p.exactMatches} (${Math.round((100 * p.exactMatches) / p.n)} %)` : "—"}</td>
+                      <td className="tabular-nums">{k(p.kappa?.none)}</td><td className="tabular-nums">{k(p.kappa?.linear)}</td><td className="tabular-nums">{k(p.kappa?.quadratic)}</td>
+                      <td className="tabular-nums">{p.blandAltman ? pp(p.blandAltman.bias) : "—"}</td>
+                      <td className="tabular-nums">{p.blandAltman ? `${pp(p.blandAltman.lower)} to ${pp(p.blandAltman.upper)}` : "—"}</td>
+                      <td className="tabular-nums">{p.blandAltman?.n ?? p.points.length}</td>
+                    </tr>
+                  ))}
+                </tbody>
+              </table>
+            </div>
+          </section>
+          {data.pairs.map((p) => (
+            <section key={`${p.a.id}-${p.b.id}-detail`} className="panel p-4 space-y-3" aria-label={`${p.a.name} and ${p.b.name}`}>
+              <h2 className="font-semibold">{p.a.name} and {p.b.name}</h2>
+              <ul className="list-disc pl-5 text-sm space-y-1">{interpretation(p).map((t) => <li key={t}>{t}</li>)}</ul>
+              {p.blandAltman && (
+                <BlandAltmanLazy title={`${p.a.name} − ${p.b.name}: rusted area`} points={p.points}
+                  bias={p.blandAltman.bias} lower={p.blandAltman.lower} upper={p.blandAltman.upper} />
+              )}
+            </section>
+          ))}
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,109 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { getScorePage } from "@/db/queries/scores-read";
+import { AppError } from "@/lib/auth/errors";
+import { getLabContext } from "@/lib/auth/context";
+import { can } from "@/lib/auth/permissions";
+import { formatDateTime } from "@/lib/format";
+import { ConsensusForm } from "@/components/scoring/consensus-form";
+import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
+import { FirstRustNote, ScoreLine } from "@/components/scoring/score-summary";
+import { EmptyState } from "@/components/ui/empty-state";
+import { saveConsensusAction, saveScoreAction } from "./actions";
+
+export const metadata = { title: "Score a specimen" };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+type Params = { trialId: string; inspectionId: string; specimenId: string };
+
+export default async function ScorePage({ params, searchParams }: { params: Promise<Params>; searchParams: Promise<{ photo?: string }> }) {
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  const { trialId, inspectionId, specimenId } = await params;
+  const { photo: photoParam } = await searchParams;
+  if (![trialId, inspectionId, specimenId].every((id) => UUID.test(id))) notFound();
+  const data = await getScorePage({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId, photoId: photoParam && UUID.test(photoParam) ? photoParam : undefined })
+    .catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  // A blind scorer of this trial scores from the shuffled queue, where nothing names the specimen.
+  if (data.assignment?.blind) redirect(data.photo ? `/trials/${trialId}/scoring/${data.photo.id}` : `/trials/${trialId}/scoring`);
+
+  const { trial, inspection, specimen, placement, mine, record, previous } = data;
+  const concluded = trial.status === "concluded";
+  const canScore = can(ctx.role, "scores.write") && !concluded;
+  const shown = canScore ? mine : record?.score ?? null;
+  const base = `/trials/${trialId}/inspections/${inspectionId}/score`;
+  const others = data.pairScores.filter((r) => r.score.scorerId !== null);
+  const consensus = data.pairScores.find((r) => r.score.scorerId === null)?.score ?? null;
+
+  return (
+    <div className="space-y-4">
+      <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
+        <Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> ›
+        <Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}`}>Inspection day {inspection.dayNumber}</Link> ›
+        <Link className="link" href={base}>Scoring</Link> › <span>{specimen.label}</span>
+      </nav>
+      <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
+        <h1 className="text-2xl font-semibold">Score {specimen.label} · day {inspection.dayNumber}</h1>
+        <p className="text-sm muted">{placement.treatment} · {placement.chamber} · {specimen.materialClass.replace("-", " ")}
+          {inspection.doneAt ? ` · inspected ${formatDateTime(inspection.doneAt)}` : ` · planned ${formatDateTime(inspection.plannedAt)}`}</p>
+      </div>
+      <FirstRustNote firstRust={data.firstRust} />
+      {concluded && <p role="note" className="rounded-md bg-iron-100 dark:bg-iron-800 px-3 py-2 text-sm">This trial is concluded: its scores are locked and shown read-only.</p>}
+
+      {shown && (
+        <section className="panel p-3 text-sm space-y-1" aria-labelledby="saved-h">
+          <h2 id="saved-h" className="font-semibold">{canScore ? "Your saved score" : "Score of record"}</h2>
+          <p data-testid="saved-score"><ScoreLine score={shown} /></p>
+          <p className="muted text-xs">
+            Saved {formatDateTime(shown.updatedAt)}.{" "}
+            {canScore && (record?.score.id === shown.id ? "This is the score of record." : record ? `The score of record is ${record.scorerName ?? "the consensus score"}'s.` : "")}
+          </p>
+        </section>
+      )}
+
+      {data.photos.length > 1 && (
+        <nav aria-label="Photos of this specimen at this inspection" className="flex flex-wrap gap-2">
+          {data.photos.map((p, i) => (
+            <Link key={p.id} href={`${base}/${specimenId}?photo=${p.id}`} aria-current={p.id === data.photo?.id ? "true" : undefined}
+              className={`btn-quiet text-sm ${p.id === data.photo?.id ? "!border-verdigris-600" : ""}`}>Photo {i + 1}: {p.filename}</Link>
+          ))}
+        </nav>
+      )}
+      {!data.photo && (
+        <EmptyState text="No processed photo of this specimen for this inspection yet. Upload one on the inspection page to mark spots on it; you can still record a score by eye below."
+          action={{ href: `/trials/${trialId}/inspections/${inspectionId}`, label: "Go to the inspection" }} />
+      )}
+
+      <ScoreWorkbenchFor
+        action={saveScoreAction}
+        hidden={{ trialId, inspectionId, specimenId }}
+        photo={data.photo}
+        initialFace={canScore ? data.myMarks.face : null}
+        initialMarks={canScore ? data.myMarks.marks : []}
+        initialScore={shown}
+        previous={canScore && previous ? { ...previous.score, dayNumber: previous.dayNumber } : null}
+        ghost={canScore ? previous?.ghost ?? null : null}
+        readOnly={!canScore}
+        canvasLabel={`Photo of ${specimen.label} at day ${inspection.dayNumber}`}
+      />
+
+      {trial.scoreRule === "consensus" && can(ctx.role, "scores.consensus") && (
+        <section className="panel p-4 space-y-3" aria-labelledby="consensus-h">
+          <h2 id="consensus-h" className="font-semibold">Consensus score</h2>
+          <p className="text-sm muted">This trial takes the consensus score as the score of record. Until one is recorded, the primary scorer&apos;s score stands in.</p>
+          {others.length === 0 ? <EmptyState text="No scorer has scored this specimen at this inspection yet." /> : (
+            <table className="data">
+              <thead><tr><th>Scorer</th><th>Blind</th><th>Score</th></tr></thead>
+              <tbody>
+                {others.map((r) => (
+                  <tr key={r.score.id}><td>{r.scorerName ?? "—"}</td><td>{r.score.blind ? "yes" : "no"}</td><td><ScoreLine score={r.score} /></td></tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          {!concluded && <ConsensusForm action={saveConsensusAction} ids={{ trialId, inspectionId, specimenId }} defaults={consensus ?? record?.score ?? null} />}
+        </section>
+      )}
+    </div>
+  );
+}

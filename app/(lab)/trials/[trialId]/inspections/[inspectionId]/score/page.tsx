@@ -1,0 +1,61 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { scorerAssignment } from "@/db/queries/scores";
+import { listInspectionScoring } from "@/db/queries/scores-read";
+import { db } from "@/db/client";
+import { AppError } from "@/lib/auth/errors";
+import { getLabContext } from "@/lib/auth/context";
+import { EmptyState } from "@/components/ui/empty-state";
+import { astmText } from "@/components/scoring/score-summary";
+
+export const metadata = { title: "Scoring at an inspection" };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+export default async function InspectionScoringPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  const { trialId, inspectionId } = await params;
+  if (!UUID.test(trialId) || !UUID.test(inspectionId)) notFound();
+  // Blind scorers must not see this list (it names specimens); their way in is the shuffled queue.
+  if ((await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind) redirect(`/trials/${trialId}/scoring`);
+  const data = await listInspectionScoring({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId })
+    .catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  const { trial, inspection, rows } = data;
+  const scored = rows.filter((r) => r.mine).length;
+  return (
+    <div className="space-y-4">
+      <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
+        <Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> ›
+        <Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}`}>Inspection day {inspection.dayNumber}</Link> › <span>Scoring</span>
+      </nav>
+      <h1 className="text-2xl font-semibold">Scoring at day {inspection.dayNumber}</h1>
+      <p className="text-sm muted">
+        You have scored {scored} of {rows.length} specimens. Open a specimen to outline its face, mark spots and save the score.{" "}
+        <Link className="link" href={`/trials/${trialId}/scoring`}>Your scoring queue</Link> ·{" "}
+        <Link className="link" href={`/trials/${trialId}/agreement`}>Agreement between scorers</Link>
+      </p>
+      {rows.length === 0 ? (
+        <EmptyState text="No specimen is placed in this trial yet. Allocate specimens on the trial page first." action={{ href: `/trials/${trialId}`, label: "Go to the trial" }} />
+      ) : (
+        <table className="data">
+          <thead>
+            <tr><th scope="col">Specimen</th><th scope="col">Treatment</th><th scope="col">Chamber</th><th scope="col">Photos</th><th scope="col">Your score</th><th scope="col">Score of record</th></tr>
+          </thead>
+          <tbody>
+            {rows.map((r) => (
+              <tr key={r.specimenId}>
+                <td><Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}/score/${r.specimenId}`}>{r.label}</Link></td>
+                <td>{r.treatment}</td>
+                <td>{r.chamber}</td>
+                <td className="tabular-nums">{r.photos || <span className="muted">none yet</span>}</td>
+                <td className="tabular-nums">{r.mine ? `${r.mine.areaPercent} % · ${astmText(r.mine)}` : <span className="muted">not scored</span>}</td>
+                <td className="tabular-nums">{r.record ? `${r.record.areaPercent} % · ${astmText(r.record)}` : <span className="muted">—</span>}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+    </div>
+  );
+}

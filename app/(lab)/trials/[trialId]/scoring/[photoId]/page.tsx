@@ -1,0 +1,69 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { db } from "@/db/client";
+import { scorerAssignment } from "@/db/queries/scores";
+import { getLabPhoto, getTrialForLab } from "@/db/queries/scores-read";
+import { getBlindPhoto } from "@/db/queries/scores-queue";
+import { AppError } from "@/lib/auth/errors";
+import { getLabContext } from "@/lib/auth/context";
+import { can } from "@/lib/auth/permissions";
+import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
+import { ScoreLine } from "@/components/scoring/score-summary";
+import { saveScoreAction } from "../../inspections/[inspectionId]/score/[specimenId]/actions";
+
+export const metadata = { title: "Blind scoring" };
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+const orNotFound = (err: unknown): never => {
+  if (err instanceof AppError && err.code === "not-found") notFound();
+  throw err;
+};
+
+export default async function BlindScorePage({ params }: { params: Promise<{ trialId: string; photoId: string }> }) {
+  const ctx = await getLabContext("scores.write");
+  if (!ctx) redirect("/sign-in");
+  const { trialId, photoId } = await params;
+  if (!UUID.test(trialId) || !UUID.test(photoId)) notFound();
+  const assignment = await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId });
+  if (!assignment?.blind) {
+    // An open scorer gets the labelled score page for the same photo.
+    const photo = await getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound);
+    if (!photo.inspectionId) notFound();
+    redirect(`/trials/${trialId}/inspections/${photo.inspectionId}/score/${photo.specimenId}?photo=${photo.id}`);
+  }
+  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
+  const view = await getBlindPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, photoId }).catch(orNotFound);
+  const canScore = can(ctx.role, "scores.write") && trial.status !== "concluded";
+
+  return (
+    <div className="space-y-4">
+      <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
+        <Link className="link" href={`/trials/${trialId}/scoring`}>Scoring queue</Link> › <span>Photo {view.position} of {view.total}</span>
+      </nav>
+      <div className="flex flex-wrap items-baseline gap-4">
+        <h1 className="text-2xl font-semibold">Blind scoring · photo {view.position} of {view.total}</h1>
+        {view.nextPhotoId && <Link className="link text-sm" href={`/trials/${trialId}/scoring/${view.nextPhotoId}`}>Next photo to score</Link>}
+      </div>
+      <p className="text-sm muted">Specimen, treatment, chamber, day and earlier scores are hidden on purpose. Score only what the photo shows.</p>
+      {trial.status === "concluded" && <p role="note" className="text-sm">This trial is concluded: scores are locked.</p>}
+      {view.mine && (
+        <section className="panel p-3 text-sm" aria-labelledby="saved-h">
+          <h2 id="saved-h" className="font-semibold">Your saved score</h2>
+          <p data-testid="saved-score"><ScoreLine score={view.mine} /></p>
+        </section>
+      )}
+      <ScoreWorkbenchFor
+        action={saveScoreAction}
+        hidden={{ trialId }}
+        photo={view.photo}
+        initialFace={view.myMarks.face}
+        initialMarks={view.myMarks.marks}
+        initialScore={view.mine}
+        previous={null}
+        ghost={null}
+        readOnly={!canScore}
+        canvasLabel={`Photo ${view.position} of ${view.total}`}
+      />
+    </div>
+  );
+}

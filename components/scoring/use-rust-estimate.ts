@@ -1,0 +1,62 @@
+"use client";
+// Runs the colour estimate in a web worker and keeps its result (percent + overlay image URL).
+import { useCallback, useEffect, useRef, useState } from "react";
+import type { Point } from "@/lib/scoring/geometry";
+import type { EstimateRequest, EstimateResponse } from "./rust-estimate.worker";
+
+export type EstimateState =
+  | { status: "idle" }
+  | { status: "running"; stage: string }
+  | { status: "done"; percent: number; maskUrl: string; faceKey: string }
+  | { status: "error"; message: string };
+
+const STAGES: Record<string, string> = { loading: "Loading the image…", classifying: "Classifying face pixels…", drawing: "Drawing the overlay…" };
+
+/** A stable key for a face outline, to tell when an estimate no longer matches the face. */
+export function faceKey(face: readonly Point[] | null): string {
+  return face ? face.map((p) => `${p.x},${p.y}`).join(";") : "";
+}
+
+export function useRustEstimate(src: string | null, W: number, H: number) {
+  const [state, setState] = useState<EstimateState>({ status: "idle" });
+  const workerRef = useRef<Worker | null>(null);
+  const runId = useRef(0);
+  const urlRef = useRef<string | null>(null);
+
+  useEffect(() => () => {
+    workerRef.current?.terminate();
+    if (urlRef.current) URL.revokeObjectURL(urlRef.current);
+  }, []);
+
+  const run = useCallback((face: Point[]) => {
+    if (!src) return;
+    if (!workerRef.current) {
+      workerRef.current = new Worker(new URL("./rust-estimate.worker.ts", import.meta.url), { type: "module" });
+    }
+    const worker = workerRef.current;
+    const id = ++runId.current;
+    const key = faceKey(face);
+    setState({ status: "running", stage: STAGES.loading });
+    worker.onmessage = (e: MessageEvent<EstimateResponse>) => {
+      const msg = e.data;
+      if (msg.id !== runId.current) return; // an older run finishing late
+      if (msg.type === "progress") setState({ status: "running", stage: STAGES[msg.stage] });
+      else if (msg.type === "error") setState({ status: "error", message: `The estimate failed: ${msg.message}.` });
+      else {
+        if (urlRef.current) URL.revokeObjectURL(urlRef.current);
+        urlRef.current = URL.createObjectURL(msg.mask);
+        setState({ status: "done", percent: Math.round(msg.fraction * 100_000) / 1000, maskUrl: urlRef.current, faceKey: key });
+      }
+    };
+    worker.onerror = (e) => setState({ status: "error", message: `The estimate failed: ${e.message || "the worker stopped"}.` });
+    const req: EstimateRequest = { id, url: src, face, originalWidth: W, originalHeight: H };
+    worker.postMessage(req);
+  }, [src, W, H]);
+
+  const reset = useCallback(() => {
+    runId.current++;
+    setState({ status: "idle" });
+  }, []);
+
+  return { state, run, reset };
+}
