@@ -127,7 +127,7 @@ export async function listRecentReadings({ labId, chamberId, limit = 10 }: { lab
  * "unauthenticated" (401); a valid token used on another chamber's URL is "not-found" (404), so a
  * token never reveals which other chambers exist.
  */
-export async function postReadingsWithToken({ token, chamberId, body }: { token: string; chamberId: string; body: ApiReading[] }) {
+export async function authenticateChamberToken({ token, chamberId }: { token: string; chamberId: string }) {
   const [found] = await db
     .select({ id: chamberTokens.id, labId: chamberTokens.labId, chamberId: chamberTokens.chamberId, label: chamberTokens.label, revokedAt: chamberTokens.revokedAt, chamberName: chambers.name, archivedAt: chambers.archivedAt })
     .from(chamberTokens)
@@ -137,6 +137,11 @@ export async function postReadingsWithToken({ token, chamberId, body }: { token:
   if (!found || found.revokedAt) throw new AppError("unauthenticated", "The token is not valid or has been revoked.");
   if (found.chamberId !== chamberId) throw new AppError("not-found", "No such chamber for this token.");
   if (found.archivedAt) throw new AppError("conflict", "This chamber is archived; readings are not accepted.");
+  return found;
+}
+
+export async function postReadingsWithToken({ token, chamberId, body }: { token: string; chamberId: string; body: ApiReading[] }) {
+  const found = await authenticateChamberToken({ token, chamberId });
   const rows: NewReading[] = body.map((r) => ({ takenAt: new Date(r.takenAt), rhPercent: r.rhPercent, tempC: r.tempC ?? null, dewPointC: r.dewPointC ?? null, instrument: r.instrument ?? "logger" }));
   return db.transaction(async (tx) => {
     const stored = await insertReadings(tx, { labId: found.labId, chamberId, source: "api", rows });

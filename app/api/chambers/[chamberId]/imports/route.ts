@@ -1,0 +1,54 @@
+// POST /api/chambers/[chamberId]/imports — import one logger CSV into the chamber, all or nothing.
+// multipart/form-data: `file` (the CSV) and `options` (JSON: column mapping, zone, unit…). The answer
+// streams NDJSON progress lines ({"type":"progress",…}) and ends with one {"type":"result",…} line;
+// storing happens in a single transaction, so an error at any point leaves nothing behind.
+import { getChamber } from "@/db/queries/chambers";
+import { importReadingsFromCsv, type ImportProgress } from "@/db/queries/readings";
+import { AppError, toAppError } from "@/lib/auth/errors";
+import { labRoute } from "@/lib/auth/route";
+import { csvImportOptionsSchema } from "@/lib/validation/chambers";
+import { z } from "zod";
+
+const MAX_FILE_BYTES = 50 * 1024 * 1024;
+
+export const POST = labRoute<{ chamberId: string }>("readings.write", async (ctx, req, { chamberId }) => {
+  await getChamber({ labId: ctx.labId, chamberId });
+  let form: FormData;
+  try {
+    form = await req.formData();
+  } catch {
+    throw new AppError("invalid", "Send the file as multipart/form-data with a 'file' and an 'options' field.");
+  }
+  const file = form.get("file");
+  if (!(file instanceof File)) throw new AppError("invalid", "Choose a CSV file to import.");
+  if (file.size > MAX_FILE_BYTES) throw new AppError("too-large", "The file is larger than 50 MB; split it and import the parts.");
+  let rawOptions: unknown;
+  try {
+    rawOptions = JSON.parse(String(form.get("options") ?? "{}"));
+  } catch {
+    throw new AppError("invalid", "The import options are not valid JSON.");
+  }
+  const parsed = csvImportOptionsSchema.safeParse(rawOptions);
+  if (!parsed.success) throw new AppError("invalid", "Check the import settings.", z.flattenError(parsed.error).fieldErrors as Record<string, string[]>);
+  const text = await file.text();
+  const filename = (file.name || "upload.csv").slice(0, 200);
+
+  const encoder = new TextEncoder();
+  const stream = new ReadableStream<Uint8Array>({
+    async start(controller) {
+      const send = (obj: unknown) => controller.enqueue(encoder.encode(`${JSON.stringify(obj)}\n`));
+      try {
+        const outcome = await importReadingsFromCsv({
+          labId: ctx.labId, userId: ctx.userId, chamberId, filename, text, options: parsed.data,
+          onProgress: (p: ImportProgress) => send({ type: "progress", ...p }),
+        });
+        send({ type: "result", ...outcome });
+      } catch (err) {
+        const e = toAppError(err);
+        send({ type: "result", ok: false, errors: [{ line: 0, message: e.message }], totalErrors: 1 });
+      }
+      controller.close();
+    },
+  });
+  return new Response(stream, { headers: { "Content-Type": "application/x-ndjson; charset=utf-8", "Cache-Control": "no-store, no-transform", "X-Accel-Buffering": "no" } });
+});

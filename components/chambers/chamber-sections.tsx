@@ -1,0 +1,118 @@
+// Server-rendered sections of the chamber page: desiccant upkeep, hygrometer checks, recent
+// readings and imports. Forms inside are client components; permissions decide whether they show.
+import type { Chamber, DesiccantEvent, DesiccantStatus, HygrometerCheck } from "@/db/queries/chambers";
+import { formatDateTime, formatNumber } from "@/lib/format";
+import { EmptyState } from "@/components/ui/empty-state";
+import { DesiccantBudgetView } from "./desiccant-budget-view";
+import { ApplyOffsetToggle, DesiccantEventForm, HygrometerCheckForm, ReadingForm } from "./record-forms";
+
+export function DesiccantSection({ chamber, status, events, canWrite }: { chamber: Chamber; status: DesiccantStatus; events: DesiccantEvent[]; canWrite: boolean }) {
+  return (
+    <section className="panel p-4 space-y-4" aria-labelledby="desiccant-h">
+      <h2 id="desiccant-h" className="font-semibold">Desiccant upkeep</h2>
+      <DesiccantBudgetView budget={status.budget} missing={status.missing} exhaustionAt={status.exhaustionAt} chargedAt={status.lastCharge?.at ?? null} />
+      <p className="text-xs muted">Technicians and leads get an e-mail a few days before the projected exhaustion.</p>
+      <div className="grid gap-4 md:grid-cols-2">
+        <div>
+          <h3 className="text-sm font-semibold mb-2">Charge and regeneration log</h3>
+          {events.length === 0 ? (
+            <EmptyState text="Nothing logged yet. Log the charge now: the exhaustion date is counted from it." />
+          ) : (
+            <table className="data">
+              <thead><tr><th>When</th><th>What</th><th>Mass (g)</th><th>Notes</th></tr></thead>
+              <tbody>
+                {events.map((e) => (
+                  <tr key={e.id}><td className="whitespace-nowrap">{formatDateTime(e.at)}</td><td>{e.kind}</td><td>{formatNumber(e.massG, 1)}</td><td>{e.notes}</td></tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+        </div>
+        {canWrite && (
+          <div>
+            <h3 className="text-sm font-semibold mb-2">Log upkeep</h3>
+            <DesiccantEventForm chamberId={chamber.id} />
+          </div>
+        )}
+      </div>
+    </section>
+  );
+}
+
+export function HygrometerSection({ chamber, checks, instruments, canWrite }: { chamber: Chamber; checks: HygrometerCheck[]; instruments: string[]; canWrite: boolean }) {
+  return (
+    <section className="panel p-4 space-y-4" aria-labelledby="hyg-h">
+      <h2 id="hyg-h" className="font-semibold">Hygrometer checks</h2>
+      <p className="text-sm muted">Put the instrument in a jar over a saturated salt, let it settle, and record what it reads. The offset (reading − salt&apos;s fixed point) can correct that instrument&apos;s readings from the check on; two salts bracketing the band show whether one offset fits both ends.</p>
+      {checks.length === 0 ? (
+        <EmptyState text="No checks recorded for the instruments in this chamber." />
+      ) : (
+        <table className="data">
+          <thead><tr><th>Checked</th><th>Instrument</th><th>Salt, °C</th><th>Read / reference</th><th>Offset</th><th>Applied</th></tr></thead>
+          <tbody>
+            {checks.map((c) => (
+              <tr key={c.id}>
+                <td className="whitespace-nowrap">{formatDateTime(c.checkedAt)}</td>
+                <td>{c.instrument}</td>
+                <td>{c.saltId}, {c.tempC}</td>
+                <td>{c.readingRhPercent.toFixed(1)} / {c.referenceRhPercent.toFixed(2)} %RH</td>
+                <td>{c.offsetRhPercent >= 0 ? "+" : "−"}{Math.abs(c.offsetRhPercent).toFixed(2)} %RH</td>
+                <td>{canWrite ? <ApplyOffsetToggle chamberId={chamber.id} checkId={c.id} applied={c.applied} /> : c.applied ? "yes" : "no"}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      )}
+      {canWrite && (
+        <details>
+          <summary className="cursor-pointer text-sm font-medium">Record a check</summary>
+          <div className="mt-3 max-w-xl">
+            <HygrometerCheckForm chamberId={chamber.id} instruments={instruments} defaultSalt={chamber.saltId ?? "NaCl"} defaultTempC={chamber.nominalTempC} />
+          </div>
+        </details>
+      )}
+    </section>
+  );
+}
+
+type RecentReading = { id: number; takenAt: Date; rhPercent: number; tempC: number | null; instrument: string; source: string };
+type ImportRow = { id: string; filename: string; rowsImported: number; duplicatesSkipped: number; instrument: string; createdAt: Date };
+
+export function ReadingsSection({ chamber, recent, imports, instruments, canWrite }: { chamber: Chamber; recent: RecentReading[]; imports: ImportRow[]; instruments: string[]; canWrite: boolean }) {
+  return (
+    <section className="panel p-4 space-y-4" aria-labelledby="readings-h">
+      <h2 id="readings-h" className="font-semibold">Readings</h2>
+      <div className="grid gap-6 md:grid-cols-2">
+        <div className="space-y-2">
+          <h3 className="text-sm font-semibold">Latest</h3>
+          {recent.length === 0 ? (
+            <EmptyState text={canWrite ? "No readings yet. Type one in, import a logger file, or give a logger a token to post readings." : "No readings yet."} />
+          ) : (
+            <table className="data">
+              <thead><tr><th>Time</th><th>RH (%RH)</th><th>T (°C)</th><th>Instrument</th><th>Source</th></tr></thead>
+              <tbody>
+                {recent.map((r) => (
+                  <tr key={r.id}><td className="whitespace-nowrap">{formatDateTime(r.takenAt)}</td><td>{r.rhPercent.toFixed(1)}</td><td>{formatNumber(r.tempC, 1)}</td><td>{r.instrument}</td><td>{r.source}</td></tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          {imports.length > 0 && (
+            <>
+              <h3 className="text-sm font-semibold pt-2">Logger file imports</h3>
+              <ul className="text-sm space-y-1">
+                {imports.map((i) => <li key={i.id}>{formatDateTime(i.createdAt)} · {i.filename} ({i.instrument}): {i.rowsImported.toLocaleString("en")} stored, {i.duplicatesSkipped.toLocaleString("en")} duplicates skipped</li>)}
+              </ul>
+            </>
+          )}
+        </div>
+        {canWrite && !chamber.archivedAt && (
+          <div className="space-y-2">
+            <h3 className="text-sm font-semibold">Type in a reading</h3>
+            <ReadingForm chamberId={chamber.id} instruments={instruments} />
+          </div>
+        )}
+      </div>
+    </section>
+  );
+}

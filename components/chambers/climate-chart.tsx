@@ -1,0 +1,69 @@
+"use client";
+// RH over time against the target band (top) and temperature with dew point (bottom). The points
+// arrive already thinned on the server (min/max per bucket), so spikes survive.
+import { useMemo } from "react";
+import { VegaEmbed } from "react-vega";
+import type { VisualizationSpec } from "vega-embed";
+import { EMBED_OPTIONS } from "./vega-embed-options";
+
+export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
+
+const AXIS = { labelColor: "#5f6873", titleColor: "#5f6873", gridColor: "#cfd3d744" };
+
+export default function ClimateChart({ points, band, corrected }: { points: ChartPoint[]; band: { minRh: number; maxRh: number }; corrected: boolean }) {
+  const spec = useMemo<VisualizationSpec>(() => {
+    const several = new Set(points.map((p) => p.instrument)).size > 1;
+    const label = (t: number) => `${new Date(t).toISOString().slice(0, 16).replace("T", " ")} UTC`;
+    const rhPoints = points.map((p) => ({ ...p, time: label(p.t) }));
+    const temps = points.flatMap((p) => [
+      ...(p.tempC == null ? [] : [{ t: p.t, time: label(p.t), series: "Temperature", c: p.tempC }]),
+      ...(p.dewC == null ? [] : [{ t: p.t, time: label(p.t), series: "Dew point", c: p.dewC }]),
+    ]);
+    const x = { field: "t", type: "temporal" as const, scale: { type: "utc" as const }, title: "Time (UTC)", axis: { format: "%d %b %H:%M", labelAngle: 0, tickCount: 6 } };
+    const rhTooltip = [
+      { field: "time", title: "Time" },
+      { field: "rh", title: corrected ? "RH, corrected (%RH)" : "RH (%RH)", format: ".1f" },
+      ...(corrected ? [{ field: "rhRaw", title: "RH as logged (%RH)", format: ".1f" }] : []),
+      { field: "instrument", title: "Instrument" },
+    ];
+    return {
+      $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+      background: "transparent",
+      config: { axis: AXIS, legend: { labelColor: "#5f6873", titleColor: "#5f6873", orient: "top" }, view: { stroke: null } },
+      vconcat: [
+        {
+          width: "container",
+          height: 240,
+          title: { text: "Relative humidity", anchor: "start", color: "#5f6873", fontSize: 12 },
+          layer: [
+            { data: { values: [band] }, mark: { type: "rect", color: "#3faf99", opacity: 0.18 }, encoding: { y: { field: "minRh", type: "quantitative" }, y2: { field: "maxRh" } } },
+            {
+              data: { values: rhPoints },
+              mark: { type: "line", strokeWidth: 1.3, interpolate: "step-after" },
+              encoding: {
+                x,
+                y: { field: "rh", type: "quantitative", title: "RH (%RH)", scale: { zero: false } },
+                ...(several ? { color: { field: "instrument", type: "nominal" as const, title: "Instrument" } } : { color: { value: "#1b7667" } }),
+                tooltip: rhTooltip,
+              },
+            },
+          ],
+        },
+        {
+          width: "container",
+          height: 150,
+          title: { text: "Temperature and dew point", anchor: "start", color: "#5f6873", fontSize: 12 },
+          data: { values: temps },
+          mark: { type: "line", strokeWidth: 1.2 },
+          encoding: {
+            x,
+            y: { field: "c", type: "quantitative", title: "°C", scale: { zero: false } },
+            color: { field: "series", type: "nominal", title: null, scale: { domain: ["Temperature", "Dew point"], range: ["#c95b1f", "#4a6fa5"] } },
+            tooltip: [{ field: "time", title: "Time" }, { field: "series", title: "Series" }, { field: "c", title: "°C", format: ".1f" }],
+          },
+        },
+      ],
+    } as VisualizationSpec;
+  }, [points, band, corrected]);
+  return <VegaEmbed spec={spec} options={EMBED_OPTIONS} className="w-full" />;
+}
