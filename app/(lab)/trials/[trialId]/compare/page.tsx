@@ -1,0 +1,61 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { getTrialAnalysis } from "@/db/queries/analysis";
+import { pageQuery } from "@/lib/analysis/params";
+import { getLabContext } from "@/lib/auth/context";
+import { formatDateTime } from "@/lib/format";
+import { AreaSection } from "@/components/analysis/area-section";
+import { CompareControls, ExportLinks } from "@/components/analysis/compare-controls";
+import { FinalSection } from "@/components/analysis/final-section";
+import { OutcomeTable } from "@/components/analysis/outcome-table";
+import { SummaryPanel } from "@/components/analysis/summary-panel";
+import { SurvivalSection } from "@/components/analysis/survival-section";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata = { title: "Compare outcomes" };
+
+type Props = { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
+
+export default async function ComparePage({ params, searchParams }: Props) {
+  const ctx = await getLabContext("analysis.read");
+  if (!ctx) redirect("/sign-in");
+  const [{ trialId }, raw] = await Promise.all([params, searchParams]);
+  const q = pageQuery(raw);
+  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy: q.groupBy, method: q.method });
+  if (!analysis) notFound();
+  const { trial, comparison: c } = analysis;
+  const base = `/trials/${trial.id}/compare`;
+
+  return (
+    <div className="space-y-5">
+      <div className="space-y-1">
+        <p className="text-sm"><Link className="link" href="/analysis">Analysis</Link> · <Link className="link" href={`/trials/${trial.id}`}>{trial.title}</Link></p>
+        <h1 className="text-2xl font-semibold">Compare outcomes</h1>
+        <p className="text-sm muted">
+          {trial.question} {analysis.startAt ? `Day 0 is ${formatDateTime(analysis.startAt)}.` : ""} {analysis.doneInspections} inspections done,
+          {" "}{analysis.recordScores} scores of record.
+        </p>
+      </div>
+
+      {!c ? (
+        <EmptyState
+          text="Nothing to compare yet: this trial has no scores of record at done inspections. Record an inspection and score its photos; the comparison appears here as soon as the first scores are saved."
+          action={{ href: `/trials/${trial.id}`, label: "Open the trial" }}
+        />
+      ) : (
+        <>
+          <CompareControls base={base} q={q} />
+          <ExportLinks trialId={trial.id} q={q} />
+          <SummaryPanel c={c} />
+          {q.outcome === "first-rust" && <SurvivalSection c={c} />}
+          {q.outcome === "area" && <AreaSection c={c} />}
+          {q.outcome === "final" && <FinalSection c={c} />}
+          <details className="panel p-4">
+            <summary className="font-semibold cursor-pointer">Per-specimen outcomes ({analysis.outcomes.length})</summary>
+            <div className="mt-3"><OutcomeTable outcomes={analysis.outcomes} /></div>
+          </details>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,82 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { getTrialAnalysis } from "@/db/queries/analysis";
+import { pageQuery } from "@/lib/analysis/params";
+import { getLabContext } from "@/lib/auth/context";
+import { formatDateTime } from "@/lib/format";
+import { AreaSection } from "@/components/analysis/area-section";
+import { ExportLinks, hrefFor } from "@/components/analysis/compare-controls";
+import { FinalSection } from "@/components/analysis/final-section";
+import { MethodNotes } from "@/components/analysis/method-notes";
+import { OutcomeTable } from "@/components/analysis/outcome-table";
+import { PrintButton } from "@/components/analysis/print-button";
+import { SummaryPanel } from "@/components/analysis/summary-panel";
+import { SurvivalSection } from "@/components/analysis/survival-section";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata = { title: "Trial report" };
+
+// A4 with room for a binding edge; the app's header and controls are left off the paper, and
+// sections are kept whole where they fit.
+const PRINT_CSS = `
+@page { size: A4; margin: 14mm 12mm; }
+@media print {
+  body > div > header { display: none !important; }
+  main { max-width: none !important; padding: 0 !important; }
+  .report { font-size: 10.5pt; }
+  .report .panel { border: 1px solid #ccc !important; break-inside: avoid; }
+  .report table.data { font-size: 9pt; }
+  .report details > summary { list-style: none; }
+  .report .vega-embed details, .report .vega-embed summary { display: none !important; }
+  a.link { color: inherit; text-decoration: none; }
+}`;
+
+type Props = { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
+
+export default async function ReportPage({ params, searchParams }: Props) {
+  const ctx = await getLabContext("analysis.read");
+  if (!ctx) redirect("/sign-in");
+  const [{ trialId }, raw] = await Promise.all([params, searchParams]);
+  const q = pageQuery(raw);
+  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy: q.groupBy, method: q.method });
+  if (!analysis) notFound();
+  const { trial, comparison: c } = analysis;
+  const generated = new Date();
+
+  return (
+    <article className="report space-y-5 max-w-4xl mx-auto">
+      <style>{PRINT_CSS}</style>
+      <div className="flex flex-wrap items-start gap-3 no-print">
+        <Link className="link text-sm" href={hrefFor(`/trials/${trial.id}/compare`, q, {})}>Back to the comparison</Link>
+        <div className="ml-auto"><PrintButton /></div>
+      </div>
+      <header className="space-y-1">
+        <p className="text-xs muted">{ctx.labName} · trial report · generated {formatDateTime(generated)}</p>
+        <h1 className="text-2xl font-semibold">{trial.title}</h1>
+        <p>{trial.question}</p>
+        {trial.hypothesis && <p className="text-sm muted">Hypothesis: {trial.hypothesis}</p>}
+        <p className="text-sm muted">
+          Status {trial.status}. {analysis.startAt ? `Day 0: ${formatDateTime(analysis.startAt)}.` : "Not started."}{" "}
+          {analysis.doneInspections} inspections done; {analysis.recordScores} scores of record. Grouped by {c?.groupByLabel.toLowerCase() ?? "treatment"}.
+        </p>
+      </header>
+
+      {!c ? (
+        <EmptyState text="Nothing to report yet: this trial has no scores of record at done inspections." action={{ href: `/trials/${trial.id}`, label: "Open the trial" }} />
+      ) : (
+        <>
+          <SummaryPanel c={c} />
+          <SurvivalSection c={c} expand />
+          <AreaSection c={c} />
+          <FinalSection c={c} />
+          <section className="panel p-4 space-y-2" aria-labelledby="specimens-h">
+            <h2 id="specimens-h" className="font-semibold">Per-specimen outcomes</h2>
+            <OutcomeTable outcomes={analysis.outcomes} />
+          </section>
+          <MethodNotes />
+          <ExportLinks trialId={trial.id} q={q} withReport={false} />
+        </>
+      )}
+    </article>
+  );
+}

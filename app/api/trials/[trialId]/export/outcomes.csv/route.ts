@@ -1,0 +1,25 @@
+// GET /api/trials/[trialId]/export/outcomes.csv — one row per specimen placement: first-rust interval
+// in days since the trial start, censoring, final rusted area. Same columns as the data package's.
+import { getAnalysisTrial, loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { AppError } from "@/lib/auth/errors";
+import { labRoute } from "@/lib/auth/route";
+import { toPackageName } from "@/lib/export/datapackage";
+import { outcomeRows } from "@/lib/export/outcome-rows";
+import { tableToCsv } from "@/lib/export/table-schema";
+import { OUTCOME_TABLE } from "@/lib/export/trial-tables";
+
+export const dynamic = "force-dynamic";
+
+export const GET = labRoute<{ trialId: string }>("export.read", async (ctx, _req, { trialId }) => {
+  const trial = await getAnalysisTrial({ labId: ctx.labId, trialId });
+  if (!trial) throw new AppError("not-found", "No such trial in this lab.");
+  const { outcomes } = await loadSpecimenOutcomes({ labId: ctx.labId, trial });
+  const csv = tableToCsv(OUTCOME_TABLE, outcomeRows(outcomes));
+  return new Response(csv, {
+    headers: {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Content-Disposition": `attachment; filename="${toPackageName(trial.title)}-outcomes.csv"`,
+      "Cache-Control": "no-store",
+    },
+  });
+});

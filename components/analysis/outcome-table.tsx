@@ -1,0 +1,36 @@
+// Per-specimen outcomes: the rows behind every curve and test, as in outcomes.csv.
+import type { SpecimenOutcome } from "@/lib/analysis/derive";
+import { MATERIAL_LABELS } from "@/lib/analysis/groups";
+import { fmtDay, fmtPercent } from "./format";
+
+export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[] }) {
+  return (
+    <div className="overflow-x-auto">
+      <table className="data">
+        <thead>
+          <tr>
+            <th scope="col">Specimen</th><th scope="col">Material</th><th scope="col">Chamber</th><th scope="col">Treatment</th>
+            <th scope="col" className="text-right!">scored</th><th scope="col">First rust (days)</th><th scope="col" className="text-right!">final area</th>
+          </tr>
+        </thead>
+        <tbody>
+          {outcomes.map((o) => (
+            <tr key={o.placementId}>
+              <th scope="row" className="font-medium! text-left text-(color:--ink)!">{o.specimenLabel}</th>
+              <td>{MATERIAL_LABELS[o.materialClass] ?? o.materialClass}</td>
+              <td>{o.chamberName}</td>
+              <td>{o.treatmentName}</td>
+              <td className="text-right tabular-nums">{o.observations.length}</td>
+              <td className="tabular-nums">
+                {!o.interval ? "not scored yet"
+                  : o.interval.upper === null ? `clean through day ${fmtDay(o.interval.lower)}`
+                  : `(${fmtDay(o.interval.lower)}, ${fmtDay(o.interval.upper)}]${o.weepingSeen ? " · weeping" : ""}`}
+              </td>
+              <td className="text-right tabular-nums">{fmtPercent(o.finalAreaPercent)}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,209 @@
+import "server-only";
+import { and, asc, desc, eq, gte, inArray, isNotNull, lte, or, sql } from "drizzle-orm";
+import { z } from "zod";
+import { compareGroups, scorerAgreement, type ComparisonResult, type CurveMethod, type GradePair } from "@/lib/analysis/compare";
+import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
+import type { Grouping } from "@/lib/analysis/groups";
+import { outcomeRows } from "@/lib/export/outcome-rows";
+import { buildPackageZip, type PackageTable } from "@/lib/export/package-zip";
+import { toPackageName } from "@/lib/export/datapackage";
+import {
+  CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
+} from "@/lib/export/trial-tables";
+import { db } from "../client";
+import { chambers, inspections, photos, placements, readings, scores, specimens, treatments, trialArms, trials } from "../schema";
+
+const DAY_MS = 86_400_000;
+const isUuid = (id: string) => z.uuid().safeParse(id).success;
+
+/** Trials of the lab with what there is to analyse, newest first. */
+export async function listTrialsForAnalysis({ labId }: { labId: string }) {
+  const specimenCount = db.$count(placements, eq(placements.trialId, trials.id));
+  const doneCount = db.$count(inspections, and(eq(inspections.trialId, trials.id), isNotNull(inspections.doneAt)));
+  const scoreCount = db.$count(scores, and(eq(scores.trialId, trials.id), eq(scores.isRecord, true)));
+  return db
+    .select({
+      id: trials.id, title: trials.title, status: trials.status, startedAt: trials.startedAt,
+      specimens: specimenCount, doneInspections: doneCount, recordScores: scoreCount,
+    })
+    .from(trials)
+    .where(eq(trials.labId, labId))
+    .orderBy(desc(trials.createdAt));
+}
+
+/** The trial, only if it belongs to the lab (null otherwise, also for a malformed id). */
+export async function getAnalysisTrial({ labId, trialId }: { labId: string; trialId: string }) {
+  if (!isUuid(trialId)) return null;
+  const [row] = await db.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId))).limit(1);
+  return row ?? null;
+}
+export type AnalysisTrial = NonNullable<Awaited<ReturnType<typeof getAnalysisTrial>>>;
+
+/** Time zero: the recorded start, else the first inspection's planned time less its plan day. */
+function startOf(trial: AnalysisTrial, done: readonly { dayNumber: number; plannedAt: Date }[]): Date | null {
+  if (trial.startedAt) return trial.startedAt;
+  const first = done[0];
+  return first ? new Date(first.plannedAt.getTime() - first.dayNumber * DAY_MS) : null;
+}
+
+/** Done inspections, placements and scores of record of one trial, turned into per-specimen outcomes. */
+export async function loadSpecimenOutcomes({ labId, trial }: { labId: string; trial: AnalysisTrial }) {
+  const trialId = trial.id;
+  const [placementRows, doneRows, scoreRows] = await Promise.all([
+    db
+      .select({
+        placementId: placements.id, specimenId: placements.specimenId, specimenLabel: specimens.label,
+        materialClass: specimens.materialClass, chamberId: placements.chamberId, chamberName: chambers.name,
+        chamberRhPercent: chambers.setpointRhPercent, treatmentId: placements.treatmentId, treatmentName: treatments.name,
+        treatmentKind: treatments.kind, armLabel: trialArms.label, fromAt: placements.fromAt, toAt: placements.toAt,
+      })
+      .from(placements)
+      .innerJoin(specimens, eq(specimens.id, placements.specimenId))
+      .innerJoin(chambers, eq(chambers.id, placements.chamberId))
+      .innerJoin(treatments, eq(treatments.id, placements.treatmentId))
+      .leftJoin(trialArms, eq(trialArms.id, placements.armId))
+      .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId)))
+      .orderBy(asc(specimens.label), asc(placements.fromAt)),
+    db
+      .select({ id: inspections.id, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
+      .from(inspections)
+      .where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId), isNotNull(inspections.doneAt)))
+      .orderBy(asc(inspections.doneAt)),
+    db
+      .select({
+        inspectionId: scores.inspectionId, specimenId: scores.specimenId, spotCount: scores.spotCount,
+        areaPercent: scores.areaPercent, weeping: scores.weeping, updatedAt: scores.updatedAt,
+      })
+      .from(scores)
+      .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true))),
+  ]);
+  const done = doneRows.map((r) => ({ ...r, doneAt: r.doneAt! }));
+  const startAt = startOf(trial, done);
+  const outcomes: SpecimenOutcome[] = startAt
+    ? deriveSpecimenOutcomes({ startAt, placements: placementRows, inspections: done, scores: scoreRows })
+    : [];
+  return { startAt, outcomes, doneInspections: done.length, recordScores: scoreRows.length };
+}
+
+/**
+ * ASTM grade pairs (score of record, blind second score) on the same inspection and specimen. With
+ * several blind scorers, the one who scored most photos is taken: kappa compares exactly two raters.
+ */
+export async function loadGradePairs({ labId, trialId }: { labId: string; trialId: string }): Promise<GradePair[]> {
+  const rows = await db
+    .select({ inspectionId: scores.inspectionId, specimenId: scores.specimenId, scorerId: scores.scorerId, isRecord: scores.isRecord, blind: scores.blind, grade: scores.astmGrade })
+    .from(scores)
+    .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
+    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), isNotNull(inspections.doneAt), isNotNull(scores.astmGrade)));
+  const record = new Map<string, { scorerId: string | null; grade: number }>();
+  for (const r of rows) if (r.isRecord) record.set(`${r.inspectionId}|${r.specimenId}`, { scorerId: r.scorerId, grade: r.grade! });
+  const byScorer = new Map<string, GradePair[]>();
+  for (const r of rows) {
+    if (r.isRecord || !r.blind || !r.scorerId) continue;
+    const rec = record.get(`${r.inspectionId}|${r.specimenId}`);
+    if (!rec || rec.scorerId === r.scorerId) continue;
+    const list = byScorer.get(r.scorerId) ?? [];
+    list.push({ recordGrade: rec.grade, blindGrade: r.grade! });
+    byScorer.set(r.scorerId, list);
+  }
+  return [...byScorer.values()].sort((a, b) => b.length - a.length)[0] ?? [];
+}
+
+export interface TrialAnalysis {
+  trial: AnalysisTrial;
+  startAt: Date | null;
+  outcomes: SpecimenOutcome[];
+  doneInspections: number;
+  recordScores: number;
+  /** Null when nothing is scored yet (the page shows its empty state). */
+  comparison: ComparisonResult | null;
+}
+
+/** Everything the compare page, the report and the JSON endpoint show; null for another lab's trial. */
+export async function getTrialAnalysis(
+  { labId, trialId, groupBy, method }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod },
+): Promise<TrialAnalysis | null> {
+  const trial = await getAnalysisTrial({ labId, trialId });
+  if (!trial) return null;
+  const [loaded, pairs] = await Promise.all([loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId })]);
+  const scored = loaded.outcomes.some((o) => o.interval);
+  const comparison = scored
+    ? compareGroups(loaded.outcomes, { groupBy, method, agreement: scorerAgreement(pairs) })
+    : null;
+  return { trial, ...loaded, comparison };
+}
+
+/** Raw rows of one trial for the data package; readings only for its chambers while it ran. */
+export async function loadExportRows({ labId, trial }: { labId: string; trial: AnalysisTrial }) {
+  const trialId = trial.id;
+  const placementRows = await db.select().from(placements)
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId))).orderBy(asc(placements.createdAt));
+  const specimenIds = [...new Set(placementRows.map((p) => p.specimenId))];
+  const chamberIds = [...new Set(placementRows.map((p) => p.chamberId))];
+  const treatmentIds = [...new Set(placementRows.map((p) => p.treatmentId))];
+  const none = sql`false`;
+  const until = trial.concludedAt ?? new Date();
+  const [specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows] = await Promise.all([
+    db.select().from(specimens).where(and(eq(specimens.labId, labId), specimenIds.length ? inArray(specimens.id, specimenIds) : none)).orderBy(asc(specimens.label)),
+    db.select().from(chambers).where(and(eq(chambers.labId, labId), chamberIds.length ? inArray(chambers.id, chamberIds) : none)).orderBy(asc(chambers.name)),
+    db.select().from(treatments).where(and(eq(treatments.labId, labId), treatmentIds.length ? inArray(treatments.id, treatmentIds) : none)).orderBy(asc(treatments.name)),
+    db.select().from(inspections).where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId))).orderBy(asc(inspections.plannedAt)),
+    db.select().from(scores).where(and(eq(scores.labId, labId), eq(scores.trialId, trialId))).orderBy(asc(scores.inspectionId), asc(scores.specimenId), asc(scores.createdAt)),
+    // Photos of the trial, and any photo a score of the trial points at (so every foreign key resolves).
+    db.select().from(photos).where(and(eq(photos.labId, labId), or(eq(photos.trialId, trialId), inArray(photos.id,
+      db.select({ id: scores.photoId }).from(scores).where(and(eq(scores.trialId, trialId), isNotNull(scores.photoId)))))))
+      .orderBy(asc(photos.createdAt)),
+    trial.startedAt && chamberIds.length
+      ? db.select().from(readings).where(and(eq(readings.labId, labId), inArray(readings.chamberId, chamberIds),
+        gte(readings.takenAt, trial.startedAt), lte(readings.takenAt, until))).orderBy(asc(readings.chamberId), asc(readings.takenAt))
+      : Promise.resolve([] as (typeof readings.$inferSelect)[]),
+  ]);
+  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows };
+}
+export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
+
+const PACKAGE_README = (trial: AnalysisTrial, created: Date) => `# ${trial.title}
+
+${trial.question}
+
+Exported from Rustline on ${created.toISOString()} as a Frictionless Tabular Data Package
+(https://specs.frictionlessdata.io/tabular-data-package/). \`datapackage.json\` describes every CSV
+under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 checksum.
+
+- \`outcomes.csv\` is derived: for each placement, time to first rust as (last clean inspection,
+  first rusted inspection] in days since the trial start, from scores of record at done inspections.
+  An empty upper end means the specimen was never seen rusted (right-censored at the lower end).
+- \`photos.csv\` is a manifest: the image files stay in the lab's object storage; check a copy
+  against its \`sha256\`.
+- User ids (scorer_id, done_by) are pseudonymous; \`blind\` marks scores made without seeing the treatment.
+
+These results guide storage decisions; they do not replace a conservator's judgement.
+`;
+
+/** The trial's data package as a zip (buffered: a trial's tables are a few MB at most). */
+export async function buildTrialDataPackage({ labId, trial, now = new Date() }: { labId: string; trial: AnalysisTrial; now?: Date }) {
+  const [rows, loaded] = await Promise.all([loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial })]);
+  const tables: PackageTable[] = [
+    { spec: TRIAL_TABLE, rows: [trial] },
+    { spec: SPECIMEN_TABLE, rows: rows.specimenRows },
+    { spec: TREATMENT_TABLE, rows: rows.treatmentRows },
+    { spec: CHAMBER_TABLE, rows: rows.chamberRows },
+    { spec: PLACEMENT_TABLE, rows: rows.placementRows },
+    { spec: INSPECTION_TABLE, rows: rows.inspectionRows },
+    { spec: PHOTO_TABLE, rows: rows.photoRows },
+    { spec: SCORE_TABLE, rows: rows.scoreRows },
+    { spec: READING_TABLE, rows: rows.readingRows },
+    { spec: OUTCOME_TABLE, rows: outcomeRows(loaded.outcomes) },
+  ];
+  const name = toPackageName(`rustline-${trial.title}`);
+  const result = await buildPackageZip({
+    name,
+    title: trial.title,
+    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest and per-specimen outcomes.`,
+    created: now,
+    keywords: ["corrosion", "relative humidity", "time to first rust", "interval-censored"],
+    readme: PACKAGE_README(trial, now),
+    tables,
+  });
+  return { ...result, filename: `${name}.zip` };
+}

@@ -1,0 +1,23 @@
+// Per-specimen outcomes as flat rows for CSV (see OUTCOME_TABLE for the columns).
+import type { SpecimenOutcome } from "@/lib/analysis/derive";
+
+export function outcomeRows(outcomes: readonly SpecimenOutcome[]) {
+  return outcomes.map((o) => ({
+    placementId: o.placementId,
+    specimenId: o.specimenId,
+    specimenLabel: o.specimenLabel,
+    materialClass: o.materialClass,
+    chamberName: o.chamberName,
+    treatmentName: o.treatmentName,
+    armLabel: o.armLabel,
+    inspectionsScored: o.observations.length,
+    intervalLowerDay: o.interval?.lower ?? null,
+    intervalUpperDay: o.interval?.upper ?? null,
+    rusted: o.rusted,
+    // Unscored specimens are neither: their cells stay empty rather than claiming censoring.
+    rightCensored: o.interval ? o.interval.upper === null : null,
+    finalAreaPercent: o.finalAreaPercent,
+    finalDay: o.finalDay,
+    weepingSeen: o.weepingSeen,
+  }));
+}
