@@ -10,6 +10,7 @@ import {
 } from "@/experiments/demo-lab";
 import { recordAudit } from "./audit";
 import { closeDb, db } from "./client";
+import { seedDemoPhotos } from "./seed-photos";
 import * as s from "./schema";
 
 const DAY = 86_400_000;
@@ -135,6 +136,7 @@ async function main() {
     await recordAudit(tx, { labId: lab.id, userId: users.lead, entity: "lab", entityId: lab.id, action: "create", summary: "Demo scenario loaded", after: { specimens: specimenRows.length, inspections: inspectionRows.length } });
     return { labId: lab.id, trialId: trial.id, technicianId: users.technician, start };
   });
+  await seedDemoPhotos(ids);
   console.log(`[seed] demo lab "${demoLab.name}" loaded; sign in as lead@tarrow.example / ${DEMO_PASSWORD}`);
 }
 

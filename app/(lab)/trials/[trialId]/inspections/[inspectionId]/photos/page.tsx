@@ -1,0 +1,89 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { getInspectionForPhotos, listInspectionPhotos, placedSpecimens, referenceTime } from "@/db/queries/photos";
+import { getLabContext } from "@/lib/auth/context";
+import { can } from "@/lib/auth/permissions";
+import { formatDateTime } from "@/lib/format";
+import { readPhotoConfig } from "@/lib/photos/config";
+import { EmptyState } from "@/components/ui/empty-state";
+import { PhotoCard } from "@/components/photos/photo-card";
+import { PhotoUploader } from "@/components/photos/photo-uploader";
+import { ProtocolChecklist } from "@/components/photos/protocol-checklist";
+import { RefreshWhilePending } from "@/components/photos/refresh-while-pending";
+
+export const metadata = { title: "Inspection photos" };
+const UUID = /^[0-9a-f-]{36}$/i;
+
+export default async function InspectionPhotosPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
+  const { trialId, inspectionId } = await params;
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  const target = UUID.test(trialId) && UUID.test(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
+  if (!target) notFound();
+  const { inspection, trial } = target;
+  const ref = referenceTime(inspection);
+  const cfg = readPhotoConfig();
+  const [specimens, recorded] = await Promise.all([
+    placedSpecimens({ labId: ctx.labId, trialId: trial.id, at: ref.at }),
+    listInspectionPhotos({ labId: ctx.labId, inspectionId: inspection.id, role: ctx.role, reference: ref }),
+  ]);
+  const mayUpload = can(ctx.role, "photos.upload");
+  const locked = trial.status === "concluded";
+  const withPhoto = new Set(recorded.map((p) => p.specimenId));
+  const missing = specimens.filter((s) => !withPhoto.has(s.id));
+  const base = `/trials/${trial.id}`;
+
+  return (
+    <div className="space-y-6">
+      <nav aria-label="Breadcrumb" className="text-sm muted">
+        <Link className="link" href={base}>{trial.title}</Link> › <Link className="link" href={`${base}/inspections/${inspection.id}`}>Day {inspection.dayNumber}</Link> › Photos
+      </nav>
+      <header className="space-y-1">
+        <h1 className="text-2xl font-semibold">Photos · day {inspection.dayNumber}</h1>
+        <p className="text-sm muted">
+          Planned {formatDateTime(inspection.plannedAt)}{inspection.doneAt ? ` · done ${formatDateTime(inspection.doneAt)}` : " · not yet recorded as done"}.
+          Capture times are checked against the {ref.kind} time, ±{cfg.toleranceH} h.
+        </p>
+        <p className="text-sm"><Link className="link" href={`${base}/grid?inspection=${inspection.id}`}>All specimens at this inspection, side by side</Link></p>
+      </header>
+
+      <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
+        <div className="space-y-4">
+          {locked ? (
+            <p className="panel p-4 text-sm" role="note">This trial is concluded and its record is locked; no photos can be added.</p>
+          ) : mayUpload ? (
+            <PhotoUploader inspectionId={inspection.id} specimens={specimens.map((s) => ({ id: s.id, label: s.label }))} maxBytes={cfg.maxBytes} toleranceH={cfg.toleranceH} />
+          ) : (
+            <p className="panel p-4 text-sm" role="note">Your role can look at photos but not upload them.</p>
+          )}
+        </div>
+        <aside className="panel p-4 space-y-3 h-fit">
+          {trial.photoProtocol.length ? <ProtocolChecklist steps={trial.photoProtocol} /> : (
+            <EmptyState text="This trial has no photo protocol yet. A researcher can add one to the trial design; common practice is the same camera, lens, distance and diffuse light every time, with a scale bar and a colour card in frame." />
+          )}
+        </aside>
+      </div>
+
+      <section className="space-y-3" aria-labelledby="recorded-h">
+        <div className="flex flex-wrap items-baseline gap-3">
+          <h2 id="recorded-h" className="font-semibold">Recorded for this inspection ({recorded.length})</h2>
+          {specimens.length > 0 && <p className="text-sm muted">{specimens.length - missing.length} of {specimens.length} specimens have a photo{missing.length ? `; still missing: ${missing.slice(0, 12).map((s) => s.label).join(", ")}${missing.length > 12 ? "…" : ""}` : ""}.</p>}
+        </div>
+        <RefreshWhilePending pending={recorded.filter((p) => p.status === "pending").length} />
+        {recorded.length === 0 ? (
+          <EmptyState text={mayUpload && !locked ? "No photos yet. Choose or drop the photos of this inspection above." : "No photos have been uploaded for this inspection."} />
+        ) : (
+          <ul className="grid gap-3 grid-cols-[repeat(auto-fill,minmax(14rem,1fr))]">
+            {recorded.map((p) => (
+              <li key={p.id}>
+                <PhotoCard photo={p} alt={`${p.specimenLabel}, day ${inspection.dayNumber}`}
+                  title={p.specimenLabel} />
+                <Link className="link text-xs" href={`/specimens/${p.specimenId}/timeline`}>Timeline of {p.specimenLabel}</Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+    </div>
+  );
+}

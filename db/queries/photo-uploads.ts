@@ -1,0 +1,194 @@
+import "server-only";
+// The upload flow. Presign checks everything it can (role, lab, inspection, specimen, type, size),
+// signs a PUT bound to one key, type and length, and writes nothing: the browser then uploads
+// straight to storage. Finalise proves the upload happened and is what it claimed to be, and only
+// then creates the row (with its audit event). An abandoned upload leaves an object with no row,
+// which the hourly sweep removes.
+import { randomUUID, createHash } from "node:crypto";
+import { and, eq, ne } from "drizzle-orm";
+import { recordAudit } from "@/db/audit";
+import { db } from "@/db/client";
+import { enqueuePhotoProcess, type PhotoProcessJob } from "@/db/jobs/photos";
+import { inspections, photos, specimens, trials } from "@/db/schema";
+import { AppError } from "@/lib/auth/errors";
+import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
+import { PHOTO_CONTENT_TYPES, PHOTO_TYPES, formatBytes, isPhotoContentType, readPhotoConfig } from "@/lib/photos/config";
+import { extractPhotoExif } from "@/lib/photos/exif";
+import { cleanFileName } from "@/lib/photos/label-match";
+import { describeSniffed, sniffImageType } from "@/lib/photos/magic";
+import type { PresignRequest } from "@/lib/photos/schemas";
+import { signUploadToken, verifyUploadToken, type UploadClaim } from "@/lib/photos/upload-token";
+import { keyBelongsToLab, photoKey } from "@/storage/keys";
+import { deleteObject, getObjectRange, headObject, presignPut, type PresignedUpload } from "@/storage/presign";
+import { getInspectionForPhotos, isSpecimenPlaced, referenceTime } from "./photos";
+
+type Caller = { labId: string; userId: string };
+
+function tokenSecret(): string {
+  const s = process.env.NEXTAUTH_SECRET;
+  if (!s) throw new AppError("unavailable", "Uploads are not configured on this server (no signing secret).");
+  return s;
+}
+
+export type PresignResult = { key: string; upload: PresignedUpload; token: string; expiresAt: string };
+
+export async function presignPhotoUpload({ caller, input, expiresInS }: { caller: Caller; input: PresignRequest; expiresInS?: number }): Promise<PresignResult> {
+  const cfg = readPhotoConfig();
+  const contentType = input.contentType.toLowerCase();
+  if (!isPhotoContentType(contentType)) {
+    const accepted = PHOTO_CONTENT_TYPES.map((t) => PHOTO_TYPES[t].label).join(", ");
+    throw new AppError("invalid", `Only ${accepted} photos can be uploaded.`, { contentType: [`"${input.contentType}" is not accepted; use ${accepted}.`] });
+  }
+  if (input.sizeBytes > cfg.maxBytes) {
+    throw new AppError("too-large", `The file is ${formatBytes(input.sizeBytes)}; the limit is ${formatBytes(cfg.maxBytes)}.`, { sizeBytes: [`Larger than ${formatBytes(cfg.maxBytes)}.`] });
+  }
+  const target = await getInspectionForPhotos({ labId: caller.labId, inspectionId: input.inspectionId });
+  if (!target) throw new AppError("not-found", "That inspection does not exist in this lab.");
+  if (target.trial.status === "concluded") throw new AppError("locked", "This trial is concluded; its record is locked and takes no new photos.");
+  const placed = await isSpecimenPlaced({ labId: caller.labId, trialId: target.trial.id, specimenId: input.specimenId, at: referenceTime(target.inspection).at });
+  if (!placed) throw new AppError("invalid", "That specimen was not in this trial at this inspection.", { specimenId: ["Choose a specimen placed in the trial at this inspection."] });
+
+  const key = photoKey({ labId: caller.labId, photoId: randomUUID(), ext: PHOTO_TYPES[contentType].ext });
+  const upload = await presignPut({ key, contentType, contentLength: input.sizeBytes, expiresInS: expiresInS ?? cfg.uploadUrlTtlS });
+  const claim: UploadClaim = {
+    key, labId: caller.labId, userId: caller.userId, trialId: target.trial.id, inspectionId: target.inspection.id,
+    specimenId: input.specimenId, contentType, sizeBytes: input.sizeBytes, filename: cleanFileName(input.filename),
+    exp: Math.floor(Date.now() / 1000) + cfg.finalizeWindowS,
+  };
+  return { key, upload, token: signUploadToken(claim, tokenSecret()), expiresAt: upload.expiresAt };
+}
+
+export type FinalizedPhoto = {
+  id: string;
+  filename: string;
+  specimenId: string;
+  specimenLabel: string;
+  status: "pending" | "ready" | "failed";
+  capturedAtRaw: string | null;
+  capturedOffset: string | null;
+  sha256: string | null;
+};
+export type FinalizeResult = { photo: FinalizedPhoto; alreadyFinalized: boolean; check: CaptureCheck; warnings: string[] };
+
+const CHUNK_BYTES = 8 * 1024 * 1024;
+const JPEG_EXIF_BYTES = 256 * 1024; // a JPEG's EXIF (APP1) is limited to 64 KB and sits at the start
+
+/** SHA-256 of the object read in ranged chunks (bounded memory), plus the bytes EXIF needs. */
+async function hashObject(key: string, sizeBytes: number, keepAll: boolean): Promise<{ sha256: string; head: Uint8Array }> {
+  const hash = createHash("sha256");
+  const kept: Uint8Array[] = [];
+  let keptBytes = 0;
+  for (let start = 0; start < sizeBytes; start += CHUNK_BYTES) {
+    const end = Math.min(sizeBytes, start + CHUNK_BYTES) - 1;
+    const chunk = await getObjectRange(key, start, end);
+    if (!chunk || chunk.byteLength !== end - start + 1) throw new AppError("conflict", "The file changed in storage while it was being checked. Upload it again.");
+    hash.update(chunk);
+    if (keepAll || keptBytes < JPEG_EXIF_BYTES) {
+      kept.push(chunk);
+      keptBytes += chunk.byteLength;
+    }
+  }
+  const head = Buffer.concat(kept);
+  return { sha256: hash.digest("hex"), head: keepAll ? head : head.subarray(0, JPEG_EXIF_BYTES) };
+}
+
+function claimFromToken(token: string, caller: Caller): UploadClaim {
+  const v = verifyUploadToken(token, tokenSecret());
+  if (!v.ok) {
+    throw new AppError("invalid", v.reason === "expired"
+      ? "This upload was approved too long ago to be recorded. Upload the file again."
+      : "This upload receipt is not valid, so nothing was recorded. Upload the file again.");
+  }
+  // Another lab's (or another person's) receipt is treated as if it did not exist.
+  if (v.claim.labId !== caller.labId || v.claim.userId !== caller.userId || !keyBelongsToLab(v.claim.key, caller.labId)) {
+    throw new AppError("not-found", "No such upload in this lab.");
+  }
+  return v.claim;
+}
+
+async function buildResult(photoId: string, caller: Caller, alreadyFinalized: boolean, extraWarnings: string[] = []): Promise<FinalizeResult> {
+  const [row] = await db
+    .select({ p: photos, specimenLabel: specimens.label, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
+    .from(photos)
+    .innerJoin(specimens, eq(specimens.id, photos.specimenId))
+    .innerJoin(inspections, eq(inspections.id, photos.inspectionId))
+    .where(and(eq(photos.id, photoId), eq(photos.labId, caller.labId)));
+  if (!row) throw new AppError("not-found", "No such photo in this lab.");
+  const ref = referenceTime(row);
+  const check = checkCaptureTime({ capturedAtRaw: row.p.capturedAtRaw, capturedOffset: row.p.capturedOffset, referenceAt: ref.at, referenceKind: ref.kind, toleranceH: readPhotoConfig().toleranceH });
+  const warnings = [...(check.status === "far" || check.status === "no-time" ? [check.message] : []), ...extraWarnings];
+  const p = row.p;
+  return {
+    photo: { id: p.id, filename: p.filename, specimenId: p.specimenId, specimenLabel: row.specimenLabel, status: p.status, capturedAtRaw: p.capturedAtRaw, capturedOffset: p.capturedOffset, sha256: p.sha256 },
+    alreadyFinalized,
+    check,
+    warnings,
+  };
+}
+
+export async function finalizePhotoUpload({
+  caller,
+  token,
+  enqueue = enqueuePhotoProcess,
+}: {
+  caller: Caller;
+  token: string;
+  /** Queues the preview job; tests pass their own. */
+  enqueue?: (job: PhotoProcessJob) => Promise<void>;
+}): Promise<FinalizeResult> {
+  const claim = claimFromToken(token, caller);
+  const existing = await db.select({ id: photos.id }).from(photos).where(and(eq(photos.objectKey, claim.key), eq(photos.labId, caller.labId)));
+  if (existing[0]) return buildResult(existing[0].id, caller, true);
+
+  const info = await headObject(claim.key);
+  if (!info) throw new AppError("not-found", "The file did not arrive in storage, so nothing was recorded. Upload it again.");
+  if (info.sizeBytes !== claim.sizeBytes) {
+    await deleteObject(claim.key);
+    throw new AppError("invalid", `Storage holds ${formatBytes(info.sizeBytes)}, not the ${formatBytes(claim.sizeBytes)} approved; the file was removed and nothing was recorded.`);
+  }
+  const magic = await getObjectRange(claim.key, 0, 63);
+  const sniffed = magic ? sniffImageType(magic) : null;
+  if (sniffed !== claim.contentType) {
+    await deleteObject(claim.key);
+    const claimed = isPhotoContentType(claim.contentType) ? PHOTO_TYPES[claim.contentType].label : claim.contentType;
+    throw new AppError("invalid", `The file's content is ${describeSniffed(sniffed)}, not the ${claimed} it was sent as. It was removed and nothing was recorded.`);
+  }
+  const { sha256, head } = await hashObject(claim.key, claim.sizeBytes, claim.contentType !== "image/jpeg");
+  const exif = await extractPhotoExif(head);
+
+  const inserted = await db.transaction(async (tx) => {
+    const [trial] = await tx.select({ status: trials.status }).from(trials).where(and(eq(trials.id, claim.trialId), eq(trials.labId, caller.labId)));
+    if (!trial) throw new AppError("not-found", "That trial no longer exists in this lab.");
+    if (trial.status === "concluded") throw new AppError("locked", "This trial was concluded meanwhile; its record is locked and takes no new photos.");
+    const rows = await tx.insert(photos).values({
+      labId: caller.labId, trialId: claim.trialId, inspectionId: claim.inspectionId, specimenId: claim.specimenId,
+      objectKey: claim.key, filename: claim.filename, status: "pending", contentType: claim.contentType, sizeBytes: claim.sizeBytes,
+      sha256, capturedAtRaw: exif.capturedAtRaw, capturedOffset: exif.capturedOffset, capturedAt: exif.capturedAt,
+      camera: exif.camera, lens: exif.lens, exposure: exif.exposure, orientation: exif.orientation, gps: exif.gps,
+      uploadedBy: caller.userId,
+    }).onConflictDoNothing({ target: photos.objectKey }).returning({ id: photos.id });
+    if (!rows[0]) return null;
+    // The audit trail is readable by observers, so the location is recorded only as present or not.
+    await recordAudit(tx, {
+      labId: caller.labId, userId: caller.userId, entity: "photo", entityId: rows[0].id, action: "create",
+      summary: `Photo ${claim.filename} uploaded`,
+      after: { filename: claim.filename, inspectionId: claim.inspectionId, specimenId: claim.specimenId, contentType: claim.contentType, sizeBytes: claim.sizeBytes, sha256, capturedAtRaw: exif.capturedAtRaw, capturedOffset: exif.capturedOffset, hasGps: exif.gps != null },
+    });
+    return rows[0].id;
+  });
+  if (!inserted) {
+    // A concurrent finalise of the same upload won the race; answer as the repeat it is.
+    const [row] = await db.select({ id: photos.id }).from(photos).where(and(eq(photos.objectKey, claim.key), eq(photos.labId, caller.labId)));
+    return buildResult(row.id, caller, true);
+  }
+  try {
+    await enqueue({ photoId: inserted, labId: caller.labId });
+  } catch (err) {
+    // The photo is recorded; the sweep re-queues photos whose previews are still missing.
+    console.error("[photos] could not queue previews:", (err as Error).message);
+  }
+  const twins = await db.select({ filename: photos.filename }).from(photos)
+    .where(and(eq(photos.labId, caller.labId), eq(photos.sha256, sha256), ne(photos.id, inserted))).limit(3);
+  const dupWarnings = twins.length ? [`The same file was uploaded before as ${twins.map((t) => `"${t.filename}"`).join(", ")}.`] : [];
+  return buildResult(inserted, caller, false, dupWarnings);
+}

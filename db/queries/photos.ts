@@ -1,0 +1,174 @@
+import "server-only";
+// Photo reads: the inspection an upload targets, who was placed when, photo views for pages, and
+// short-lived signed URLs handed out only after the lab and permission checks.
+import { and, asc, desc, eq, gt, inArray, isNull, lte, or } from "drizzle-orm";
+import { db } from "@/db/client";
+import { inspections, photos, placements, specimens, trialMembers, trials, users } from "@/db/schema";
+import { AppError } from "@/lib/auth/errors";
+import { can, type Role } from "@/lib/auth/permissions";
+import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
+import { readPhotoConfig } from "@/lib/photos/config";
+import type { PhotoVariant } from "@/lib/photos/schemas";
+import { presignGet } from "@/storage/presign";
+
+type PhotoRow = typeof photos.$inferSelect;
+export type Reference = { at: Date; kind: "done" | "planned" };
+
+/** The time a photo of this inspection should have been taken near: done time, else planned time. */
+export function referenceTime(i: { doneAt: Date | null; plannedAt: Date }): Reference {
+  return i.doneAt ? { at: i.doneAt, kind: "done" } : { at: i.plannedAt, kind: "planned" };
+}
+
+export async function getInspectionForPhotos({ labId, inspectionId, trialId }: { labId: string; inspectionId: string; trialId?: string }) {
+  const rows = await db
+    .select({ inspection: inspections, trial: trials })
+    .from(inspections)
+    .innerJoin(trials, eq(trials.id, inspections.trialId))
+    .where(and(eq(inspections.id, inspectionId), eq(inspections.labId, labId), trialId ? eq(trials.id, trialId) : undefined));
+  return rows[0] ?? null;
+}
+
+function placedAt(at: Date) {
+  return and(or(isNull(placements.fromAt), lte(placements.fromAt, at)), or(isNull(placements.toAt), gt(placements.toAt, at)));
+}
+
+/** Specimens placed in the trial at `at`, by label. */
+export async function placedSpecimens({ labId, trialId, at }: { labId: string; trialId: string; at: Date }) {
+  const rows = await db
+    .selectDistinct({ id: specimens.id, label: specimens.label, materialClass: specimens.materialClass })
+    .from(placements)
+    .innerJoin(specimens, eq(specimens.id, placements.specimenId))
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId), placedAt(at)));
+  return rows.sort((a, b) => a.label.localeCompare(b.label, undefined, { numeric: true }));
+}
+
+export async function isSpecimenPlaced({ labId, trialId, specimenId, at }: { labId: string; trialId: string; specimenId: string; at: Date }) {
+  const rows = await db.select({ id: placements.id }).from(placements)
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId), eq(placements.specimenId, specimenId), placedAt(at))).limit(1);
+  return rows.length > 0;
+}
+
+/** Trials in which this user scores blind: they must not see treatments or the scores of record. */
+export async function blindTrialIds({ labId, userId }: { labId: string; userId: string }): Promise<Set<string>> {
+  const rows = await db.select({ trialId: trialMembers.trialId }).from(trialMembers)
+    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
+  return new Set(rows.map((r) => r.trialId));
+}
+
+/** What pages and the API show of a photo. Location only for roles with photos.gps. */
+export type PhotoView = {
+  id: string;
+  filename: string;
+  specimenId: string;
+  inspectionId: string | null;
+  status: "pending" | "ready" | "failed";
+  processingNote: string | null;
+  contentType: string;
+  sizeBytes: number;
+  sha256: string | null;
+  width: number | null;
+  height: number | null;
+  capturedAtRaw: string | null;
+  capturedOffset: string | null;
+  capturedAt: string | null;
+  camera: string | null;
+  lens: string | null;
+  exposure: string | null;
+  orientation: number | null;
+  gps: { lat: number; lon: number } | null;
+  /** True when the photo has a location that this viewer may not see. */
+  gpsHidden: boolean;
+  check: CaptureCheck | null;
+  thumbUrl: string | null;
+  displayUrl: string | null;
+  originalUrl: string | null;
+  uploadedAt: string;
+  uploadedBy: string | null;
+};
+
+export function toPhotoView(p: PhotoRow, opts: { role: Role; reference: Reference | null; uploadedBy?: string | null }): PhotoView {
+  const seesGps = can(opts.role, "photos.gps");
+  const file = (v: PhotoVariant) => `/api/photos/${p.id}/file?variant=${v}`;
+  const check = opts.reference
+    ? checkCaptureTime({ capturedAtRaw: p.capturedAtRaw, capturedOffset: p.capturedOffset, referenceAt: opts.reference.at, referenceKind: opts.reference.kind, toleranceH: readPhotoConfig().toleranceH })
+    : null;
+  return {
+    id: p.id, filename: p.filename, specimenId: p.specimenId, inspectionId: p.inspectionId, status: p.status, processingNote: p.processingNote,
+    contentType: p.contentType, sizeBytes: p.sizeBytes, sha256: p.sha256, width: p.width, height: p.height,
+    capturedAtRaw: p.capturedAtRaw, capturedOffset: p.capturedOffset, capturedAt: p.capturedAt?.toISOString() ?? null,
+    camera: p.camera, lens: p.lens, exposure: p.exposure, orientation: p.orientation,
+    gps: seesGps ? p.gps ?? null : null,
+    gpsHidden: !seesGps && p.gps != null,
+    check,
+    thumbUrl: p.derivatives.thumb ? file("thumb") : null,
+    displayUrl: p.derivatives.display ? file("display") : null,
+    // The original keeps its EXIF, location included, so only roles that may see the location get it.
+    originalUrl: seesGps ? file("original") : null,
+    uploadedAt: p.createdAt.toISOString(),
+    uploadedBy: opts.uploadedBy ?? null,
+  };
+}
+
+export async function listInspectionPhotos({ labId, inspectionId, role, reference }: { labId: string; inspectionId: string; role: Role; reference: Reference }) {
+  const rows = await db
+    .select({ p: photos, specimenLabel: specimens.label, uploader: users.name })
+    .from(photos)
+    .innerJoin(specimens, eq(specimens.id, photos.specimenId))
+    .leftJoin(users, eq(users.id, photos.uploadedBy))
+    .where(and(eq(photos.labId, labId), eq(photos.inspectionId, inspectionId)))
+    .orderBy(asc(specimens.label), asc(photos.createdAt));
+  return rows.map((r) => ({ ...toPhotoView(r.p, { role, reference, uploadedBy: r.uploader }), specimenLabel: r.specimenLabel }));
+}
+
+/** One photo of the caller's lab, or not-found (also for another lab's photo). */
+export async function getPhotoForLab({ labId, photoId }: { labId: string; photoId: string }) {
+  if (!/^[0-9a-f-]{36}$/i.test(photoId)) return null;
+  const rows = await db
+    .select({ p: photos, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt, specimenLabel: specimens.label })
+    .from(photos)
+    .innerJoin(specimens, eq(specimens.id, photos.specimenId))
+    .leftJoin(inspections, eq(inspections.id, photos.inspectionId))
+    .where(and(eq(photos.id, photoId), eq(photos.labId, labId)));
+  return rows[0] ?? null;
+}
+
+export async function photoDetails({ ctx, photoId }: { ctx: { labId: string; role: Role }; photoId: string }) {
+  const row = await getPhotoForLab({ labId: ctx.labId, photoId });
+  if (!row) throw new AppError("not-found", "No such photo in this lab.");
+  const reference = row.plannedAt ? referenceTime({ plannedAt: row.plannedAt, doneAt: row.doneAt }) : null;
+  return { ...toPhotoView(row.p, { role: ctx.role, reference }), specimenLabel: row.specimenLabel };
+}
+
+/**
+ * A signed GET URL (5 minutes) for one variant of a photo, after the lab check. Previews are open
+ * to every member; the original carries EXIF location, so it needs photos.gps.
+ */
+export async function photoFileUrl({ ctx, photoId, variant }: { ctx: { labId: string; role: Role }; photoId: string; variant: PhotoVariant }) {
+  const row = await getPhotoForLab({ labId: ctx.labId, photoId });
+  if (!row) throw new AppError("not-found", "No such photo in this lab.");
+  const p = row.p;
+  const ttl = readPhotoConfig().downloadUrlTtlS;
+  if (variant === "original") {
+    if (!can(ctx.role, "photos.gps")) throw new AppError("forbidden", "Your role sees previews only; the original file carries its location.");
+    return { url: await presignGet({ key: p.objectKey, expiresInS: ttl, filename: p.filename, disposition: "attachment" }), expiresInS: ttl };
+  }
+  const key = p.derivatives[variant];
+  if (!key) throw new AppError("not-found", p.status === "failed" ? p.processingNote ?? "No preview for this photo." : "The preview is still being made.");
+  return { url: await presignGet({ key, expiresInS: ttl, disposition: "inline" }), expiresInS: ttl };
+}
+
+export type RecordScore = { areaPercent: number; astmGrade: number | null; astmLetter: string | null; weeping: boolean; spotCount: number };
+
+export async function latestDoneInspection({ labId, trialId }: { labId: string; trialId: string }) {
+  const rows = await db.select().from(inspections)
+    .where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId)))
+    .orderBy(desc(inspections.doneAt), desc(inspections.plannedAt));
+  return rows.find((r) => r.doneAt) ?? rows[rows.length - 1] ?? null;
+}
+
+export async function photosOfSpecimens({ labId, specimenIds, inspectionIds }: { labId: string; specimenIds: string[]; inspectionIds: string[] }) {
+  if (!specimenIds.length || !inspectionIds.length) return [];
+  return db.select().from(photos)
+    .where(and(eq(photos.labId, labId), inArray(photos.specimenId, specimenIds), inArray(photos.inspectionId, inspectionIds)))
+    .orderBy(asc(photos.createdAt));
+}

@@ -1,0 +1,19 @@
+// Request bodies of the photo API, shared by the uploader (client) and the route handlers (server).
+import { z } from "zod";
+
+export const presignRequestSchema = z.object({
+  inspectionId: z.guid("Choose an inspection."),
+  specimenId: z.guid("Choose the specimen this photo shows."),
+  filename: z.string().trim().min(1, "The file has no name.").max(500),
+  contentType: z.string().trim().min(1, "The file type is unknown.").max(100),
+  sizeBytes: z.number().int("The size must be a whole number of bytes.").min(1, "The file is empty."),
+});
+export type PresignRequest = z.infer<typeof presignRequestSchema>;
+
+export const finalizeRequestSchema = z.object({
+  token: z.string().min(16).max(8000),
+});
+export type FinalizeRequest = z.infer<typeof finalizeRequestSchema>;
+
+export const photoVariantSchema = z.enum(["thumb", "display", "original"]);
+export type PhotoVariant = z.infer<typeof photoVariantSchema>;
