@@ -289,3 +289,19 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
     return after;
   });
 }
+
+/**
+ * For a viewer who scores this trial blind: drop which arm (chamber × treatment) each specimen is in.
+ * Pages and the API both use this, so blinding does not depend on which screen is open.
+ */
+export function blindRows<T extends Record<string, unknown>>(rows: T[], blind: boolean): T[] {
+  if (!blind) return rows;
+  return rows.map((r) => ({ ...r, armId: null, armLabel: null, chamberName: null, treatmentName: null, blinded: true }));
+}
+
+/** Trials this user scores blind (for pages that list several trials, like a specimen's history). */
+export async function blindTrialIds({ labId, userId }: { labId: string; userId: string }) {
+  const rows = await db.select({ trialId: trialMembers.trialId }).from(trialMembers)
+    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
+  return new Set(rows.map((r) => r.trialId));
+}

@@ -42,7 +42,7 @@ const protocolLines = z.array(z.string().trim().min(1).max(300, "Keep each line 
 
 export const scorerSchema = z.object({ userId: z.uuid(), blind: z.boolean().default(false) });
 
-export const trialDesignSchema = z.object({
+export const trialDesignObject = z.object({
   title: z.string().trim().min(3, "Give the trial a title (at least 3 characters).").max(200, "Use at most 200 characters."),
   question: z.string().trim().min(10, "State the question the trial answers (at least 10 characters).").max(2000, "Use at most 2000 characters."),
   hypothesis: z.string().trim().max(2000, "Use at most 2000 characters.").default(""),
@@ -57,15 +57,21 @@ export const trialDesignSchema = z.object({
   scorers: z.array(scorerSchema).max(20).optional(),
   scoreRule: z.enum(["primary-scorer", "consensus"]).optional(),
   primaryScorerId: z.uuid().nullable().optional(),
-}).superRefine((d, ctx) => {
-  if (d.chamberIds.length * d.treatmentIds.length > 60) ctx.addIssue({ code: "custom", path: ["treatmentIds"], message: "At most 60 arms (chambers × treatments)." });
+});
+
+function designChecks(d: Partial<z.infer<typeof trialDesignObject>>, ctx: z.RefinementCtx) {
+  if (d.chamberIds && d.treatmentIds && d.chamberIds.length * d.treatmentIds.length > 60) ctx.addIssue({ code: "custom", path: ["treatmentIds"], message: "At most 60 arms (chambers × treatments)." });
   if (d.scorers && d.primaryScorerId && !d.scorers.some((s) => s.userId === d.primaryScorerId)) {
     ctx.addIssue({ code: "custom", path: ["primaryScorerId"], message: "The primary scorer must be one of the scorers." });
   }
   if (d.scorers && d.scoreRule === "primary-scorer" && d.scorers.length > 0 && !d.primaryScorerId) {
     ctx.addIssue({ code: "custom", path: ["primaryScorerId"], message: "Choose the primary scorer, or use consensus." });
   }
-});
+}
+export const trialDesignSchema = trialDesignObject.superRefine(designChecks);
+/** JSON PATCH: any subset of the design; no defaults filled in, so absent fields stay as they are. */
+const patchShape = Object.fromEntries(Object.entries(trialDesignObject.shape).map(([k, v]) => [k, (v instanceof z.ZodDefault ? v.removeDefault() : v).optional()]));
+export const trialPatchSchema = z.object(patchShape).strict().superRefine(designChecks) as unknown as z.ZodType<Partial<z.infer<typeof trialDesignObject>>>;
 export type TrialDesign = z.infer<typeof trialDesignSchema>;
 
 /** Repeated form keys ("x[]") become arrays; absent ones empty arrays. */

@@ -1,0 +1,81 @@
+import Link from "next/link";
+import { notFound, redirect } from "next/navigation";
+import { getSpecimen, listSpecimenPlacements } from "@/db/queries/specimens";
+import { blindTrialIds } from "@/db/queries/trials";
+import { getLabContext } from "@/lib/auth/context";
+import { can } from "@/lib/auth/permissions";
+import { formatDateTime, formatNumber } from "@/lib/format";
+import { MATERIAL_CLASS_LABELS } from "@/lib/validation/specimens";
+import { EmptyState } from "@/components/ui/empty-state";
+
+export const metadata = { title: "Specimen" };
+
+function Fact({ term, children }: { term: string; children: React.ReactNode }) {
+  return (
+    <div>
+      <dt className="text-xs muted">{term}</dt>
+      <dd className="whitespace-pre-wrap">{children || <span className="muted">—</span>}</dd>
+    </div>
+  );
+}
+
+export default async function SpecimenPage({ params }: { params: Promise<{ specimenId: string }> }) {
+  const { specimenId } = await params;
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  const specimen = await getSpecimen({ labId: ctx.labId, specimenId });
+  if (!specimen) notFound();
+  const [placements, blindIn] = await Promise.all([listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId })]);
+  return (
+    <div className="space-y-6">
+      <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>
+      <div className="flex flex-wrap items-center gap-3">
+        <h1 className="text-2xl font-semibold mr-auto">{specimen.label}</h1>
+        <Link className="btn-quiet" href={`/specimens/${specimen.id}/timeline`}>Photo timeline</Link>
+        {can(ctx.role, "specimens.write") && <Link className="btn" href={`/specimens/${specimen.id}/edit`}>Edit</Link>}
+      </div>
+      <section className="panel p-4" aria-labelledby="facts-h">
+        <h2 id="facts-h" className="sr-only">Details</h2>
+        <dl className="grid gap-4 md:grid-cols-3">
+          <Fact term="Material class">{MATERIAL_CLASS_LABELS[specimen.materialClass]}</Fact>
+          <Fact term="Find name">{specimen.findName}</Fact>
+          <Fact term="Face">{specimen.face}</Fact>
+          <Fact term="Surface preparation">{specimen.surfacePrep}</Fact>
+          <Fact term="Mass">{specimen.massG == null ? "" : formatNumber(specimen.massG, 2, "g")}</Fact>
+          <Fact term="Added">{formatDateTime(specimen.createdAt)}</Fact>
+        </dl>
+        <dl className="grid gap-4 md:grid-cols-3 mt-4">
+          <Fact term="Description">{specimen.description}</Fact>
+          <Fact term="History">{specimen.history}</Fact>
+          <Fact term="Contamination notes">{specimen.contaminationNotes}</Fact>
+        </dl>
+      </section>
+      <section className="space-y-2" aria-labelledby="placements-h">
+        <h2 id="placements-h" className="text-lg font-semibold">Placement history</h2>
+        {placements.length === 0 ? (
+          <EmptyState text="Not placed in any trial yet. It is placed when a trial it is allocated to starts." action={{ href: "/trials", label: "Go to trials" }} />
+        ) : (
+          <div className="panel overflow-x-auto">
+            <table className="data">
+              <caption className="sr-only">Where this specimen has been</caption>
+              <thead><tr><th scope="col">Trial</th><th scope="col">Chamber</th><th scope="col">Treatment</th><th scope="col">From</th><th scope="col">To</th><th scope="col">Reason</th></tr></thead>
+              <tbody>
+                {placements.map((p) => (
+                  <tr key={p.id}>
+                    <td><Link className="link" href={`/trials/${p.trialId}`}>{p.trialTitle}</Link> <span className="text-xs muted">({p.trialStatus})</span></td>
+                    {blindIn.has(p.trialId) ? (
+                      <td colSpan={2} className="muted">hidden: you score this trial blind</td>
+                    ) : (<><td>{p.chamberName}</td><td>{p.treatmentName}</td></>)}
+                    <td className="whitespace-nowrap">{p.fromAt ? formatDateTime(p.fromAt) : "—"}</td>
+                    <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : <span className="font-medium">now</span>}</td>
+                    <td>{p.reason}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        )}
+      </section>
+    </div>
+  );
+}

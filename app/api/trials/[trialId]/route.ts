@@ -1,0 +1,29 @@
+// GET /api/trials/[trialId] — the trial with arms, team, allocation (blinded for blind scorers) and notes.
+// PATCH /api/trials/[trialId] — change the design (draft only). A body with only team fields
+// (technicianIds, photoProtocol; scorers, scoreRule, primaryScorerId need a lead) also works while running.
+import { NextResponse } from "next/server";
+import { blindRows, listAllocation, listArms, listTrialMembers, listTrialNotes, requireTrial, updateTrialDesign, updateTrialTeam, viewerIsBlind } from "@/db/queries/trials";
+import { labRoute, readJson } from "@/lib/auth/route";
+import { trialPatchSchema } from "@/lib/validation/trials";
+
+type P = { trialId: string };
+const TEAM_KEYS = new Set(["technicianIds", "photoProtocol", "scorers", "scoreRule", "primaryScorerId"]);
+
+export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
+  const trial = await requireTrial({ labId: ctx.labId, trialId });
+  const [arms, members, allocation, notes, blind] = await Promise.all([
+    listArms({ labId: ctx.labId, trialId }), listTrialMembers({ labId: ctx.labId, trialId }), listAllocation({ labId: ctx.labId, trialId }),
+    listTrialNotes({ labId: ctx.labId, trialId }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId }),
+  ]);
+  return NextResponse.json({ ...trial, arms, members, allocation: blindRows(allocation, blind), notes, viewerBlind: blind });
+});
+
+export const PATCH = labRoute<P>("trials.write", async (ctx, req, { trialId }) => {
+  const input = await readJson(req, trialPatchSchema);
+  const keys = Object.keys(input).filter((k) => input[k as keyof typeof input] !== undefined);
+  if (keys.length > 0 && keys.every((k) => TEAM_KEYS.has(k))) {
+    return NextResponse.json(await updateTrialTeam({ actor: ctx, trialId, ...input }));
+  }
+  const r = await updateTrialDesign({ actor: ctx, trialId, input });
+  return NextResponse.json({ ...r.trial, allocationCleared: r.allocationCleared });
+});
