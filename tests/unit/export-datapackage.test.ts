@@ -4,7 +4,16 @@ import { describe, expect, it } from "vitest";
 import { buildDataPackage, toPackageName, validateDataPackage } from "@/lib/export/datapackage";
 import { SCORE_TABLE, SPECIMEN_TABLE, INSPECTION_TABLE, PHOTO_TABLE } from "@/lib/export/trial-tables";
 
-function good() {
+interface TestResource {
+  name: string; path: string; profile: string; format: string; mediatype: string; bytes?: number; hash?: string;
+  schema: {
+    fields: { name: string; type: string; format?: string }[];
+    primaryKey: string | string[];
+    foreignKeys?: { fields: string; reference: { resource: string; fields: string } }[];
+  };
+}
+
+function good(): { profile: string; name: string; resources: TestResource[] } {
   return {
     profile: "tabular-data-package",
     name: "rustline-demo",
@@ -95,11 +104,11 @@ describe("validateDataPackage", () => {
 
   it("checks primary and foreign keys against the fields they name", () => {
     expect(where(broken((d) => { d.resources[0].schema.primaryKey = "label"; }))).toEqual(["resources[0].schema.primaryKey"]);
-    expect(where(broken((d) => { d.resources[1].schema.foreignKeys[0].fields = "specimen"; }))).toEqual(["resources[1].schema.foreignKeys[0].fields"]);
-    expect(where(broken((d) => { d.resources[1].schema.foreignKeys[0].reference.resource = "samples"; }))).toEqual(["resources[1].schema.foreignKeys[0].reference.resource"]);
-    expect(where(broken((d) => { d.resources[1].schema.foreignKeys[0].reference.fields = "uuid"; }))).toEqual(["resources[1].schema.foreignKeys[0].reference.fields"]);
+    expect(where(broken((d) => { d.resources[1].schema.foreignKeys![0].fields = "specimen"; }))).toEqual(["resources[1].schema.foreignKeys[0].fields"]);
+    expect(where(broken((d) => { d.resources[1].schema.foreignKeys![0].reference.resource = "samples"; }))).toEqual(["resources[1].schema.foreignKeys[0].reference.resource"]);
+    expect(where(broken((d) => { d.resources[1].schema.foreignKeys![0].reference.fields = "uuid"; }))).toEqual(["resources[1].schema.foreignKeys[0].reference.fields"]);
     // An empty reference.resource means the resource itself.
-    expect(broken((d) => { d.resources[1].schema.foreignKeys[0] = { fields: "specimen_id", reference: { resource: "", fields: "id" } }; })).toEqual([]);
+    expect(broken((d) => { d.resources[1].schema.foreignKeys![0] = { fields: "specimen_id", reference: { resource: "", fields: "id" } }; })).toEqual([]);
   });
 
   it("checks byte counts, hashes and media types when given", () => {
