@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import { buildDataPackage, toPackageName, validateDataPackage } from "@/lib/export/datapackage";
 import { SCORE_TABLE, SPECIMEN_TABLE, INSPECTION_TABLE, PHOTO_TABLE } from "@/lib/export/trial-tables";
 
-interface TestResource {
+interface TestResource extends Record<string, unknown> {
   name: string; path: string; profile: string; format: string; mediatype: string; bytes?: number; hash?: string;
   schema: {
     fields: { name: string; type: string; format?: string }[];
