@@ -108,7 +108,12 @@ export function ScoreForm(p: Props) {
           <input id="sf-spotCount" name="spotCount" type="number" min={0} step={1} inputMode="numeric" className="field" readOnly={ro}
             value={spotValue} onChange={(e) => setSpotText(e.target.value)} aria-invalid={!!state?.errors?.spotCount || undefined}
             aria-describedby={[describe("spotCount"), "sf-spotCount-hint"].filter(Boolean).join(" ")} />
-          <p id="sf-spotCount-hint" className="text-xs muted">{spotText == null ? `${markCount} spot mark${markCount === 1 ? "" : "s"}` : "typed in"}</p>
+          <p id="sf-spotCount-hint" className="text-xs muted">
+            {markCount} spot mark{markCount === 1 ? "" : "s"}
+            {spotText != null && Number(spotText) !== markCount && !ro && (
+              <> · count typed in · <button type="button" className="link underline" onClick={() => setSpotText(null)}>use the marks</button></>
+            )}
+          </p>
           <Err state={state} name="spotCount" />
         </div>
         <div className="space-y-1">
@@ -140,7 +145,8 @@ export function ScoreForm(p: Props) {
         <Err state={state} name="astmLetter" />
       </fieldset>
 
-      <dl className="grid grid-cols-2 gap-3 rounded-md bg-iron-100/60 dark:bg-iron-800/60 p-3">
+      <div className="rounded-md bg-iron-100/60 dark:bg-iron-800/60 p-3 space-y-2">
+      <dl className="grid grid-cols-2 gap-3">
         <div>
           <dt className="text-xs muted">ASTM D610 grade</dt>
           <dd className="text-lg font-semibold tabular-nums" data-testid="astm-preview">{astmText}</dd>
@@ -149,11 +155,12 @@ export function ScoreForm(p: Props) {
           <dt className="text-xs muted">ISO 4628-3 degree</dt>
           <dd className="text-lg font-semibold tabular-nums" data-testid="iso-preview">{iso == null ? "—" : formatIso(iso)}</dd>
         </div>
-        <details className="col-span-2 text-xs">
-          <summary className="cursor-pointer">How the ISO degree is assigned between the standard&apos;s values</summary>
-          <p className="mt-1">{ISO_RULE_TEXT}</p>
-        </details>
       </dl>
+      <details className="text-xs">
+        <summary className="cursor-pointer">How the ISO degree is assigned between the standard&apos;s values</summary>
+        <p className="mt-1">{ISO_RULE_TEXT}</p>
+      </details>
+      </div>
 
       <div className="grid grid-cols-2 gap-3">
         <label className="flex items-start gap-2 text-sm">
