@@ -10,16 +10,15 @@ const VegaEmbed = dynamic(() => import("react-vega").then((m) => m.VegaEmbed), {
 });
 
 // ast: expressions run through vega's interpreter, so the chart works under our CSP (no eval).
-const OPTIONS = {
-  renderer: "svg" as const,
-  ast: true,
-  actions: { export: true, source: false, compiled: false, editor: false },
-};
+// No actions menu: its icon-only control has no accessible name, and the data export is ours.
+const OPTIONS = { renderer: "svg" as const, ast: true, actions: false };
 
 export function VegaChart({ spec, label, testId }: { spec: VisualizationSpec; label: string; testId?: string }) {
+  // vega writes `description` onto the SVG as its accessible name.
+  const described = { ...spec, description: label } as VisualizationSpec;
   return (
-    <div role="img" aria-label={label} data-testid={testId} className="w-full overflow-x-auto">
-      <VegaEmbed spec={spec} options={OPTIONS} style={{ width: "100%" }} />
+    <div data-testid={testId} className="w-full overflow-x-auto">
+      <VegaEmbed spec={described} options={OPTIONS} style={{ width: "100%" }} />
     </div>
   );
 }

@@ -27,7 +27,6 @@ const PRINT_CSS = `
   .report .panel { border: 1px solid #ccc !important; break-inside: avoid; }
   .report table.data { font-size: 9pt; }
   .report details > summary { list-style: none; }
-  .report .vega-embed details, .report .vega-embed summary { display: none !important; }
   a.link { color: inherit; text-decoration: none; }
 }`;
 
