@@ -1,17 +1,38 @@
 // Server-rendered sections of the chamber page: desiccant upkeep, hygrometer checks, recent
 // readings and imports. Forms inside are client components; permissions decide whether they show.
 import type { Chamber, DesiccantEvent, DesiccantStatus, HygrometerCheck } from "@/db/queries/chambers";
-import { formatDateTime, formatNumber } from "@/lib/format";
+import { formatDate, formatDateTime, formatNumber } from "@/lib/format";
+import { REMIND_DAYS_BEFORE } from "@/lib/validation/chambers";
 import { EmptyState } from "@/components/ui/empty-state";
 import { DesiccantBudgetView } from "./desiccant-budget-view";
 import { ApplyOffsetToggle, DesiccantEventForm, HygrometerCheckForm, ReadingForm } from "./record-forms";
+
+const dateOrDash = (d: Date | null) => (d ? (d.getTime() - Date.now() > 3650 * 86_400_000 ? "over 10 years away" : formatDate(d)) : "—");
 
 export function DesiccantSection({ chamber, status, events, canWrite }: { chamber: Chamber; status: DesiccantStatus; events: DesiccantEvent[]; canWrite: boolean }) {
   return (
     <section className="panel p-4 space-y-4" aria-labelledby="desiccant-h">
       <h2 id="desiccant-h" className="font-semibold">Desiccant upkeep</h2>
-      <DesiccantBudgetView budget={status.budget} missing={status.missing} exhaustionAt={status.exhaustionAt} chargedAt={status.lastCharge?.at ?? null} />
-      <p className="text-xs muted">Technicians and leads get an e-mail a few days before the projected exhaustion.</p>
+      <div className="grid gap-4 md:grid-cols-2">
+        <div>
+          <h3 className="text-sm font-semibold mb-1">Water budget</h3>
+          <DesiccantBudgetView budget={status.budget} missing={status.missing} />
+        </div>
+        <div>
+          <h3 className="text-sm font-semibold mb-1">Projected exhaustion</h3>
+          <dl className="grid grid-cols-[auto_1fr] gap-x-4 gap-y-1 text-sm">
+            <dt className="muted">Last charge / regeneration</dt><dd>{status.lastCharge ? formatDateTime(status.lastCharge.at) : "none logged — log the charge to get a date"}</dd>
+            <dt className="muted">From the water budget</dt><dd>{dateOrDash(status.budgetExhaustionAt)}</dd>
+            <dt className="muted">From weighing</dt>
+            <dd>{status.measured ? <>+{status.measured.gainG.toFixed(1)} g in {status.measured.days.toFixed(0)} days ({(status.measured.gPerDay * 1000).toFixed(0)} mg/day) → {dateOrDash(status.measured.exhaustionAt)}</> : "weigh the charge when charging and again later to get one"}</dd>
+            <dt className="muted">Reminder goes by</dt>
+            <dd data-testid="exhaustion-date" className={status.exhaustionAt && status.exhaustionAt.getTime() < Date.now() ? "text-rust-600 font-medium" : "font-medium"}>
+              {status.exhaustionAt ? `${formatDate(status.exhaustionAt)}${status.exhaustionAt.getTime() < Date.now() ? " — passed: regenerate or check the jar" : ""}` : "—"}
+            </dd>
+          </dl>
+          <p className="text-xs muted mt-2">The earlier projection counts. Technicians and leads get an e-mail {REMIND_DAYS_BEFORE} days before it.</p>
+        </div>
+      </div>
       <div className="grid gap-4 md:grid-cols-2">
         <div>
           <h3 className="text-sm font-semibold mb-2">Charge and regeneration log</h3>

@@ -1,7 +1,7 @@
 "use client";
 // RH over time against the target band (top) and temperature with dew point (bottom). The points
 // arrive already thinned on the server (min/max per bucket), so spikes survive.
-import { useMemo } from "react";
+import { useEffect, useMemo, useRef, useState } from "react";
 import { VegaEmbed } from "react-vega";
 import type { VisualizationSpec } from "vega-embed";
 import { EMBED_OPTIONS } from "./vega-embed-options";
@@ -11,6 +11,17 @@ export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number |
 const AXIS = { labelColor: "#5f6873", titleColor: "#5f6873", gridColor: "#cfd3d744" };
 
 export default function ClimateChart({ points, band, corrected }: { points: ChartPoint[]; band: { minRh: number; maxRh: number }; corrected: boolean }) {
+  // Concatenated views cannot size to their container, so measure it (leaving room for the y axis).
+  const box = useRef<HTMLDivElement>(null);
+  const [boxWidth, setBoxWidth] = useState(0);
+  useEffect(() => {
+    const el = box.current;
+    if (!el) return;
+    const ro = new ResizeObserver(([entry]) => setBoxWidth(Math.floor(entry.contentRect.width / 20) * 20));
+    ro.observe(el);
+    return () => ro.disconnect();
+  }, []);
+  const width = Math.max(240, boxWidth - 80);
   const spec = useMemo<VisualizationSpec>(() => {
     const several = new Set(points.map((p) => p.instrument)).size > 1;
     const label = (t: number) => `${new Date(t).toISOString().slice(0, 16).replace("T", " ")} UTC`;
@@ -32,7 +43,7 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
       config: { axis: AXIS, legend: { labelColor: "#5f6873", titleColor: "#5f6873", orient: "top" }, view: { stroke: null } },
       vconcat: [
         {
-          width: "container",
+          width,
           height: 240,
           title: { text: "Relative humidity", anchor: "start", color: "#5f6873", fontSize: 12 },
           layer: [
@@ -50,7 +61,7 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
           ],
         },
         {
-          width: "container",
+          width,
           height: 150,
           title: { text: "Temperature and dew point", anchor: "start", color: "#5f6873", fontSize: 12 },
           data: { values: temps },
@@ -64,6 +75,6 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
         },
       ],
     } as VisualizationSpec;
-  }, [points, band, corrected]);
-  return <VegaEmbed spec={spec} options={EMBED_OPTIONS} className="w-full" />;
+  }, [points, band, corrected, width]);
+  return <div ref={box} className="w-full min-w-0">{boxWidth > 0 && <VegaEmbed spec={spec} options={EMBED_OPTIONS} />}</div>;
 }

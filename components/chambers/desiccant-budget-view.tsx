@@ -1,11 +1,11 @@
 // The water budget of a desiccant jar (lib/humidity/desiccant) with every assumption spelled out.
-// No hooks: the form shows it live, the chamber page with the projected exhaustion date.
+// No hooks: the form shows it live, the chamber page beside the projected exhaustion dates.
 import type { DesiccantBudget } from "@/lib/humidity/desiccant";
-import { formatDate, formatNumber } from "@/lib/format";
+import { formatNumber } from "@/lib/format";
 
-export function DesiccantBudgetView({ budget, missing, exhaustionAt, chargedAt }: { budget: DesiccantBudget | null; missing: string[]; exhaustionAt?: Date | null; chargedAt?: Date | null }) {
+export function DesiccantBudgetView({ budget, missing }: { budget: DesiccantBudget | null; missing: string[] }) {
   if (!budget) {
-    return <p className="text-sm muted">Enter the {missing.join(", ")} to estimate how long the charge lasts.</p>;
+    return <p className="text-sm muted">Enter the {missing.join(", ")} to estimate how long a charge lasts.</p>;
   }
   const days = budget.daysUntilSpent;
   return (
@@ -14,15 +14,6 @@ export function DesiccantBudgetView({ budget, missing, exhaustionAt, chargedAt }
         <dt className="muted">Water coming in</dt><dd>{formatNumber(budget.waterInGPerDay * 1000, 1, "mg/day")}</dd>
         <dt className="muted">Usable capacity</dt><dd>{budget.capacityG == null ? "unknown" : formatNumber(budget.capacityG, 1, "g")}</dd>
         <dt className="muted">Expected life</dt><dd>{days == null ? "no projection" : days > 3650 ? "over 10 years" : `${formatNumber(days, 0)} days`}</dd>
-        {chargedAt !== undefined && (
-          <>
-            <dt className="muted">Last charge / regeneration</dt><dd>{chargedAt ? formatDate(chargedAt) : "none logged — log the charge to get a date"}</dd>
-            <dt className="muted">Projected exhaustion</dt>
-            <dd className={exhaustionAt && exhaustionAt.getTime() < Date.now() ? "text-rust-600 font-medium" : "font-medium"}>
-              {exhaustionAt ? `${formatDate(exhaustionAt)}${exhaustionAt.getTime() < Date.now() ? " (passed — regenerate or check)" : ""}` : "—"}
-            </dd>
-          </>
-        )}
       </dl>
       <details>
         <summary className="cursor-pointer">Assumptions behind this estimate</summary>

@@ -6,11 +6,11 @@
 import { and, asc, eq, gt, inArray, isNull, lt, sql } from "drizzle-orm";
 import { formatDate } from "@/lib/format";
 import { appUrl, sendMail } from "@/lib/mail/send";
+import { REMIND_DAYS_BEFORE } from "@/lib/validation/chambers";
 import { db } from "../client";
 import { desiccantStatus } from "../queries/chambers";
 import { chambers, desiccantEvents, desiccantReminders, memberships, users } from "../schema";
 
-export const REMIND_DAYS_BEFORE = 3;
 export const MAX_SEND_ATTEMPTS = 25;
 const DAY_MS = 86_400_000;
 
@@ -75,7 +75,7 @@ export async function sendDesiccantReminder(job: DesiccantReminderJob): Promise<
     subject: past ? `Desiccant may be spent: ${info.chamberName}` : `Desiccant due for regeneration by ${when}: ${info.chamberName}`,
     text:
       `Hello ${info.name},\n\nThe desiccant in "${info.chamberName}" is projected to be spent ${past ? "since" : "on"} ${when}, ` +
-      `counted from its last charge or regeneration with the water budget on the chamber page.\n\n` +
+      `counted from its last charge or regeneration (the water budget, or the weighed uptake where that is sooner).\n\n` +
       `The projection rests on the jar volume, room RH and air exchange entered for the chamber; check the jar's RH readings ` +
       `and regenerate or replace the desiccant, then log it so the next projection starts from there.\n\n` +
       `Open the chamber: ${appUrl(`/chambers/${claim.chamberId}`)}\n\n` +

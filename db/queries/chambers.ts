@@ -2,7 +2,7 @@ import "server-only";
 import crypto from "node:crypto";
 import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
-import { desiccantBudget, projectedExhaustionDate, type DesiccantBudget } from "@/lib/humidity/desiccant";
+import { desiccantBudget, desiccantCapacityGPerG, DESICCANTS, projectedExhaustionDate, type DesiccantBudget, type DesiccantKind } from "@/lib/humidity/desiccant";
 import { hygrometerOffset } from "@/lib/climate/hygrometer-check";
 import type { SaltId } from "@/lib/humidity/salts";
 import type { ChamberInput, DesiccantEventKind } from "@/lib/validation/chambers";
@@ -16,8 +16,8 @@ export type DesiccantEvent = typeof desiccantEvents.$inferSelect;
 export const CHAMBER_SORTS = ["name", "kind", "setpoint", "temperature", "lastReading", "created"] as const;
 export type ChamberSort = (typeof CHAMBER_SORTS)[number];
 
-const lastReadingAt = sql<Date | null>`(select max(r.taken_at) from ${readings} r where r.chamber_id = ${chambers.id})`.mapWith((v) => (v ? new Date(v) : null));
-const lastRh = sql<number | null>`(select r.rh_percent from ${readings} r where r.chamber_id = ${chambers.id} order by r.taken_at desc limit 1)`.mapWith((v) => (v == null ? null : Number(v)));
+const lastReadingAt = sql<Date | null>`(select max(r.taken_at) from ${readings} r where r.chamber_id = "chambers"."id")`.mapWith((v) => (v ? new Date(v) : null));
+const lastRh = sql<number | null>`(select r.rh_percent from ${readings} r where r.chamber_id = "chambers"."id" order by r.taken_at desc limit 1)`.mapWith((v) => (v == null ? null : Number(v)));
 
 /** One page of a lab's chambers, sorted and filtered on the server. */
 export async function listChambers({ labId, q, kind, archived = false, sort = "name", dir = "asc", page = 1, pageSize = 20 }: {
@@ -94,42 +94,66 @@ export async function addDesiccantEvent({ labId, userId, chamberId, kind, at, ma
 /** Events that start a fresh charge; "checked" only records a weighing or a look. */
 export const RESET_EVENTS = new Set(["charged", "regenerated", "replaced"]);
 
+export type MeasuredUptake = { gainG: number; days: number; gPerDay: number; checkedAt: Date; exhaustionAt: Date | null };
 export type DesiccantStatus = {
   budget: DesiccantBudget | null;
   /** Why no budget could be computed (missing volume, room RH…). */
   missing: string[];
   lastCharge: DesiccantEvent | null;
+  /** From the water budget, counted from the last charge. */
+  budgetExhaustionAt: Date | null;
+  /** From weighing: mass gained since the charge, extrapolated at the same rate to the capacity. */
+  measured: MeasuredUptake | null;
+  /** The earlier of the two projections: what reminders go by. */
   exhaustionAt: Date | null;
 };
 
-/** Water budget (lib/humidity/desiccant) and exhaustion date counted from the last charge or regeneration. */
+/**
+ * Water budget (lib/humidity/desiccant) and exhaustion date counted from the last charge or
+ * regeneration. When the charge was weighed at charging and again later ("checked"), the measured
+ * uptake gives a second projection; the earlier date wins, since leaks and damp specimens usually
+ * make a real jar load faster than the budget's assumptions.
+ */
 export function desiccantStatus(chamber: Chamber, events: readonly DesiccantEvent[]): DesiccantStatus {
-  const lastCharge = [...events].filter((e) => RESET_EVENTS.has(e.kind)).sort((a, b) => b.at.getTime() - a.at.getTime())[0] ?? null;
-  const missing: string[] = [];
-  if (!chamber.desiccantKind) missing.push("desiccant kind");
+  const byTime = [...events].sort((a, b) => b.at.getTime() - a.at.getTime());
+  const lastCharge = byTime.find((e) => RESET_EVENTS.has(e.kind)) ?? null;
   const massG = lastCharge?.massG ?? chamber.desiccantMassG;
+  const kind = chamber.desiccantKind && chamber.desiccantKind in DESICCANTS ? (chamber.desiccantKind as DesiccantKind) : null;
+  const missing: string[] = [];
+  if (!kind) missing.push("desiccant kind");
   if (massG == null) missing.push("desiccant mass");
   if (chamber.volumeL == null) missing.push("jar volume");
   if (chamber.roomRhPercent == null) missing.push("room RH");
   if (chamber.airExchangePerDay == null) missing.push("air exchanges per day");
-  if (missing.length) return { budget: null, missing, lastCharge, exhaustionAt: null };
-  let budget: DesiccantBudget;
-  try {
-    budget = desiccantBudget({
-      kind: chamber.desiccantKind as Parameters<typeof desiccantBudget>[0]["kind"],
-      massG: massG!,
-      jarVolumeL: chamber.volumeL!,
-      tempC: chamber.nominalTempC,
-      insideRhPercent: chamber.setpointRhPercent,
-      outsideRhPercent: chamber.roomRhPercent!,
-      airExchangePerDay: chamber.airExchangePerDay!,
-    });
-  } catch (err) {
-    return { budget: null, missing: [(err as Error).message], lastCharge, exhaustionAt: null };
+  let budget: DesiccantBudget | null = null;
+  if (!missing.length) {
+    try {
+      budget = desiccantBudget({ kind: kind!, massG: massG!, jarVolumeL: chamber.volumeL!, tempC: chamber.nominalTempC, insideRhPercent: chamber.setpointRhPercent, outsideRhPercent: chamber.roomRhPercent!, airExchangePerDay: chamber.airExchangePerDay! });
+    } catch (err) {
+      missing.push((err as Error).message);
+    }
   }
-  const exhaustionAt = lastCharge ? projectedExhaustionDate(lastCharge.at, budget) : null;
-  return { budget, missing, lastCharge, exhaustionAt };
+  const budgetExhaustionAt = budget && lastCharge ? projectedExhaustionDate(lastCharge.at, budget) : null;
+
+  let measured: MeasuredUptake | null = null;
+  const weighed = lastCharge?.massG != null ? byTime.find((e) => e.kind === "checked" && e.massG != null && e.at > lastCharge.at) : undefined;
+  if (lastCharge && weighed && kind) {
+    const gainG = weighed.massG! - lastCharge.massG!;
+    const days = (weighed.at.getTime() - lastCharge.at.getTime()) / DAY_MS;
+    const perG = desiccantCapacityGPerG(kind, Math.min(100, Math.max(0, chamber.setpointRhPercent)));
+    if (gainG > 0 && days > 0) {
+      const capacityG = perG == null ? null : perG * lastCharge.massG!;
+      const gPerDay = gainG / days;
+      const exhaustionAt = capacityG == null ? null : new Date(lastCharge.at.getTime() + (capacityG / gPerDay) * DAY_MS);
+      measured = { gainG, days, gPerDay, checkedAt: weighed.at, exhaustionAt };
+    }
+  }
+  const dates = [budgetExhaustionAt, measured?.exhaustionAt ?? null].filter((d): d is Date => d !== null);
+  const exhaustionAt = dates.length ? new Date(Math.min(...dates.map((d) => d.getTime()))) : null;
+  return { budget, missing, lastCharge, budgetExhaustionAt, measured, exhaustionAt };
 }
+
+const DAY_MS = 86_400_000;
 
 /** Latest inspection of a trial that has this chamber in an arm: the jar was opened then. */
 export async function lastInspectionOpening({ labId, chamberId }: { labId: string; chamberId: string }): Promise<Date | null> {

@@ -24,6 +24,8 @@ export type DesiccantEventKind = (typeof DESICCANT_EVENT_KINDS)[number];
 export const WATER_DEFAULT_SETPOINT = 96;
 export const WATER_DEFAULT_TOLERANCE = 4;
 export const DEFAULT_TOLERANCE = 2;
+/** Desiccant reminders go out this many days before the projected exhaustion. */
+export const REMIND_DAYS_BEFORE = 3;
 
 /** Form text → number or undefined; accepts a decimal comma. Non-numbers stay strings so zod says so. */
 function toNumber(v: unknown): unknown {
@@ -34,13 +36,11 @@ function toNumber(v: unknown): unknown {
   return Number.isFinite(n) ? n : v;
 }
 
-function num(label: string, unit: string, min: number, max: number) {
-  return z.preprocess(
-    toNumber,
-    z.number(`Enter ${label} as a number.`).min(min, `${capital(label)} must be at least ${min}${unit}.`).max(max, `${capital(label)} must be at most ${max}${unit}.`),
-  );
-}
-const optionalNum = (label: string, unit: string, min: number, max: number) => num(label, unit, min, max).optional();
+const numberIn = (label: string, unit: string, min: number, max: number) =>
+  z.number(`Enter ${label} as a number.`).min(min, `${capital(label)} must be at least ${min}${unit}.`).max(max, `${capital(label)} must be at most ${max}${unit}.`);
+const num = (label: string, unit: string, min: number, max: number) => z.preprocess(toNumber, numberIn(label, unit, min, max));
+// Optional inside the preprocess: an empty form field becomes undefined there and must pass.
+const optionalNum = (label: string, unit: string, min: number, max: number) => z.preprocess(toNumber, numberIn(label, unit, min, max).optional());
 const optionalText = (max: number) => z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.string().trim().max(max).optional());
 
 function capital(s: string) {
