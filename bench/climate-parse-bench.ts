@@ -1,5 +1,5 @@
 // Rough timing of the logger CSV importer on a 100,000-row file (one reading a minute for ~70 days).
-// Run: npx tsx bench/humidity-csv-import.ts
+// Run: npm run bench -- climate (or npx tsx bench/climate-parse-bench.ts)
 
 import { bandStats, downsample } from "@/lib/climate/band-stats";
 import { importCsv } from "@/lib/climate/csv-import";
