@@ -4,6 +4,7 @@ import type { ComparisonResult } from "@/lib/analysis/compare";
 import { fmtPercent, fmtStat, formatPValue } from "./format";
 
 export function FinalSection({ c }: { c: ComparisonResult }) {
+  const t = c.finalStateTest;
   return (
     <section className="panel p-4 space-y-3 break-inside-avoid-page" aria-labelledby="final-h">
       <h2 id="final-h" className="font-semibold">Final state</h2>
@@ -31,8 +32,9 @@ export function FinalSection({ c }: { c: ComparisonResult }) {
       </div>
       <ul className="text-sm space-y-1 list-disc pl-5">
         <li>
-          Fisher&apos;s exact test, rusted vs not rusted by {c.groupByLabel.toLowerCase()}:{" "}
-          {c.fisher ? formatPValue(c.fisher.pValue) : c.groups.filter((g) => g.n > 0).length < 2 ? "needs two groups" : "too many tables to enumerate for this grouping"}.
+          {!t ? <>Rusted vs not rusted by {c.groupByLabel.toLowerCase()}: a test needs two groups with scores.</>
+            : t.method === "fisher" ? <>Fisher&apos;s exact test, rusted vs not rusted by {c.groupByLabel.toLowerCase()}: {formatPValue(t.pValue)}.</>
+            : <>Pearson&apos;s χ², rusted vs not rusted by {c.groupByLabel.toLowerCase()} (too many tables for Fisher&apos;s exact test): χ² = {fmtStat(t.chiSquare)} on {t.df} df, {formatPValue(t.pValue)}.</>}
         </li>
         <li>
           Kruskal–Wallis test of the final rusted area:{" "}

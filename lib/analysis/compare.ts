@@ -2,6 +2,7 @@
 // the plain-language summary. Pure: the caller loads outcomes (db/queries/analysis.ts).
 import { cohensKappa } from "@/lib/stats/agreement";
 import { areaOverTime, quantileType7, summarizeComparison, type AreaPoint } from "@/lib/stats/outcomes";
+import { chiSquareUpperTail } from "@/lib/stats/distributions";
 import { logRank, rightEndpointKm, type IntervalObservation } from "@/lib/stats/survival";
 import { fisherExact, kruskalWallis, pairwiseLogRank, type KruskalWallisResult, type PairwiseLogRank } from "@/lib/stats/tests";
 import { kmSummary, numbersAtRisk, turnbullSummary, type KmSummary, type TurnbullSummary } from "./curves";
@@ -41,7 +42,8 @@ export interface ComparisonResult {
   atRisk: { times: number[]; counts: number[][] };
   logRank: { chiSquare: number; df: number; pValue: number } | null;
   pairwise: (PairwiseLogRank & { events: number })[];
-  fisher: { pValue: number } | null;
+  /** Rusted vs not rusted by group: Fisher's exact test, or Pearson's χ² when the table is too large to enumerate. */
+  finalStateTest: FinalStateTest | null;
   kruskal: KruskalWallisResult | null;
   agreement: AgreementResult | null;
   totals: { placements: number; scored: number; rusted: number; inspectionDays: number[] };
@@ -74,6 +76,40 @@ export function scorerAgreement(pairs: readonly GradePair[]): AgreementResult | 
     kappa: finite(cohensKappa(a, b, { categories: 11 })),
     kappaQuadratic: finite(cohensKappa(a, b, { categories: 11, weights: "quadratic" })),
   };
+}
+
+export type FinalStateTest =
+  | { method: "fisher"; pValue: number }
+  | { method: "chi-square"; pValue: number; chiSquare: number; df: number };
+
+// Every table of a bench-top trial enumerates well within this (~20 ms); a large trial split into
+// many arms would not, and there Pearson's χ² approximation is sound anyway (large counts).
+const FISHER_PAGE_BUDGET = 250_000;
+
+/** Pearson's χ² test of independence for an r × c table of counts (empty rows/columns dropped). */
+export function pearsonChiSquare(table: readonly (readonly number[])[]): { chiSquare: number; df: number; pValue: number } {
+  const rows = table.filter((r) => r.some((x) => x > 0));
+  const colSums = rows[0]?.map((_, j) => rows.reduce((sum, r) => sum + r[j], 0)) ?? [];
+  const cols = colSums.map((c, j) => (c > 0 ? j : -1)).filter((j) => j >= 0);
+  const n = colSums.reduce((a, b) => a + b, 0);
+  let chiSquare = 0;
+  for (const r of rows) {
+    const rowSum = r.reduce((a, b) => a + b, 0);
+    for (const j of cols) {
+      const expected = (rowSum * colSums[j]) / n;
+      chiSquare += (r[j] - expected) ** 2 / expected;
+    }
+  }
+  const df = Math.max(0, (rows.length - 1) * (cols.length - 1));
+  return { chiSquare, df, pValue: df > 0 ? chiSquareUpperTail(chiSquare, df) : 1 };
+}
+
+function testFinalState(table: number[][]): FinalStateTest {
+  try {
+    return { method: "fisher", pValue: fisherExact(table, { maxTables: FISHER_PAGE_BUDGET }).pValue };
+  } catch {
+    return { method: "chi-square", ...pearsonChiSquare(table) };
+  }
 }
 
 // A numbers-at-risk table wider than this stops fitting under the chart on a page.
@@ -149,14 +185,7 @@ export function compareGroups(
     ? pairwiseLogRank(right, tested.map((g) => g.result.label)).map((p, i) => ({ ...p, events: pairEvents(tested, i) }))
     : [];
 
-  let fisher: { pValue: number } | null = null;
-  if (tested.length >= 2) {
-    try {
-      fisher = fisherExact(tested.map((g) => [g.result.final.rusted, g.result.final.notRusted]));
-    } catch {
-      fisher = null; // too many tables to enumerate; the notes say so
-    }
-  }
+  const finalStateTest = tested.length >= 2 ? testFinalState(tested.map((g) => [g.result.final.rusted, g.result.final.notRusted])) : null;
   const withAreas = tested.filter((g) => g.finalAreas.length > 0);
   const kruskal = withAreas.length >= 2 ? kruskalWallis(withAreas.map((g) => g.finalAreas)) : null;
 
@@ -187,7 +216,7 @@ export function compareGroups(
     atRisk: { times: [], counts: [] },
     logRank: lr && lr.df > 0 ? { chiSquare: lr.chiSquare, df: lr.df, pValue: lr.pValue } : null,
     pairwise,
-    fisher,
+    finalStateTest,
     kruskal,
     agreement: options.agreement ?? null,
     totals: {

@@ -24,9 +24,10 @@ export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: numb
   if (tested.length >= 2) {
     out.push(
       `By each specimen's last scored inspection ${r.totals.rusted} of ${r.totals.scored} had rusted. ` +
-        (r.fisher
-          ? `Fisher's exact test of rusted versus not rusted across the groups: ${formatPValue(r.fisher.pValue)}.`
-          : "Fisher's exact test has too many tables to enumerate for this grouping; use a coarser grouping."),
+        (r.finalStateTest?.method === "chi-square"
+          ? `Rusted versus not rusted across the groups, Pearson's χ² (the table is too large for Fisher's exact test): ` +
+            `χ² = ${r.finalStateTest.chiSquare.toFixed(2)} on ${r.finalStateTest.df} df, ${formatPValue(r.finalStateTest.pValue)}.`
+          : `Fisher's exact test of rusted versus not rusted across the groups: ${formatPValue(r.finalStateTest!.pValue)}.`),
     );
   }
   if (r.kruskal) {
