@@ -1,7 +1,7 @@
 // Photo jobs: previews (thumbnail 320 px, display 1600 px) made from the original by the queue, and
 // the hourly sweep of uploads that were never finalised. No "server-only" marker: the worker and
 // the seed (plain tsx) import this too.
-import { and, eq, inArray, like, lt } from "drizzle-orm";
+import { and, eq, gt, inArray, like, lt } from "drizzle-orm";
 import type PgBoss from "pg-boss";
 import sharp from "sharp";
 import { PHOTO_TYPES, isPhotoContentType, readPhotoConfig } from "@/lib/photos/config";
@@ -101,7 +101,12 @@ export type SweepResult = { scanned: number; deleted: string[]; kept: number; re
  * orphan age (default 1 h): uploads that were approved but never finalised, or refused. A folder
  * belongs to a row when the row's original key is in it (previews sit in its derived/ subfolder).
  */
-export async function sweepOrphanPhotos({ now = new Date(), olderThanMs = readPhotoConfig().orphanAgeMs, prefix = "labs/" } = {}): Promise<SweepResult> {
+export async function sweepOrphanPhotos({
+  now = new Date(),
+  olderThanMs = readPhotoConfig().orphanAgeMs,
+  prefix = "labs/",
+  enqueue = enqueuePhotoProcess,
+}: { now?: Date; olderThanMs?: number; prefix?: string; enqueue?: (job: PhotoProcessJob) => Promise<void> } = {}): Promise<SweepResult> {
   const keys = (await listKeys(prefix)).filter((k) => PHOTO_FOLDER.test(k));
   const folders = new Map<string, string[]>();
   for (const k of keys) {
@@ -128,15 +133,17 @@ export async function sweepOrphanPhotos({ now = new Date(), olderThanMs = readPh
     }
   }
   if (doomed.length) await deleteKeys(doomed);
-  const requeued = await requeueStalePhotos(now);
+  const labOnly = prefix.match(/^labs\/([0-9a-f-]{36})\//)?.[1];
+  const requeued = await requeueStalePhotos(now, enqueue, labOnly);
   return { scanned: keys.length, deleted: doomed, kept: keys.length - doomed.length, requeued };
 }
 
-/** Photos still pending ten minutes after upload (queue down, worker restarted) get another job. */
-async function requeueStalePhotos(now: Date): Promise<number> {
+/** Photos still pending ten minutes after upload (queue down, worker restarted) get another job, for a week. */
+async function requeueStalePhotos(now: Date, enqueue: (job: PhotoProcessJob) => Promise<void>, labId?: string): Promise<number> {
   const stale = await db.select({ photoId: photos.id, labId: photos.labId }).from(photos)
-    .where(and(eq(photos.status, "pending"), lt(photos.createdAt, new Date(now.getTime() - 10 * 60_000)))).limit(500);
-  for (const s of stale) await enqueuePhotoProcess(s);
+    .where(and(eq(photos.status, "pending"), lt(photos.createdAt, new Date(now.getTime() - 10 * 60_000)), gt(photos.createdAt, new Date(now.getTime() - 7 * 86_400_000)), labId ? eq(photos.labId, labId) : undefined))
+    .limit(500);
+  for (const s of stale) await enqueue(s);
   return stale.length;
 }
 
