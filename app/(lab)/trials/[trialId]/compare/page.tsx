@@ -1,4 +1,3 @@
-import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { getTrialAnalysis } from "@/db/queries/analysis";
 import { pageQuery } from "@/lib/analysis/params";
@@ -29,7 +28,6 @@ export default async function ComparePage({ params, searchParams }: Props) {
   return (
     <div className="space-y-5">
       <div className="space-y-1">
-        <p className="text-sm"><Link className="link" href="/analysis">Analysis</Link> · <Link className="link" href={`/trials/${trial.id}`}>{trial.title}</Link></p>
         <h1 className="text-2xl font-semibold">Compare outcomes</h1>
         <p className="text-sm muted">
           {trial.question} {analysis.startAt ? `Day 0 is ${formatDateTime(analysis.startAt)}.` : ""} {analysis.doneInspections} inspections done,
