@@ -11,6 +11,8 @@ import { useBrowserZone } from "./form-controls";
 type Phase = { kind: "idle" } | { kind: "uploading"; pct: number } | { kind: "parsing" } | { kind: "storing"; done: number; total: number }
   | { kind: "done"; stored: number; dupFile: number; dupExisting: number } | { kind: "failed"; errors: CsvImportError[]; total: number };
 
+const MAX_FILE_BYTES = 9.5 * 1024 * 1024; // as the import route
+
 const idx = (header: string[] | null, ref: unknown): string => (typeof ref === "string" && header ? String(Math.max(-1, header.indexOf(ref))) : typeof ref === "number" ? String(ref) : "-1");
 
 export function CsvImport({ chamberId, instruments }: { chamberId: string; instruments: string[] }) {
@@ -30,6 +32,12 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
     setCheck(null);
     setPhase({ kind: "idle" });
     if (!f) return setText("");
+    if (f.size > MAX_FILE_BYTES) {
+      setText("");
+      setM(null);
+      setPhase({ kind: "failed", errors: [{ line: 0, message: `The file is ${(f.size / 1048576).toFixed(1)} MB; files up to 9.5 MB can be imported at once. Split it (keeping the header in each part) and import the parts.` }], total: 1 });
+      return;
+    }
     const t = await f.text();
     setText(t);
     const p = previewCsv(t, 12);

@@ -9,7 +9,9 @@ import { labRoute } from "@/lib/auth/route";
 import { csvImportOptionsSchema } from "@/lib/validation/chambers";
 import { z } from "zod";
 
-const MAX_FILE_BYTES = 50 * 1024 * 1024;
+// The readiness proxy (proxy.ts) makes Next buffer request bodies up to 10 MB and cut the rest,
+// so files are kept below that (a 100,000-row logger file is typically 3–6 MB).
+const MAX_IMPORT_FILE_BYTES = 9.5 * 1024 * 1024;
 
 export const POST = labRoute<{ chamberId: string }>("readings.write", async (ctx, req, { chamberId }) => {
   await getChamber({ labId: ctx.labId, chamberId });
@@ -21,7 +23,7 @@ export const POST = labRoute<{ chamberId: string }>("readings.write", async (ctx
   }
   const file = form.get("file");
   if (!(file instanceof File)) throw new AppError("invalid", "Choose a CSV file to import.");
-  if (file.size > MAX_FILE_BYTES) throw new AppError("too-large", "The file is larger than 50 MB; split it and import the parts.");
+  if (file.size > MAX_IMPORT_FILE_BYTES) throw new AppError("too-large", "The file is larger than 9.5 MB; split it and import the parts.");
   let rawOptions: unknown;
   try {
     rawOptions = JSON.parse(String(form.get("options") ?? "{}"));
