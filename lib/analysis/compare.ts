@@ -123,15 +123,11 @@ function riskTimes(days: readonly number[]): number[] {
   return [...new Set(Array.from({ length: MAX_RISK_COLUMNS }, (_, i) => all[Math.round(i * step)]))];
 }
 
-/** Events in the two groups of the i-th pair, pairs enumerated as pairwiseLogRank does (a < b). */
-function pairEvents(groups: readonly { result: GroupResult }[], index: number): number {
-  let i = 0;
-  for (let a = 0; a < groups.length; a++) {
-    for (let b = a + 1; b < groups.length; b++) {
-      if (i++ === index) return groups[a].result.events + groups[b].result.events;
-    }
-  }
-  return 0;
+/** Index pairs (a < b) in the order pairwiseLogRank enumerates them. */
+function pairOrder(k: number): [number, number][] {
+  const out: [number, number][] = [];
+  for (let a = 0; a < k; a++) for (let b = a + 1; b < k; b++) out.push([a, b]);
+  return out;
 }
 
 // The summary names every pair only while that stays readable; the full list is in the table.
@@ -181,8 +177,10 @@ export function compareGroups(
   const right = tested.map((g) => rightEndpointKm(g.intervals));
   const totalEvents = groups.reduce((s, g) => s + g.events, 0);
   const lr = tested.length >= 2 && totalEvents > 0 ? logRank(right) : null;
+  const order = pairOrder(tested.length);
   const pairwise = tested.length >= 2
-    ? pairwiseLogRank(right, tested.map((g) => g.result.label)).map((p, i) => ({ ...p, events: pairEvents(tested, i) }))
+    ? pairwiseLogRank(right, tested.map((g) => g.result.label))
+      .map((p, i) => ({ ...p, events: tested[order[i][0]].result.events + tested[order[i][1]].result.events }))
     : [];
 
   const finalStateTest = tested.length >= 2 ? testFinalState(tested.map((g) => [g.result.final.rusted, g.result.final.notRusted])) : null;
