@@ -305,3 +305,8 @@ export async function blindTrialIds({ labId, userId }: { labId: string; userId: 
     .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
   return new Set(rows.map((r) => r.trialId));
 }
+
+export async function hasAllocation({ labId, trialId }: { labId: string; trialId: string }) {
+  const [row] = await db.select({ id: trialAllocations.id }).from(trialAllocations).where(and(eq(trialAllocations.labId, labId), eq(trialAllocations.trialId, trialId))).limit(1);
+  return !!row;
+}

@@ -1,0 +1,17 @@
+import { redirect } from "next/navigation";
+import { getLabContext } from "@/lib/auth/context";
+import { DueList } from "@/components/due/due-list";
+
+export const metadata = { title: "Due inspections" };
+
+export default async function DuePage() {
+  const ctx = await getLabContext();
+  if (!ctx) redirect("/sign-in");
+  return (
+    <div className="space-y-4">
+      <h1 className="text-2xl font-semibold">Due inspections</h1>
+      <p className="text-sm muted max-w-3xl">Inspections across the running trials of {ctx.labName}: overdue first, then today and the coming week. Open one to record it, upload its photos and score them.</p>
+      <DueList />
+    </div>
+  );
+}

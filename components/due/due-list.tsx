@@ -1,0 +1,100 @@
+"use client";
+// The lab-wide due list, fetched from /api/inspections so it stays current: refreshed every 60 s and
+// whenever the tab comes back into view. Grouped: overdue, today, the rest of the coming week.
+import { useCallback, useEffect, useState } from "react";
+import Link from "next/link";
+import { formatDateTime } from "@/lib/format";
+import { STATUS_RULE_TEXT } from "@/lib/schedule";
+
+type Item = { id: string; trialId: string; trialTitle: string; dayNumber: number; plannedAt: string; status: "due" | "overdue" | "upcoming" | "done"; rescheduleReason: string | null };
+type Answer = { items: Item[]; total: number; now: string; graceHours: number };
+const REFRESH_MS = 60_000;
+const WEEK_MS = 7 * 86_400_000;
+
+function startOfTomorrowUtc(now: Date) {
+  return Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + 1);
+}
+
+function Group({ id, title, items, empty }: { id: string; title: string; items: Item[]; empty: string }) {
+  return (
+    <section className="panel p-4 space-y-2" aria-labelledby={id}>
+      <h2 id={id} className="font-semibold">{title} <span className="muted font-normal">({items.length})</span></h2>
+      {items.length === 0 ? <p className="text-sm muted">{empty}</p> : (
+        <ul className="divide-y divide-[var(--line)]">
+          {items.map((i) => (
+            <li key={i.id} className="py-2 flex flex-wrap items-baseline justify-between gap-2">
+              <span>
+                <Link className="link" href={`/trials/${i.trialId}/inspections/${i.id}`}>{i.trialTitle} · day {i.dayNumber}</Link>
+                {i.rescheduleReason && <span className="text-xs muted"> (rescheduled)</span>}
+              </span>
+              <span className={`text-sm whitespace-nowrap ${i.status === "overdue" ? "text-rust-700 font-medium" : "muted"}`}>{i.status === "overdue" ? "overdue since " : ""}{formatDateTime(i.plannedAt)}</span>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+
+export function DueList() {
+  const [data, setData] = useState<Answer | null>(null);
+  const [error, setError] = useState<string | null>(null);
+  const [loading, setLoading] = useState(false);
+
+  const load = useCallback(async () => {
+    setLoading(true);
+    try {
+      const before = new Date(Date.now() + WEEK_MS).toISOString();
+      const res = await fetch(`/api/inspections?status=open&pageSize=500&before=${encodeURIComponent(before)}`, { cache: "no-store" });
+      if (!res.ok) {
+        const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
+        throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
+      }
+      setData((await res.json()) as Answer);
+      setError(null);
+    } catch (e) {
+      setError(`Could not refresh the list: ${e instanceof Error ? e.message : "network error"}. Showing the last copy; retrying in a minute.`);
+    } finally {
+      setLoading(false);
+    }
+  }, []);
+
+  useEffect(() => {
+    void load();
+    const timer = setInterval(() => void load(), REFRESH_MS);
+    const onVisible = () => document.visibilityState === "visible" && void load();
+    document.addEventListener("visibilitychange", onVisible);
+    return () => {
+      clearInterval(timer);
+      document.removeEventListener("visibilitychange", onVisible);
+    };
+  }, [load]);
+
+  const now = data ? new Date(data.now) : new Date();
+  const tomorrow = startOfTomorrowUtc(now);
+  const items = data?.items ?? [];
+  const overdue = items.filter((i) => i.status === "overdue");
+  const today = items.filter((i) => i.status !== "overdue" && Date.parse(i.plannedAt) < tomorrow);
+  const week = items.filter((i) => i.status !== "overdue" && Date.parse(i.plannedAt) >= tomorrow);
+
+  return (
+    <div className="space-y-4">
+      <div className="flex flex-wrap items-center gap-3 text-sm">
+        <span role="status" aria-live="polite" className="muted">
+          {loading && !data ? "Loading…" : data ? `Updated ${formatDateTime(data.now)}; refreshes every minute.` : ""}
+        </span>
+        <button type="button" className="btn-quiet" onClick={() => void load()} disabled={loading}>Refresh now</button>
+      </div>
+      {error && <p role="alert" className="text-sm rounded-md px-3 py-2 bg-rust-50 text-rust-800">{error}</p>}
+      {data && (
+        <>
+          <Group id="overdue-h" title="Overdue" items={overdue} empty="Nothing overdue." />
+          <Group id="today-h" title="Today (UTC)" items={today} empty="Nothing else planned for today." />
+          <Group id="week-h" title="The next seven days" items={week} empty="Nothing planned in the coming week. Running trials list their full schedule on their Schedule tab." />
+          {data.total > items.length && <p className="text-sm muted">Showing the first {items.length} of {data.total}.</p>}
+          <p className="text-xs muted max-w-3xl">{STATUS_RULE_TEXT} Grace period: {data.graceHours} h. Only running trials are listed.</p>
+        </>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,40 @@
+"use client";
+// The trial's sub-navigation. Photos grid, Scoring, Agreement, Compare and Report are their own pages.
+import Link from "next/link";
+import { usePathname } from "next/navigation";
+
+const TABS = [
+  { seg: "", label: "Overview" },
+  { seg: "allocation", label: "Allocation" },
+  { seg: "schedule", label: "Schedule" },
+  { seg: "grid", label: "Photos grid" },
+  { seg: "scoring", label: "Scoring" },
+  { seg: "agreement", label: "Agreement" },
+  { seg: "compare", label: "Compare" },
+  { seg: "report", label: "Report" },
+];
+
+export function TrialTabs({ trialId }: { trialId: string }) {
+  const path = usePathname();
+  const base = `/trials/${trialId}`;
+  return (
+    <nav aria-label="Trial sections" className="no-print border-b border-[var(--line)]">
+      <ul className="flex flex-wrap gap-1">
+        {TABS.map((t) => {
+          const href = t.seg ? `${base}/${t.seg}` : base;
+          // Inspection pages belong to the schedule; the edit page to the overview.
+          const active = t.seg === "schedule" ? path.startsWith(href) || path.startsWith(`${base}/inspections`)
+            : t.seg ? path.startsWith(href) : path === base || path.startsWith(`${base}/edit`);
+          return (
+            <li key={t.seg}>
+              <Link href={href} aria-current={active ? "page" : undefined}
+                className={`block px-3 py-2 text-sm border-b-2 -mb-px ${active ? "border-verdigris-600 font-medium" : "border-transparent hover:border-iron-300"}`}>
+                {t.label}
+              </Link>
+            </li>
+          );
+        })}
+      </ul>
+    </nav>
+  );
+}
