@@ -162,14 +162,23 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
     }
   };
 
+  // Arrow keys pan when the canvas has focus (Shift for bigger steps), so the photo can be explored without a pointer.
+  const onKeyDown = (e: React.KeyboardEvent<SVGSVGElement>) => {
+    const step = (e.shiftKey ? 0.25 : 0.05) * view.w;
+    const d = { ArrowLeft: [-step, 0], ArrowRight: [step, 0], ArrowUp: [0, -step], ArrowDown: [0, step] }[e.key];
+    if (!d) return;
+    e.preventDefault();
+    setView((v) => panBy(v, d[0], d[1], W, H));
+  };
+
   const u = svgRef.current ? unit() : 1;
   const cursor = readOnly || tool === "pan" ? "grab" : tool === "brush" || tool === "erase" ? "none" : "crosshair";
   return (
-    <svg ref={svgRef} role="application" aria-roledescription="annotation canvas" aria-label={label} tabIndex={0}
+    <svg ref={svgRef} role="application" aria-roledescription="annotation canvas" aria-label={`${label}. Arrow keys pan; plus and minus zoom.`} tabIndex={0}
       viewBox={`${view.x} ${view.y} ${view.w} ${view.h}`} preserveAspectRatio="xMidYMid meet"
       className="w-full h-full touch-none select-none bg-iron-950 rounded-md" style={{ cursor }}
       onPointerDown={onPointerDown} onPointerMove={onPointerMove} onPointerUp={onPointerUp} onPointerCancel={onPointerUp}
-      onPointerLeave={() => setHover(null)} data-testid="annotation-canvas">
+      onPointerLeave={() => setHover(null)} onKeyDown={onKeyDown} data-testid="annotation-canvas">
       {src ? <image href={src} x={0} y={0} width={W} height={H} preserveAspectRatio="none" /> : <rect width={W} height={H} fill="#282d33" />}
       {maskUrl && <image href={maskUrl} x={0} y={0} width={W} height={H} preserveAspectRatio="none" opacity={0.7} style={{ imageRendering: "pixelated" }} />}
       <FaceLayer face={annotation.face} W={W} H={H} />

@@ -55,9 +55,11 @@ export function ScoreForm(p: Props) {
   const [notes, setNotes] = useState(p.initial?.notes ?? "");
   const [noChange, setNoChange] = useState(p.initial?.noChange ?? false);
 
-  const spotValue = spotText ?? String(markCount);
-  const areaValue =
-    p.areaSource === "marks" ? (p.marksArea == null ? "0" : String(round3(p.marksArea)))
+  // Read-only (an observer, or a concluded trial): the saved values as they are.
+  const frozen = p.readOnly && p.initial ? p.initial : null;
+  const spotValue = frozen ? String(frozen.spotCount) : spotText ?? String(markCount);
+  const areaValue = frozen ? String(frozen.areaPercent)
+    : p.areaSource === "marks" ? (p.marksArea == null ? "0" : String(round3(p.marksArea)))
       : p.areaSource === "estimate" ? String(p.autoEstimate ?? 0)
         : areaText;
   const area = Number(areaValue);
@@ -109,7 +111,7 @@ export function ScoreForm(p: Props) {
             value={spotValue} onChange={(e) => setSpotText(e.target.value)} aria-invalid={!!state?.errors?.spotCount || undefined}
             aria-describedby={[describe("spotCount"), "sf-spotCount-hint"].filter(Boolean).join(" ")} />
           <p id="sf-spotCount-hint" className="text-xs muted">
-            {markCount} spot mark{markCount === 1 ? "" : "s"}
+            {frozen ? "as saved" : `${markCount} spot mark${markCount === 1 ? "" : "s"}`}
             {spotText != null && Number(spotText) !== markCount && !ro && (
               <> · count typed in · <button type="button" className="link underline" onClick={() => setSpotText(null)}>use the marks</button></>
             )}
@@ -123,7 +125,7 @@ export function ScoreForm(p: Props) {
             aria-invalid={!!state?.errors?.areaPercent || !areaOk || undefined}
             aria-describedby={[describe("areaPercent"), "sf-areaPercent-hint"].filter(Boolean).join(" ")} />
           <p id="sf-areaPercent-hint" className="text-xs muted">
-            {sourceText[p.areaSource]}
+            {frozen ? "as saved" : sourceText[p.areaSource]}
             {p.areaSource !== "marks" && p.face && !ro && (
               <> · <button type="button" className="link underline" onClick={() => p.setAreaSource("marks")}>use the marks</button></>
             )}

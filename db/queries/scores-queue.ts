@@ -1,7 +1,7 @@
 import "server-only";
 // A scorer's queue of photos for one trial. Blind scorers get photo ids only, in an order seeded per
 // scorer: no specimen label, treatment, chamber, inspection day or anyone's earlier scores.
-import { and, asc, eq, isNotNull } from "drizzle-orm";
+import { and, asc, desc, eq, isNotNull } from "drizzle-orm";
 import { hashSeed } from "@/lib/allocation/prng";
 import { AppError } from "@/lib/auth/errors";
 import { db } from "../client";
@@ -33,7 +33,7 @@ async function queuePhotos(labId: string, trialId: string, userId: string) {
     .from(photos)
     .innerJoin(inspections, eq(inspections.id, photos.inspectionId))
     .where(and(eq(photos.labId, labId), eq(inspections.trialId, trialId), eq(photos.status, "ready"), isNotNull(photos.inspectionId)))
-    .orderBy(asc(photos.inspectionId), asc(photos.specimenId), asc(photos.createdAt));
+    .orderBy(asc(photos.inspectionId), asc(photos.specimenId), desc(photos.createdAt));
   const mine = await db.select({ inspectionId: scores.inspectionId, specimenId: scores.specimenId, areaPercent: scores.areaPercent })
     .from(scores).where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.scorerId, userId)));
   const mineBy = new Map(mine.map((s) => [`${s.inspectionId}|${s.specimenId}`, s]));
@@ -108,17 +108,20 @@ export type BlindPhotoView = {
 /** One photo for blind scoring: the image and the caller's own work on it, nothing else. */
 export async function getBlindPhoto({ labId, userId, trialId, photoId }: { labId: string; userId: string; trialId: string; photoId: string }): Promise<BlindPhotoView> {
   await getTrialForLab({ labId, trialId });
+  // Any ready photo of this trial may be opened (an older one of the same specimen and day too);
+  // photos of other trials or labs answer 404.
+  const [found] = await db.select({ photo: photos }).from(photos)
+    .innerJoin(inspections, eq(inspections.id, photos.inspectionId))
+    .where(and(eq(photos.id, photoId), eq(photos.labId, labId), eq(inspections.trialId, trialId), eq(photos.status, "ready")));
+  if (!found) throw new AppError("not-found", "That photo is not in this trial's scoring queue.");
+  const p = found.photo;
   const rows = await queuePhotos(labId, trialId, userId);
   const ordered = blindOrder(rows.map((r) => ({ photoId: r.photo.id, row: r })), trialId, userId);
-  const index = ordered.findIndex((r) => r.photoId === photoId);
-  // Photos of other trials or labs, and superseded photos, are not in this queue: 404 for all.
-  if (index < 0) throw new AppError("not-found", "That photo is not in this trial's scoring queue.");
-  const { row } = ordered[index];
-  const after = [...ordered.slice(index + 1), ...ordered.slice(0, index)];
-  const next = after.find((r) => !r.row.mine) ?? null;
+  const index = ordered.findIndex((r) => r.row.photo.inspectionId === p.inspectionId && r.row.photo.specimenId === p.specimenId);
+  const after = index < 0 ? ordered : [...ordered.slice(index + 1), ...ordered.slice(0, index)];
+  const next = after.find((r) => !r.row.mine && r.photoId !== p.id) ?? null;
   const [myScore] = await db.select().from(scores)
-    .where(and(eq(scores.labId, labId), eq(scores.inspectionId, row.photo.inspectionId!), eq(scores.specimenId, row.photo.specimenId), eq(scores.scorerId, userId)));
-  const p = row.photo;
+    .where(and(eq(scores.labId, labId), eq(scores.inspectionId, p.inspectionId!), eq(scores.specimenId, p.specimenId), eq(scores.scorerId, userId)));
   return {
     photo: { id: p.id, url: await photoUrl(p), width: p.width, height: p.height, filename: "photo", capturedAt: null },
     position: index + 1,

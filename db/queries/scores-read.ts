@@ -84,11 +84,6 @@ export async function getScorePage(input: ScorePageInput) {
   const placement = specimen ? await placementOf(labId, trialId, specimenId) : null;
   if (!specimen || !placement) throw new AppError("not-found", "That specimen is not in this trial.");
 
-  const photoRows = await db.select().from(photos)
-    .where(and(eq(photos.labId, labId), eq(photos.specimenId, specimenId), eq(photos.inspectionId, inspectionId), eq(photos.status, "ready")))
-    .orderBy(desc(photos.createdAt));
-  const chosen = photoRows.find((p) => p.id === input.photoId) ?? photoRows[0] ?? null;
-
   const pairScores = await db
     .select({ score: scores, scorerName: users.name })
     .from(scores)
@@ -98,9 +93,18 @@ export async function getScorePage(input: ScorePageInput) {
   const mine = pairScores.find((r) => r.score.scorerId === userId)?.score ?? null;
   const record = pairScores.find((r) => r.score.isRecord) ?? null;
 
-  const [assignment, myMarks, previous, firstRust, photoList] = await Promise.all([
+  const photoRows = await db.select().from(photos)
+    .where(and(eq(photos.labId, labId), eq(photos.specimenId, specimenId), eq(photos.inspectionId, inspectionId), eq(photos.status, "ready")))
+    .orderBy(desc(photos.createdAt));
+  // The photo asked for, else the one the caller scored on, else the one the record was scored on, else the newest.
+  const chosen = [input.photoId, mine?.photoId, record?.score.photoId].map((id) => photoRows.find((p) => p.id === id)).find(Boolean) ?? photoRows[0] ?? null;
+  // Read-only viewers see the marks behind the score of record when it was made on this photo.
+  const recordScorer = record?.score.scorerId && record.score.photoId === chosen?.id ? record.score.scorerId : null;
+
+  const [assignment, myMarks, recordMarks, previous, firstRust, photoList] = await Promise.all([
     scorerAssignment(db, { labId, trialId, userId }),
     chosen ? marksOnPhoto({ labId, photoId: chosen.id, scorerId: userId }) : Promise.resolve({ face: null, marks: [] as Mark[] }),
+    chosen && recordScorer ? marksOnPhoto({ labId, photoId: chosen.id, scorerId: recordScorer }) : Promise.resolve({ face: null, marks: [] as Mark[] }),
     previousOwnScore({ labId, trialId, specimenId, userId, before: inspection.plannedAt }),
     firstRustForSpecimen(db, { labId, trialId, specimenId }),
     Promise.all(photoRows.map(async (p) => ({ id: p.id, filename: p.filename, thumbUrl: await photoUrl(p, "thumb") }))),
@@ -109,7 +113,7 @@ export async function getScorePage(input: ScorePageInput) {
     trial, inspection, specimen, placement, assignment,
     photo: chosen ? await photoForScoring(chosen) : null,
     photos: photoList,
-    mine, myMarks, record, pairScores, previous, firstRust,
+    mine, myMarks, recordMarks, record, pairScores, previous, firstRust,
   };
 }
 

@@ -22,7 +22,7 @@ beforeAll(async () => {
   const [membership] = await db.select().from(s.memberships).where(eq(s.memberships.userId, tech.id));
   const [trial] = await db.select().from(s.trials).where(and(eq(s.trials.labId, membership.labId), eq(s.trials.status, "running"))).orderBy(asc(s.trials.createdAt)).limit(1);
   const [inspection] = await db.select().from(s.inspections).where(and(eq(s.inspections.trialId, trial.id), isNotNull(s.inspections.doneAt))).orderBy(desc(s.inspections.plannedAt)).limit(1);
-  const [placement] = await db.select().from(s.placements).where(eq(s.placements.trialId, trial.id)).limit(1);
+  const [placement] = await db.select().from(s.placements).where(eq(s.placements.trialId, trial.id)).orderBy(asc(s.placements.createdAt), asc(s.placements.id)).limit(1);
   target = { trialId: trial.id, inspectionId: inspection.id, specimenId: placement.specimenId, technicianId: tech.id };
   photo = await createReadyPhoto({ labId: trial.labId, trialId: trial.id, inspectionId: inspection.id, specimenId: placement.specimenId, uploadedBy: tech.id, width: 1200, height: 900, spots: 5 });
 });
@@ -82,9 +82,13 @@ describe("scoring a photo", () => {
     await page.getByText("2 spot marks · face outlined").waitFor();
     // π(r1² + 20²) / (600 × 500), within the drag's pixel rounding.
     const expected = (100 * Math.PI * (r1 * r1 + 400)) / 300_000;
-    const live = await page.getByTestId("live-area").innerText();
-    const livePercent = Number(/([\d.]+) %/.exec(live)![1]);
-    expect(Math.abs(livePercent - expected)).toBeLessThan(0.1);
+    // The area is re-measured in a deferred render, so it may trail the mark count for a moment.
+    const readLive = async () => Number(/([\d.]+) %/.exec(await page.getByTestId("live-area").innerText())![1]);
+    await expect.poll(async () => Math.abs((await readLive()) - expected), { timeout: 10_000 }).toBeLessThan(0.1);
+    const livePercent = await readLive();
+    // A count saved earlier (the demo seed's score by eye) stays until the scorer takes the marks' count.
+    const useMarks = page.locator("#sf-spotCount-hint").getByRole("button", { name: "use the marks" });
+    if (await useMarks.count()) await useMarks.click();
     await expect(page.getByLabel("Rust spots").inputValue()).resolves.toBe("2");
 
     await page.getByRole("button", { name: "Run the colour estimate" }).click();

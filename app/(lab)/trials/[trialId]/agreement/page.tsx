@@ -42,7 +42,6 @@ export default async function AgreementPage({ params }: { params: Promise<{ tria
 
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> › <span>Agreement</span></nav>
       <h1 className="text-2xl font-semibold">Agreement between scorers</h1>
       <p className="text-sm muted max-w-3xl">
         For each pair of scorers, on the specimen × inspection items both scored: Cohen&apos;s kappa on ASTM D610 grades

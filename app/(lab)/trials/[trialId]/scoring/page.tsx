@@ -36,7 +36,6 @@ export default async function ScoringQueuePage({ params, searchParams }: { param
 
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> › <span>Scoring</span></nav>
       <h1 className="text-2xl font-semibold">Scoring queue</h1>
       {queue?.blind && (
         <p className="panel p-3 text-sm" role="note">

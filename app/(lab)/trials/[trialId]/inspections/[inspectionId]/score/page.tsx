@@ -26,7 +26,6 @@ export default async function InspectionScoringPage({ params }: { params: Promis
   return (
     <div className="space-y-4">
       <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
-        <Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> ›
         <Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}`}>Inspection day {inspection.dayNumber}</Link> › <span>Scoring</span>
       </nav>
       <h1 className="text-2xl font-semibold">Scoring at day {inspection.dayNumber}</h1>

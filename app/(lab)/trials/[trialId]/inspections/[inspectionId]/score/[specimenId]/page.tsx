@@ -38,7 +38,6 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   return (
     <div className="space-y-4">
       <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
-        <Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> ›
         <Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}`}>Inspection day {inspection.dayNumber}</Link> ›
         <Link className="link" href={base}>Scoring</Link> › <span>{specimen.label}</span>
       </nav>
@@ -78,8 +77,8 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
         action={saveScoreAction}
         hidden={{ trialId, inspectionId, specimenId }}
         photo={data.photo}
-        initialFace={canScore ? data.myMarks.face : null}
-        initialMarks={canScore ? data.myMarks.marks : []}
+        initialFace={canScore ? data.myMarks.face : data.recordMarks.face}
+        initialMarks={canScore ? data.myMarks.marks : data.recordMarks.marks}
         initialScore={shown}
         previous={canScore && previous ? { ...previous.score, dayNumber: previous.dayNumber } : null}
         ghost={canScore ? previous?.ghost ?? null : null}
