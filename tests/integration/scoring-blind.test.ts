@@ -133,5 +133,25 @@ describe("blind payload over HTTP (the running app, demo lab)", () => {
     expect(saved.score).toMatchObject({ blind: true, astmGrade: 10, isoDegree: 0 });
     expect(Object.keys(saved.score)).not.toContain("specimenId");
     expect(JSON.stringify(saved)).not.toContain(sp.id);
+
+    // Marks: the caller's own on a photo of their lab; another lab's photo answers 404.
+    const own = await client.fetch(`/api/marks?photoId=${photo.photoId}`);
+    expect(own.status).toBe(200);
+    expect(await own.json()).toMatchObject({ photoId: photo.photoId, face: null, marks: [] });
+    expect((await client.fetch(`/api/marks?photoId=${made[0].photoId}`)).status).toBe(404);
+  });
+
+  it("an observer's POST /api/scores is refused with 403 and writes nothing", async () => {
+    const [demoTrial] = await db.select().from(s.trials).where(eq(s.trials.title, "Storage humidity × surface treatment, 2026 slices")).limit(1);
+    const [inspection] = await db.select().from(s.inspections).where(eq(s.inspections.trialId, demoTrial.id)).limit(1);
+    const [placement] = await db.select().from(s.placements).where(eq(s.placements.trialId, demoTrial.id)).limit(1);
+    const client = await signedInClient("observer@tarrow.example", DEMO_PASSWORD);
+    const res = await client.fetch("/api/scores", {
+      method: "POST", headers: { "content-type": "application/json" },
+      body: JSON.stringify({ trialId: demoTrial.id, inspectionId: inspection.id, specimenId: placement.specimenId, spotCount: 1, areaPercent: 5, astmLetter: "G", silicateChange: "none" }),
+    });
+    expect(res.status).toBe(403);
+    const [observer] = await db.select().from(s.users).where(eq(s.users.email, "observer@tarrow.example"));
+    expect(await db.select().from(s.scores).where(eq(s.scores.scorerId, observer.id))).toEqual([]);
   });
 });
