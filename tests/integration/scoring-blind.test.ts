@@ -9,6 +9,7 @@ import { assignScorer } from "@/db/queries/scores-agreement";
 import { getBlindPhoto, listScoringQueue } from "@/db/queries/scores-queue";
 import { saveScoreSchema } from "@/lib/validation/scores";
 import { DEMO_PASSWORD } from "@/experiments/demo-lab";
+import { assignScorerAction } from "@/app/(lab)/trials/[trialId]/scoring/actions";
 import { createTestLab, type TestLab } from "../support/db";
 import { signedInClient } from "../support/http";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
@@ -95,6 +96,22 @@ describe("blind scorer's queue", () => {
     const after = await listScoringQueue({ labId: lab.labId, userId: lab.users.researcher.id, trialId: t.trialId, page: 1, show: "todo" });
     expect(after.todo).toBe(q.todo - 1);
     expect(after.items.map((i) => i.photoId)).not.toContain(photoId);
+  });
+});
+
+describe("assigning scorers", () => {
+  it("is for leads only, refuses observers as scorers, and sets the blind flag", async () => {
+    const input = { trialId: t.trialId, userId: lab.users.technician.id, blind: "on" };
+    const refused = await assignScorerAction.withIdentity(lab.as("researcher"), input);
+    expect(refused.ok).toBe(false);
+    const observer = await assignScorerAction.withIdentity(lab.as("lead"), { ...input, userId: lab.users.observer.id });
+    expect(observer.errors?.userId?.[0]).toMatch(/Observers cannot score/);
+    const ok = await assignScorerAction.withIdentity(lab.as("lead"), input);
+    expect(ok.ok).toBe(true);
+    const [row] = await db.select().from(s.trialMembers).where(and(eq(s.trialMembers.trialId, t.trialId), eq(s.trialMembers.userId, lab.users.technician.id), eq(s.trialMembers.role, "scorer")));
+    expect(row.blind).toBe(true);
+    // Back to open for the other tests in this file.
+    expect((await assignScorerAction.withIdentity(lab.as("lead"), { ...input, blind: "" })).ok).toBe(true);
   });
 });
 
