@@ -111,6 +111,34 @@ describe("inspection photos", () => {
     await context.close();
   }, 180_000);
 
+  it("cancels an upload in flight without recording anything, then retries it", async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signIn(page, "technician@tarrow.example");
+    await page.goto(`${APP_URL}/trials/${trialId}/inspections/${inspection.id}/photos`);
+    await page.getByLabel("Choose photos").waitFor();
+    // A noisy 1000 × 750 JPEG (~0.5 MB) over a throttled uplink stays in flight long enough to cancel.
+    const noisy = await sharp({ create: { width: 1000, height: 750, channels: 3, noise: { type: "gaussian", mean: 128, sigma: 60 } } })
+      .jpeg({ quality: 95 }).withExif({ IFD2: { DateTimeOriginal: exifLocal(inspection.doneAt!), OffsetTimeOriginal: "+01:00" } }).toBuffer();
+    const name = `${labels[0]}_cancel_e2e-${tag}.jpg`;
+    const cdp = await context.newCDPSession(page);
+    await cdp.send("Network.enable");
+    await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: 40 * 1024 });
+    await page.getByLabel("Choose photos").setInputFiles([{ name, mimeType: "image/jpeg", buffer: noisy }]);
+    await page.getByRole("button", { name: "Upload 1 photo" }).click();
+    const row = page.locator(`li[data-filename="${name}"]`);
+    await expect.poll(() => row.getAttribute("data-upload-state"), { timeout: 20_000 }).toBe("uploading");
+    await page.getByRole("button", { name: `Cancel upload of ${name}` }).click();
+    await expect.poll(() => row.getAttribute("data-upload-state")).toBe("cancelled");
+    const recorded = async () => (await db.select({ id: s.photos.id }).from(s.photos).where(eq(s.photos.filename, name))).length;
+    expect(await recorded()).toBe(0);
+    await cdp.send("Network.emulateNetworkConditions", { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+    await page.getByRole("button", { name: `Retry upload of ${name}` }).click();
+    await expect.poll(() => row.getAttribute("data-upload-state"), { timeout: 30_000 }).toBe("done");
+    expect(await recorded()).toBe(1);
+    await context.close();
+  }, 90_000);
+
   it("steps through the dates of a specimen with the arrow keys and switches to the slider overlay", async () => {
     const context = await browser.newContext();
     const page = await context.newPage();
