@@ -8,7 +8,7 @@ export function ProtocolChecklist({ steps }: { steps: string[] }) {
   return (
     <fieldset className="space-y-2">
       <legend className="font-semibold">Photo protocol</legend>
-      <p className="text-xs muted">From the trial design. Tick as you go; the ticks help you, they are not recorded.</p>
+      <p className="text-xs muted">From the trial design. Taking every photo of a series the same way is common practice, so that a change on the photo is a change on the specimen, not in the light. Tick as you go; the ticks are not recorded.</p>
       <ul className="space-y-1">
         {steps.map((s, i) => (
           <li key={i}>

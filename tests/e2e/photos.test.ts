@@ -9,6 +9,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { deleteKeys } from "@/storage/presign";
+import { anonymous, signedInClient } from "../support/http";
 import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
 
 let browser: Browser;
@@ -174,4 +175,46 @@ describe("inspection photos", () => {
     expect(await axeViolations(page)).toEqual([]);
     await context.close();
   }, 90_000);
+
+  it("the photo API applies the same checks over HTTP: sign-in, role, origin, type, size, idempotent finalize, signed redirects", async () => {
+    const tech = await signedInClient("technician@tarrow.example", "rustline-demo-1");
+    const observer = await signedInClient("observer@tarrow.example", "rustline-demo-1");
+    const json = (body: unknown, extra: Record<string, string> = {}) => ({ method: "POST", headers: { "content-type": "application/json", ...extra }, body: JSON.stringify(body) });
+    const bytes = await photo(inspection.doneAt!, { r: 90, g: 90, b: 90 });
+    const body = { inspectionId: inspection.id, specimenId: specimenIds[labels[0]], filename: `${labels[0]}_api_e2e-${tag}.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength };
+
+    expect((await anonymous.fetch("/api/photos/presign", json(body))).status).toBe(401);
+    expect((await observer.fetch("/api/photos/presign", json(body))).status).toBe(403);
+    expect((await tech.fetch("/api/photos/presign", json(body, { origin: "http://evil.example" }))).status).toBe(403);
+    const gif = await tech.fetch("/api/photos/presign", json({ ...body, contentType: "image/gif" }));
+    expect(gif.status).toBe(422);
+    expect((await gif.json()).error.fields.contentType[0]).toMatch(/not accepted/);
+    expect((await tech.fetch("/api/photos/presign", json({ ...body, sizeBytes: 41 * 1024 * 1024 }))).status).toBe(413);
+
+    const pre = await tech.fetch("/api/photos/presign", json(body));
+    expect(pre.status).toBe(200);
+    const { upload, token } = (await pre.json()) as { upload: { url: string; headers: Record<string, string> }; token: string };
+    expect((await fetch(upload.url, { method: "PUT", headers: upload.headers, body: new Uint8Array(bytes) })).status).toBe(200);
+    const first = await tech.fetch("/api/photos/finalize", json({ token }));
+    expect(first.status).toBe(201);
+    const { photo: made } = (await first.json()) as { photo: { id: string } };
+    const again = await tech.fetch("/api/photos/finalize", json({ token }));
+    expect(again.status).toBe(200);
+    expect((await again.json()).alreadyFinalized).toBe(true);
+
+    const redirect = await tech.fetch(`/api/photos/${made.id}/file?variant=original`);
+    expect(redirect.status).toBe(302);
+    expect(redirect.headers.get("location")).toMatch(/X-Amz-Signature=/);
+    expect((await observer.fetch(`/api/photos/${made.id}/file?variant=original`)).status).toBe(403);
+    expect((await anonymous.fetch(`/api/photos/${made.id}/file?variant=thumb`)).status).toBe(401);
+    expect((await tech.fetch("/api/photos/00000000-0000-4000-8000-000000000000/file?variant=thumb")).status).toBe(404);
+
+    // A demo photo carries an (invented) location: the observer's record of it has none.
+    const [demo] = await db.select({ id: s.photos.id }).from(s.photos).where(like(s.photos.filename, `${labels[0]}_day%`)).limit(1);
+    const seen = (await (await observer.fetch(`/api/photos/${demo.id}`)).json()) as { photo: { gps: unknown; gpsHidden: boolean } };
+    expect(seen.photo.gps).toBeNull();
+    expect(seen.photo.gpsHidden).toBe(true);
+    const seenByTech = (await (await tech.fetch(`/api/photos/${demo.id}`)).json()) as { photo: { gps: { lat: number } | null } };
+    expect(seenByTech.photo.gps?.lat).toBe(54);
+  }, 60_000);
 });

@@ -137,6 +137,20 @@ describe("presigned upload round trip", () => {
     expect(results[0].warnings[0]).toMatch(/2 days before the inspection's done time \(tolerance 12 h\)/);
     expect(results[1].warnings.some((w) => /same file was uploaded before/.test(w))).toBe(true);
   });
+  it("keeps a HEIC photo and its record, but marks that no preview can be made on this server", async () => {
+    // ISO-BMFF "ftyp" box with the HEIC brand (ISO/IEC 23008-12), then filler: enough for the checks.
+    const heic = new Uint8Array(Buffer.concat([Buffer.from([0, 0, 0, 0x18]), Buffer.from("ftypheic"), Buffer.from([0, 0, 0, 0]), Buffer.from("mif1heic"), Buffer.alloc(2000, 7)]));
+    const pre = await presign(heic, { contentType: "image/heic", filename: `${fx.labels[1]}.heic` });
+    expect(pre.key.endsWith(".heic")).toBe(true);
+    expect((await browserPut(pre, heic)).status).toBe(200);
+    const r = await finalizePhotoUpload({ caller: await fx.ctx("technician"), token: pre.token, enqueue });
+    expect(r.check.status).toBe("no-time");
+    expect(await processPhoto(queued[0])).toBe("failed");
+    const [row] = await db.select().from(s.photos).where(eq(s.photos.id, r.photo.id));
+    expect(row.status).toBe("failed");
+    expect(row.processingNote).toMatch(/cannot decode HEIC/);
+    expect(await headObject(row.objectKey)).not.toBeNull(); // the original is kept
+  });
 });
 
 describe("refused uploads record nothing", () => {
