@@ -119,7 +119,7 @@ describe("inspection photos", () => {
     await page.goto(`${APP_URL}/trials/${trialId}/inspections/${inspection.id}/photos`);
     await page.getByLabel("Choose photos").waitFor();
     // A noisy 1000 × 750 JPEG (~0.5 MB) over a throttled uplink stays in flight long enough to cancel.
-    const noisy = await sharp({ create: { width: 1000, height: 750, channels: 3, noise: { type: "gaussian", mean: 128, sigma: 60 } } })
+    const noisy = await sharp({ create: { width: 1000, height: 750, channels: 3, background: { r: 128, g: 128, b: 128 }, noise: { type: "gaussian", mean: 128, sigma: 60 } } })
       .jpeg({ quality: 95 }).withExif({ IFD2: { DateTimeOriginal: exifLocal(inspection.doneAt!), OffsetTimeOriginal: "+01:00" } }).toBuffer();
     const name = `${labels[0]}_cancel_e2e-${tag}.jpg`;
     const cdp = await context.newCDPSession(page);
