@@ -3,7 +3,8 @@ import { useEffect, useState } from "react";
 // Controlled variants of the shared form fields (components/ui/form.tsx) for forms whose fields
 // depend on each other. Same markup: label, error tied by aria-describedby, hint below.
 
-type Common = { name: string; label: string; error?: string[]; hint?: React.ReactNode; warning?: string | null };
+// `id` matters where several forms on one page share field names (instrument, notes…).
+type Common = { name: string; label: string; id?: string; error?: string[]; hint?: React.ReactNode; warning?: string | null };
 
 function describedBy(id: string, error?: string[], hint?: React.ReactNode, warning?: string | null) {
   return [error?.length ? `${id}-err` : null, warning ? `${id}-warn` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
@@ -19,10 +20,10 @@ function Messages({ id, error, hint, warning }: { id: string; error?: string[]; 
   );
 }
 
-export function ControlledInput({ name, label, error, hint, warning, value, onChange, inputMode, type = "text", ...rest }: Common & {
+export function ControlledInput({ name, label, id: idIn, error, hint, warning, value, onChange, inputMode, type = "text", ...rest }: Common & {
   value: string; onChange: (v: string) => void; inputMode?: "decimal" | "text"; type?: string; placeholder?: string; autoComplete?: string;
 }) {
-  const id = `f-${name}`;
+  const id = idIn ?? `f-${name}`;
   return (
     <div className="space-y-1">
       <label htmlFor={id} className="block text-sm font-medium">{label}</label>
@@ -33,10 +34,10 @@ export function ControlledInput({ name, label, error, hint, warning, value, onCh
   );
 }
 
-export function ControlledSelect({ name, label, error, hint, value, onChange, options }: Common & {
+export function ControlledSelect({ name, label, id: idIn, error, hint, value, onChange, options }: Common & {
   value: string; onChange: (v: string) => void; options: { value: string; label: string }[];
 }) {
-  const id = `f-${name}`;
+  const id = idIn ?? `f-${name}`;
   return (
     <div className="space-y-1">
       <label htmlFor={id} className="block text-sm font-medium">{label}</label>
@@ -63,13 +64,13 @@ export function useBrowserZone(): string {
 }
 
 /** A datetime-local field that starts at "now" in the browser's zone once mounted. */
-export function WhenField({ name, label, error, defaultValue }: { name: string; label: string; error?: string[]; defaultValue?: string }) {
+export function WhenField({ name, label, id, error, defaultValue }: { name: string; label: string; id?: string; error?: string[]; defaultValue?: string }) {
   const [value, setValue] = useState(defaultValue ?? "");
   useEffect(() => {
     if (!defaultValue) setValue(nowLocal());
   }, [defaultValue]);
   const zone = useBrowserZone();
-  return <ControlledInput name={name} label={label} type="datetime-local" value={value} onChange={setValue} error={error} hint={`Your local time (${zone}).`} />;
+  return <ControlledInput name={name} id={id} label={label} type="datetime-local" value={value} onChange={setValue} error={error} hint={`Your local time (${zone}).`} />;
 }
 
 /** datetime-local value for "now" in the browser's zone. */
@@ -77,4 +78,21 @@ export function nowLocal(): string {
   const d = new Date();
   d.setMinutes(d.getMinutes() - d.getTimezoneOffset());
   return d.toISOString().slice(0, 16);
+}
+
+/** An uncontrolled field like components/ui/form's Field, with its own id; re-seeded with the echoed value after an error. */
+export function TextField({ name, label, id, error, hint, value, multiline = false, inputMode }: {
+  name: string; label: string; id: string; error?: string[]; hint?: React.ReactNode; value?: string; multiline?: boolean; inputMode?: "decimal" | "text";
+}) {
+  const props = {
+    id, name, defaultValue: value, className: "field",
+    "aria-invalid": error?.length ? true : undefined, "aria-describedby": describedBy(id, error, hint),
+  };
+  return (
+    <div className="space-y-1">
+      <label htmlFor={id} className="block text-sm font-medium">{label}</label>
+      {multiline ? <textarea key={value} rows={2} {...props} /> : <input key={value} type="text" inputMode={inputMode} {...props} />}
+      <Messages id={id} error={error} hint={hint} />
+    </div>
+  );
 }

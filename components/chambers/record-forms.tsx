@@ -2,11 +2,11 @@
 // Small forms on the chamber page: a typed reading, a desiccant log entry, a hygrometer check.
 import { useActionState, useState } from "react";
 import { addDesiccantEventAction, addHygrometerCheckAction, addReadingAction, setCheckAppliedAction } from "@/app/(lab)/chambers/[chamberId]/actions";
-import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
+import { FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 import { SALT_IDS, SALTS, isSaltId } from "@/lib/humidity/salts";
 import { hygrometerOffset } from "@/lib/climate/hygrometer-check";
 import { saltAt } from "@/lib/validation/chambers";
-import { ControlledInput, ControlledSelect, TimeZoneInput, WhenField } from "./form-controls";
+import { ControlledInput, ControlledSelect, TextField, TimeZoneInput, WhenField } from "./form-controls";
 
 export function ReadingForm({ chamberId, instruments }: { chamberId: string; instruments: string[] }) {
   const [state, action] = useActionState(addReadingAction, undefined);
@@ -14,12 +14,13 @@ export function ReadingForm({ chamberId, instruments }: { chamberId: string; ins
     <form action={action} className="space-y-3" noValidate>
       <input type="hidden" name="chamberId" value={chamberId} />
       <TimeZoneInput />
-      <WhenField name="takenAt" label="Time" error={state?.errors?.takenAt} defaultValue={state?.values?.takenAt} />
+      <WhenField name="takenAt" id="rd-takenAt" label="Time" error={state?.errors?.takenAt} defaultValue={state?.values?.takenAt} />
       <div className="grid gap-3 sm:grid-cols-2">
-        <Field name="rhPercent" label="RH (%RH)" state={state} step="0.1" />
-        <Field name="tempC" label="Temperature (°C, optional)" state={state} step="0.1" />
+        <TextField name="rhPercent" id="rd-rhPercent" label="RH (%RH)" inputMode="decimal" error={state?.errors?.rhPercent} value={state?.values?.rhPercent} />
+        <TextField name="tempC" id="rd-tempC" label="Temperature (°C, optional)" inputMode="decimal" error={state?.errors?.tempC} value={state?.values?.tempC} />
       </div>
-      <Field name="instrument" label="Instrument" state={state} defaultValue="manual" hint={instruments.length ? `Used here: ${instruments.join(", ")}` : "e.g. the hygrometer's name or serial"} />
+      <TextField name="instrument" id="rd-instrument" label="Instrument" error={state?.errors?.instrument} value={state?.values?.instrument ?? "manual"}
+        hint={instruments.length ? `Used here: ${instruments.join(", ")}` : "e.g. the hygrometer's name or serial"} />
       <FormMessage state={state} />
       <SubmitButton>Save reading</SubmitButton>
     </form>
@@ -40,9 +41,10 @@ export function DesiccantEventForm({ chamberId }: { chamberId: string }) {
       <input type="hidden" name="chamberId" value={chamberId} />
       <TimeZoneInput />
       <SelectField name="kind" label="What was done" options={EVENT_OPTIONS} state={state} defaultValue="regenerated" />
-      <WhenField name="at" label="When" error={state?.errors?.at} defaultValue={state?.values?.at} />
-      <Field name="massG" label="Mass (g, optional)" state={state} step="0.1" hint="Weighing the charge shows how much water it has taken up." />
-      <TextArea name="notes" label="Notes" state={state} rows={2} />
+      <WhenField name="at" id="de-at" label="When" error={state?.errors?.at} defaultValue={state?.values?.at} />
+      <TextField name="massG" id="de-massG" label="Mass (g, optional)" inputMode="decimal" error={state?.errors?.massG} value={state?.values?.massG}
+        hint="Weigh the charge when it goes in and again later: the gain shows how fast it is loading." />
+      <TextField name="notes" id="de-notes" label="Notes" multiline error={state?.errors?.notes} value={state?.values?.notes} />
       <FormMessage state={state} />
       <SubmitButton>Log it</SubmitButton>
     </form>
@@ -64,22 +66,23 @@ export function HygrometerCheckForm({ chamberId, instruments, defaultSalt, defau
     <form action={action} className="space-y-3" noValidate>
       <input type="hidden" name="chamberId" value={chamberId} />
       <TimeZoneInput />
-      <Field name="instrument" label="Instrument" state={state} defaultValue={instruments[0] ?? ""} hint="Exactly as it appears on its readings, so the offset finds them." />
-      <ControlledSelect name="saltId" label="Reference salt" value={salt} onChange={setSalt} options={saltOptions} error={state?.errors?.saltId} />
+      <TextField name="instrument" id="hc-instrument" label="Instrument" error={state?.errors?.instrument} value={state?.values?.instrument ?? instruments[0] ?? ""}
+        hint="Exactly as it appears on its readings, so the offset finds them." />
+      <ControlledSelect name="saltId" id="hc-saltId" label="Reference salt" value={salt} onChange={setSalt} options={saltOptions} error={state?.errors?.saltId} />
       <div className="grid gap-3 sm:grid-cols-2">
-        <ControlledInput name="tempC" label="Temperature (°C)" inputMode="decimal" value={temp} onChange={setTemp} error={state?.errors?.tempC} warning={at && !at.ok ? at.message : null} />
-        <ControlledInput name="readingRhPercent" label="Instrument read (%RH)" inputMode="decimal" value={reading} onChange={setReading} error={state?.errors?.readingRhPercent} />
+        <ControlledInput name="tempC" id="hc-tempC" label="Jar temperature (°C)" inputMode="decimal" value={temp} onChange={setTemp} error={state?.errors?.tempC} warning={at && !at.ok ? at.message : null} />
+        <ControlledInput name="readingRhPercent" id="hc-reading" label="Instrument read (%RH)" inputMode="decimal" value={reading} onChange={setReading} error={state?.errors?.readingRhPercent} />
       </div>
       <p className="text-sm" aria-live="polite">
         {at?.ok ? <>Reference: {at.rhPercent.toFixed(2)} ± {at.uncertaintyPercent} %RH (Greenspan 1977).</> : null}
         {preview ? <> Offset: <strong>{preview.offsetPercent >= 0 ? "+" : "−"}{Math.abs(preview.offsetPercent).toFixed(2)} %RH</strong> ({preview.offsetPercent >= 0 ? "reads high" : "reads low"}).</> : null}
       </p>
-      <WhenField name="checkedAt" label="Checked at" error={state?.errors?.checkedAt} defaultValue={state?.values?.checkedAt} />
+      <WhenField name="checkedAt" id="hc-checkedAt" label="Checked at" error={state?.errors?.checkedAt} defaultValue={state?.values?.checkedAt} />
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" name="apply" className="mt-1" />
-        <span>Correct this instrument&apos;s readings from this time on (at display and analysis; the logged values stay as they are).</span>
+        <span>Apply the offset: correct this instrument&apos;s readings from this time on (at display and analysis; the logged values stay as they are).</span>
       </label>
-      <TextArea name="notes" label="Notes" state={state} rows={2} />
+      <TextField name="notes" id="hc-notes" label="Notes" multiline error={state?.errors?.notes} value={state?.values?.notes} />
       <FormMessage state={state} />
       <SubmitButton>Save check</SubmitButton>
     </form>

@@ -8,7 +8,7 @@ import type { SaltId } from "@/lib/humidity/salts";
 import type { ChamberInput, DesiccantEventKind } from "@/lib/validation/chambers";
 import { recordAudit } from "../audit";
 import { db, type DbOrTx } from "../client";
-import { chamberTokens, chambers, desiccantEvents, hygrometerChecks, inspections, readings, trialArms } from "../schema";
+import { chamberTokens, chambers, desiccantEvents, hygrometerChecks, inspections, readingImports, readings, trialArms } from "../schema";
 
 export type Chamber = typeof chambers.$inferSelect;
 export type DesiccantEvent = typeof desiccantEvents.$inferSelect;
@@ -240,8 +240,14 @@ export async function listHygrometerChecks({ labId, instruments }: { labId: stri
   return db.select().from(hygrometerChecks).where(and(eq(hygrometerChecks.labId, labId), inArray(hygrometerChecks.instrument, instruments))).orderBy(desc(hygrometerChecks.checkedAt));
 }
 
-/** Distinct instruments that have logged in this chamber. */
+/**
+ * Instruments known for this chamber: those in its latest 2,000 readings, its imports and the
+ * hygrometer checks recorded from it. (A distinct over every reading would scan a year of minutes.)
+ */
 export async function listChamberInstruments({ labId, chamberId }: { labId: string; chamberId: string }) {
-  const rows = await db.selectDistinct({ instrument: readings.instrument }).from(readings).where(and(eq(readings.labId, labId), eq(readings.chamberId, chamberId)));
-  return rows.map((r) => r.instrument).sort();
+  const res = await db.execute<{ instrument: string }>(sql`
+    select instrument from (select instrument from ${readings} where lab_id = ${labId} and chamber_id = ${chamberId} order by taken_at desc limit 2000) latest
+    union select instrument from ${readingImports} where lab_id = ${labId} and chamber_id = ${chamberId}
+    union select instrument from ${hygrometerChecks} where lab_id = ${labId} and chamber_id = ${chamberId}`);
+  return res.rows.map((r) => r.instrument).sort();
 }

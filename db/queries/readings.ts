@@ -169,11 +169,25 @@ async function loadRows(labId: string, chamberId: string, from: Date | null, to:
   let where = "lab_id = $1 and chamber_id = $2";
   if (from) where += ` and taken_at >= $${values.push(from.toISOString())}`;
   if (to) where += ` and taken_at <= $${values.push(to.toISOString())}`;
-  const res = await getPool().query<[number, number, number | null, number | null, string]>({
-    text: `select extract(epoch from taken_at) * 1000, rh_percent, temp_c, dew_point_c, instrument from readings where ${where} order by taken_at, instrument`,
-    values,
-    rowMode: "array",
-  });
+  // float8 epoch (not numeric) and time order only: readings at the same instant may come in any
+  // order, which band-stats accepts; a larger work_mem keeps a year of minutes from sorting on disk.
+  const client = await getPool().connect();
+  let res;
+  try {
+    await client.query("begin read only");
+    await client.query("set local work_mem = '64MB'");
+    res = await client.query<[number, number, number | null, number | null, string]>({
+      text: `select (extract(epoch from taken_at) * 1000)::float8, rh_percent, temp_c, dew_point_c, instrument from readings where ${where} order by taken_at`,
+      values,
+      rowMode: "array",
+    });
+    await client.query("commit");
+  } catch (err) {
+    await client.query("rollback").catch(() => undefined);
+    throw err;
+  } finally {
+    client.release();
+  }
   return res.rows.map((r) => {
     const rh = Number(r[1]);
     return { takenAt: new Date(Number(r[0])), rhPercent: rh, rhRaw: rh, tempC: r[2], dewLogged: r[3], instrument: r[4] };
@@ -227,7 +241,9 @@ export async function getChamberSeries({ labId, chamber, period, maxPoints = 160
 }) {
   const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
   const rows = await loadRows(labId, chamber.id, from, null);
-  const instruments = [...new Set(rows.map((r) => r.instrument))];
+  const seen = new Set<string>();
+  for (const r of rows) seen.add(r.instrument);
+  const instruments = [...seen];
   const checks = await listHygrometerChecks({ labId, instruments });
   const offsets = applyOffsets(rows, checks);
   const band = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };

@@ -42,10 +42,8 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
     ...(status?.lastCharge ? [{ label: `the last desiccant ${status.lastCharge.kind === "charged" ? "charge" : status.lastCharge.kind === "regenerated" ? "regeneration" : "replacement"}`, at: status.lastCharge.at }] : []),
     ...(opening ? [{ label: "the last inspection opening", at: opening }] : []),
   ];
-  const [series, checks] = await Promise.all([
-    getChamberSeries({ labId: ctx.labId, chamber, period, settleFrom }),
-    listHygrometerChecks({ labId: ctx.labId, instruments }),
-  ]);
+  const series = await getChamberSeries({ labId: ctx.labId, chamber, period, settleFrom });
+  const checks = await listHygrometerChecks({ labId: ctx.labId, instruments: [...new Set([...instruments, ...series.instruments])] });
   const salt = chamber.saltId && isSaltId(chamber.saltId) ? chamber.saltId : null;
   const eq = salt ? saltAt(salt, chamber.nominalTempC) : null;
   const desiccantKind = chamber.desiccantKind && chamber.desiccantKind in DESICCANTS ? (chamber.desiccantKind as DesiccantKind) : null;
@@ -62,7 +60,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
           {can(ctx.role, "chambers.write") && <Link className="btn" href={`/chambers/${chamber.id}/edit`}>Edit</Link>}
         </div>
       </div>
-      <div className="grid gap-6 lg:grid-cols-3">
+      <div className="grid gap-6 lg:grid-cols-3 items-start">
         <section className="panel p-4 space-y-2 lg:col-span-2" aria-labelledby="target-h">
           <h2 id="target-h" className="font-semibold">Target</h2>
           <p className="text-lg" data-testid="chamber-target"><strong>{chamber.setpointRhPercent} ± {chamber.toleranceRhPercent} %RH</strong> at {chamber.nominalTempC} °C</p>
