@@ -64,7 +64,7 @@ export function PhotoCompare({ entries, title }: { entries: CompareEntry[]; titl
             ))}
           </div>
         ) : (
-          <figure className="space-y-1">
+          <figure className="space-y-1 max-w-3xl">
             <div className="relative w-full overflow-hidden rounded bg-iron-900" style={{ aspectRatio: aspect }}>
               {/* eslint-disable-next-line @next/next/no-img-element -- signed storage URLs */}
               <img src={A.src} alt={A.alt} className="absolute inset-0 w-full h-full object-contain" />

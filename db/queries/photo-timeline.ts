@@ -17,11 +17,16 @@ function lite(i: InspectionRow): InspectionLite {
 
 const scoreColumns = {
   inspectionId: scores.inspectionId, specimenId: scores.specimenId, areaPercent: scores.areaPercent,
-  astmGrade: scores.astmGrade, astmLetter: scores.astmLetter, weeping: scores.weeping, spotCount: scores.spotCount,
+  astmGrade: scores.astmGrade, astmLetter: scores.astmLetter, weeping: scores.weeping, spotCount: scores.spotCount, photoId: scores.photoId,
 };
 
-function toScore(s: { areaPercent: number; astmGrade: number | null; astmLetter: string | null; weeping: boolean; spotCount: number }): RecordScore {
-  return { areaPercent: s.areaPercent, astmGrade: s.astmGrade, astmLetter: s.astmLetter, weeping: s.weeping, spotCount: s.spotCount };
+function toScore(s: RecordScore): RecordScore {
+  return { areaPercent: s.areaPercent, astmGrade: s.astmGrade, astmLetter: s.astmLetter, weeping: s.weeping, spotCount: s.spotCount, photoId: s.photoId };
+}
+
+/** The photo to show for a specimen at an inspection: the one scored, else the latest with a preview. */
+export function representativePhoto(photos: PhotoView[], score: RecordScore | null): PhotoView | null {
+  return photos.find((p) => p.id === score?.photoId && p.thumbUrl) ?? [...photos].reverse().find((p) => p.thumbUrl) ?? photos[photos.length - 1] ?? null;
 }
 
 export type TimelineEntry = { inspection: InspectionLite; photos: PhotoView[]; score: RecordScore | null };

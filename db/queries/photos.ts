@@ -157,7 +157,8 @@ export async function photoFileUrl({ ctx, photoId, variant }: { ctx: { labId: st
   return { url: await presignGet({ key, expiresInS: ttl, disposition: "inline" }), expiresInS: ttl };
 }
 
-export type RecordScore = { areaPercent: number; astmGrade: number | null; astmLetter: string | null; weeping: boolean; spotCount: number };
+/** The score of record; photoId is the photo it was made on, when the scorer said so. */
+export type RecordScore = { areaPercent: number; astmGrade: number | null; astmLetter: string | null; weeping: boolean; spotCount: number; photoId: string | null };
 
 export async function latestDoneInspection({ labId, trialId }: { labId: string; trialId: string }) {
   const rows = await db.select().from(inspections)

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
-import { getSpecimenTimeline, type TimelineTrial } from "@/db/queries/photo-timeline";
+import { getSpecimenTimeline, representativePhoto, type TimelineTrial } from "@/db/queries/photo-timeline";
 import { getLabContext } from "@/lib/auth/context";
 import { formatDate, formatDateTime } from "@/lib/format";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -13,8 +13,7 @@ export const metadata = { title: "Specimen photo timeline" };
 
 function compareEntries(t: TimelineTrial, label: string): CompareEntry[] {
   return t.entries.flatMap((e) => {
-    // The photo the score of record was made on is not known here; the latest preview stands in.
-    const p = [...e.photos].reverse().find((x) => x.displayUrl);
+    const p = representativePhoto(e.photos, e.score);
     if (!p?.displayUrl) return [];
     const when = `Day ${e.inspection.dayNumber} · ${formatDate(e.inspection.doneAt ?? e.inspection.plannedAt)}`;
     return [{ key: e.inspection.id, label: when, alt: `${label}, ${when}`, src: p.displayUrl, score: scoreText(e.score, t.blind), aspect: p.width && p.height ? p.width / p.height : 4 / 3 }];

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
-import { getTrialGrid, type GridCell } from "@/db/queries/photo-timeline";
+import { getTrialGrid, representativePhoto, type GridCell } from "@/db/queries/photo-timeline";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { formatDate } from "@/lib/format";
@@ -34,7 +34,6 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
 
   return (
     <div className="space-y-5">
-      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trial.id}`}>{trial.title}</Link> › Photo grid</nav>
       <h1 className="text-2xl font-semibold">Photo grid{inspection ? ` · day ${inspection.dayNumber}` : ""}</h1>
       {!inspection ? <EmptyState text="This trial has no inspections yet. Plan the inspection schedule first." action={{ href: `/trials/${trial.id}`, label: "Open the trial" }} /> : (
         <>
@@ -58,7 +57,7 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
               <h2 id={`g-${group}`} className="font-semibold">{group} <span className="text-sm muted font-normal">({list.length})</span></h2>
               <ul className="grid gap-3 grid-cols-[repeat(auto-fill,minmax(11rem,1fr))]">
                 {list.map((c) => {
-                  const photo = [...c.photos].reverse().find((p) => p.thumbUrl) ?? c.photos[c.photos.length - 1];
+                  const photo = representativePhoto(c.photos, c.score);
                   return (
                     <li key={c.specimen.id} className="panel p-2 space-y-1" data-specimen={c.specimen.label}>
                       <Link href={`/specimens/${c.specimen.id}/timeline`} className="block" aria-label={`${c.specimen.label}: open its timeline`}>
