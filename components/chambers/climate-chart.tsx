@@ -41,6 +41,8 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
       $schema: "https://vega.github.io/schema/vega-lite/v6.json",
       background: "transparent",
       config: { axis: AXIS, legend: { labelColor: "#5f6873", titleColor: "#5f6873", orient: "top" }, view: { stroke: null } },
+      // Instruments (top) and temperature/dew point (bottom) are different colour keys.
+      resolve: { scale: { color: "independent" }, legend: { color: "independent" } },
       vconcat: [
         {
           width,
