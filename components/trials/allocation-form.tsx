@@ -3,7 +3,8 @@
 // same form with a new seed; the server keeps the record of every allocation in the audit trail.
 import { useActionState, useMemo, useState } from "react";
 import { allocateAction } from "@/app/(lab)/trials/actions";
-import { FormMessage, SubmitButton } from "@/components/ui/form";
+import { FormMessage } from "@/components/ui/form";
+import { PendingButton, useFormSubmit } from "./use-form-submit";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, type MaterialClass } from "@/lib/validation/specimens";
 
 export type SpecimenChoice = { id: string; label: string; materialClass: MaterialClass; findName: string; busyIn: string | null };
@@ -18,7 +19,8 @@ function randomSeed() {
 export function AllocationForm({ trialId, specimens, initialSelected, seed, blockByMaterial, needed, allocated }: {
   trialId: string; specimens: SpecimenChoice[]; initialSelected: string[]; seed: string; blockByMaterial: boolean; needed: number; allocated: boolean;
 }) {
-  const [state, action] = useActionState(allocateAction, undefined);
+  const [state, dispatch, pending] = useActionState(allocateAction, undefined);
+  const onSubmit = useFormSubmit(dispatch);
   const [selected, setSelected] = useState<Set<string>>(new Set(initialSelected));
   const [cls, setCls] = useState<"" | MaterialClass>("");
   const [q, setQ] = useState("");
@@ -34,7 +36,7 @@ export function AllocationForm({ trialId, specimens, initialSelected, seed, bloc
   const busyChosen = specimens.filter((s) => selected.has(s.id) && s.busyIn);
 
   return (
-    <form action={action} className="space-y-4" noValidate>
+    <form onSubmit={onSubmit} className="space-y-4" noValidate>
       <input type="hidden" name="trialId" value={trialId} />
       {[...selected].map((id) => <input key={id} type="hidden" name="specimenIds[]" value={id} />)}
       <fieldset className="space-y-2">
@@ -79,7 +81,7 @@ export function AllocationForm({ trialId, specimens, initialSelected, seed, bloc
         <div>
           <label htmlFor="f-seed" className="block text-sm font-medium">Seed</label>
           <div className="flex gap-2">
-            <input id="f-seed" name="seed" className="field w-56 font-mono" value={seedValue} onChange={(e) => setSeedValue(e.target.value)}
+            <input id="f-seed" name="seed" className="field font-mono" style={{ width: "16rem" }} value={seedValue} onChange={(e) => setSeedValue(e.target.value)}
               aria-invalid={state?.errors?.seed ? true : undefined} aria-describedby="seed-hint" />
             <button type="button" className="btn-quiet" onClick={() => setSeedValue(randomSeed())}>New seed</button>
           </div>
@@ -91,7 +93,7 @@ export function AllocationForm({ trialId, specimens, initialSelected, seed, bloc
         </label>
       </div>
       <FormMessage state={state} />
-      <SubmitButton pendingText="Allocating…">{allocated ? "Re-roll allocation" : "Allocate"}</SubmitButton>
+      <PendingButton pending={pending} pendingText="Allocating…">{allocated ? "Re-roll allocation" : "Allocate"}</PendingButton>
     </form>
   );
 }

@@ -3,6 +3,7 @@
 import { useActionState, useState } from "react";
 import { addNoteAction, concludeTrialAction, startTrialAction } from "@/app/(lab)/trials/actions";
 import { FormMessage, SubmitButton, TextArea } from "@/components/ui/form";
+import { useFormSubmit } from "./use-form-submit";
 
 /** "YYYY-MM-DDTHH:mm" in UTC, the value a datetime-local input shows (every page uses UTC). */
 export function utcInputValue(d: Date) {
@@ -33,10 +34,11 @@ export function StartForm({ trialId, firstDays }: { trialId: string; firstDays: 
 }
 
 export function ConcludeForm({ trialId }: { trialId: string }) {
-  const [state, action] = useActionState(concludeTrialAction, undefined);
+  const [state, dispatch, pending] = useActionState(concludeTrialAction, undefined);
+  const onSubmit = useFormSubmit(dispatch);
   const [sure, setSure] = useState(false);
   return (
-    <form action={action} className="space-y-3" noValidate>
+    <form onSubmit={onSubmit} className="space-y-3" noValidate>
       <input type="hidden" name="trialId" value={trialId} />
       <TextArea name="note" label="Closing note (optional)" state={state} hint="Why and when the trial ends; it is kept as the first note after the conclusion." />
       <label className="flex items-start gap-2 text-sm">
@@ -44,7 +46,7 @@ export function ConcludeForm({ trialId }: { trialId: string }) {
         I understand that concluding locks the record: placements close now, and inspections, scores, photos and the design can no longer change. Only notes can be added.
       </label>
       <FormMessage state={state} />
-      <button type="submit" className="btn" disabled={!sure}>Conclude and lock</button>
+      <button type="submit" className="btn" disabled={!sure || pending} aria-busy={pending}>{pending ? "Concluding…" : "Conclude and lock"}</button>
     </form>
   );
 }

@@ -32,18 +32,18 @@ export function PlanFields({ initial, error }: { initial?: InspectionPlan; error
     </label>
   );
   return (
-    <fieldset className="space-y-3" aria-describedby={error ? "plan-err" : "plan-preview"}>
+    <fieldset className="space-y-3 min-w-0" aria-describedby={error ? "plan-err" : "plan-preview"}>
       <legend className="text-sm font-medium">Inspection plan</legend>
       <div className="flex flex-wrap gap-4">{radio("fixed", "Fixed interval")}{radio("geometric", "Geometric")}{radio("custom", "Custom days")}</div>
       {kind === "fixed" && (
         <div className="flex flex-wrap gap-4">
-          <label className="text-sm">Every (days)<input className="field w-28" type="number" min={1} name="intervalDays" value={intervalDays} onChange={(e) => setIntervalDays(e.target.value)} /></label>
-          <label className="text-sm">Number of inspections<input className="field w-28" type="number" min={1} name="fixedCount" value={fixedCount} onChange={(e) => setFixedCount(e.target.value)} /></label>
+          <label className="text-sm block">Every (days)<input className="field" style={{ width: "8rem" }} type="number" min={1} name="intervalDays" value={intervalDays} onChange={(e) => setIntervalDays(e.target.value)} /></label>
+          <label className="text-sm block">Number of inspections<input className="field" style={{ width: "8rem" }} type="number" min={1} name="fixedCount" value={fixedCount} onChange={(e) => setFixedCount(e.target.value)} /></label>
         </div>
       )}
       {kind === "geometric" && (
         <div className="space-y-1">
-          <label className="text-sm">Number of inspections<input className="field w-28" type="number" min={1} max={20} name="geometricCount" value={geoCount} onChange={(e) => setGeoCount(e.target.value)} /></label>
+          <label className="text-sm block">Number of inspections<input className="field" style={{ width: "8rem" }} type="number" min={1} max={20} name="geometricCount" value={geoCount} onChange={(e) => setGeoCount(e.target.value)} /></label>
           <p className="text-xs muted">{GEOMETRIC_RULE_TEXT}</p>
         </div>
       )}
@@ -57,7 +57,7 @@ export function PlanFields({ initial, error }: { initial?: InspectionPlan; error
         {preview.error ? <p className="text-rust-600">{preview.error}</p> : (
           <p>
             <span className="muted">If started today at 09:00 UTC: </span>
-            {preview.days.slice(0, 12).map((d, i) => <span key={d} className="whitespace-nowrap">{i > 0 && " · "}day {d} ({formatDate(preview.dates[i])})</span>)}
+            {preview.days.slice(0, 12).map((d, i) => <span key={d}>{i > 0 && " · "}<span className="whitespace-nowrap">day {d} ({formatDate(preview.dates[i])})</span></span>)}
             {preview.days.length > 12 && <span> · …{preview.days.length - 12} more, last day {preview.days[preview.days.length - 1]}</span>}
           </p>
         )}

@@ -82,7 +82,7 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
         <span>Page {page} of {pages}</span>
         {page < pages ? <Link className="btn-quiet" href={href({ page: page + 1 })}>Next</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Next</span>}
         <label className="inline-flex items-center gap-2">Rows per page
-          <select className="field py-1 w-20" value={pageSize} onChange={(e) => router.push(href({ pageSize: e.target.value, page: 1 }))}>
+          <select className="field py-1" style={{ width: "5rem" }} value={pageSize} onChange={(e) => router.push(href({ pageSize: e.target.value, page: 1 }))}>
             {[25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
           </select>
         </label>
