@@ -24,14 +24,26 @@ const kindOptions = CHAMBER_KINDS.map((k) => ({ value: k, label: CHAMBER_KIND_LA
 const saltOptions = [{ value: "", label: "Choose a salt…" }, ...SALT_IDS.map((id) => ({ value: id, label: `${SALTS[id].displayName}, ${SALTS[id].rangeC[0]}–${SALTS[id].rangeC[1]} °C` }))];
 const desiccantOptions = [{ value: "", label: "Choose a desiccant…" }, ...DESICCANT_KINDS.map((k) => ({ value: k, label: DESICCANTS[k].displayName }))];
 
+function defaultSetpoint(v: ChamberFormValues): string {
+  const t = num(v.nominalTempC ?? "");
+  if (v.kind === "saturated-salt" && v.saltId && isSaltId(v.saltId) && t !== null) {
+    const eq = saltAt(v.saltId, t);
+    return eq.ok ? String(roundTo(eq.rhPercent, 1)) : "";
+  }
+  return v.kind === "water" ? String(WATER_DEFAULT_SETPOINT) : "";
+}
+const lowerFirst = (t: string) => t.charAt(0).toLowerCase() + t.slice(1);
+const defaultTolerance = (kind?: string) => String(kind === "water" ? WATER_DEFAULT_TOLERANCE : DEFAULT_TOLERANCE);
+
 export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Save chamber" }: { action: Action; initial?: ChamberFormValues; chamberId?: string; submitLabel?: string }) {
   const [state, formAction, pending] = useActionState(action, undefined);
   const start = (k: keyof ChamberFormValues, fallback = "") => initial[k] ?? fallback;
   const [kind, setKind] = useState<ChamberKind>((start("kind", "saturated-salt") as ChamberKind));
   const [saltId, setSaltId] = useState(start("saltId"));
   const [tempText, setTempText] = useState(start("nominalTempC"));
-  const [setpoint, setSetpoint] = useState(start("setpointRhPercent"));
-  const [tolerance, setTolerance] = useState(start("toleranceRhPercent"));
+  // A stored value equal to what the form would compute counts as "not typed", so it keeps following the inputs.
+  const [setpoint, setSetpoint] = useState(() => (start("setpointRhPercent") === defaultSetpoint(initial) ? "" : start("setpointRhPercent")));
+  const [tolerance, setTolerance] = useState(() => (start("toleranceRhPercent") === defaultTolerance(initial.kind) ? "" : start("toleranceRhPercent")));
   const [desiccant, setDesiccant] = useState(start("desiccantKind"));
   const [massText, setMassText] = useState(start("desiccantMassG"));
   const [volumeText, setVolumeText] = useState(start("volumeL"));
@@ -46,7 +58,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
   const eq = salt && tempC !== null && Number.isFinite(tempC) ? saltAt(salt, tempC) : null;
   const autoSetpoint = eq?.ok ? String(roundTo(eq.rhPercent, 1)) : kind === "water" ? String(WATER_DEFAULT_SETPOINT) : "";
   const shownSetpoint = setpoint !== "" ? setpoint : autoSetpoint;
-  const autoTolerance = kind === "water" ? String(WATER_DEFAULT_TOLERANCE) : String(DEFAULT_TOLERANCE);
+  const autoTolerance = defaultTolerance(kind);
   const shownTolerance = tolerance !== "" ? tolerance : autoTolerance;
 
   let budget: ReturnType<typeof desiccantBudget> | null = null;
@@ -93,7 +105,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
           <div className="panel p-3 space-y-2" aria-live="polite">
             <p className="text-sm" data-testid="salt-equilibrium">
               {eq?.ok ? (
-                <>Equilibrium over saturated {SALTS[salt].displayName}{tempC !== null ? ` at ${tempC} °C` : ""}: <strong>{eq.rhPercent.toFixed(1)} ± {eq.uncertaintyPercent} %RH</strong></>
+                <>Equilibrium over saturated {lowerFirst(SALTS[salt].displayName)}{tempC !== null ? ` at ${tempC} °C` : ""}: <strong>{eq.rhPercent.toFixed(1)} ± {eq.uncertaintyPercent} %RH</strong></>
               ) : (
                 <>Enter a temperature in {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C to see the equilibrium RH.</>
               )}
