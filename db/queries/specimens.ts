@@ -79,7 +79,7 @@ export async function createSpecimen({ actor, input }: { actor: Actor; input: Sp
   });
 }
 
-export async function updateSpecimen({ actor, specimenId, input }: { actor: Actor; specimenId: string; input: Partial<SpecimenInput> }) {
+export async function updateSpecimen({ actor, specimenId, input }: { actor: Actor; specimenId: string; input: Partial<Omit<SpecimenInput, "massG">> & { massG?: number | null } }) {
   assertAllowed(actor, "specimens.write");
   if (!isUuid(specimenId)) throw new AppError("not-found", "No such specimen in this lab.");
   if (input.label && (await labelTaken(actor.labId, input.label, specimenId))) throw labelConflict(input.label);

@@ -41,7 +41,10 @@ export const specimenSchema = z.object({
 });
 export type SpecimenInput = z.infer<typeof specimenSchema>;
 
-export const specimenUpdateSchema = specimenSchema.partial();
+/** JSON PATCH: any subset; massG null clears the mass. */
+export const specimenUpdateSchema = specimenSchema.partial().extend({
+  massG: z.number("Mass must be a number of grams.").positive("Mass must be above 0 g.").max(1_000_000, "Mass must be at most 1,000,000 g (1 t).").nullable().optional(),
+});
 
 /** The HTML form: preparation steps come as checkboxes plus a free-text remainder. */
 function fromForm(raw: unknown): unknown {

@@ -11,7 +11,8 @@ export const createSpecimenAction = labAction("specimens.write", specimenFormSch
 });
 
 export const updateSpecimenAction = labAction("specimens.write", specimenEditFormSchema, async (ctx, { specimenId, ...input }) => {
-  const row = await updateSpecimen({ actor: ctx, specimenId, input });
+  // The form always sends every field, so an empty mass means "no mass" rather than "unchanged".
+  const row = await updateSpecimen({ actor: ctx, specimenId, input: { ...input, massG: input.massG ?? null } });
   revalidate("/specimens");
   revalidate(`/specimens/${specimenId}`);
   return { message: `Specimen ${row.label} saved.`, data: { id: row.id } };
