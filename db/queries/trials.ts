@@ -263,7 +263,7 @@ export async function updateTrialDesign({ actor, trialId, input }: { actor: Acto
   });
 }
 
-/** Technicians, scorers and the photo protocol may change while a trial runs (not once concluded). */
+/** Technicians and the photo protocol may change while a trial runs (not once concluded); scorers only in draft. */
 export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, scoreRule, primaryScorerId, photoProtocol }: {
   actor: Actor; trialId: string; technicianIds?: string[]; scorers?: { userId: string; blind: boolean }[];
   scoreRule?: Trial["scoreRule"]; primaryScorerId?: string | null; photoProtocol?: string[];
@@ -272,6 +272,10 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
   return db.transaction(async (tx) => {
     const before = await lockTrial(tx, actor.labId, trialId);
     assertWritable(before);
+    // Once scores can exist, the Scoring tab owns scorers and the rule: it re-derives the scores of record.
+    if ((scorers !== undefined || scoreRule !== undefined || primaryScorerId !== undefined) && before.status !== "draft") {
+      throw new AppError("conflict", "Once a trial runs, scorers and the score-of-record rule are changed on its Scoring tab (which re-derives the scores of record).");
+    }
     const beforeMembers = await tx.select().from(trialMembers).where(eq(trialMembers.trialId, trialId));
     if (technicianIds) {
       await checkPeople(tx, actor.labId, technicianIds, "technicianIds", "inspections.record");

@@ -77,7 +77,8 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
           <p className="text-sm"><span className="muted">Scorers: </span>{scorers.map((s) => `${s.name}${s.blind ? " (blind)" : ""}`).join(", ") || "none yet"}</p>
           <p className="text-sm"><span className="muted">Score of record: </span>{SCORE_RULES[trial.scoreRule]}{trial.scoreRule === "primary-scorer" ? ` — ${primary?.name ?? "not chosen yet"}` : ""}</p>
           {open && design && <details><summary className="cursor-pointer text-sm link">Change technicians</summary><div className="pt-3"><TechniciansForm trialId={trial.id} people={people} initial={technicians.map((t) => t.userId)} /></div></details>}
-          {open && can(ctx.role, "scorers.assign") && (
+          {trial.status !== "draft" && <p className="text-sm"><Link className="link" href={`${base}/scoring`}>Scorers and the score-of-record rule are managed on the Scoring tab</Link></p>}
+          {trial.status === "draft" && can(ctx.role, "scorers.assign") && (
             <details><summary className="cursor-pointer text-sm link">Assign scorers</summary><div className="pt-3">
               <ScorersForm trialId={trial.id} people={people} initial={scorers.map((s) => ({ userId: s.userId, blind: s.blind }))} scoreRule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} />
             </div></details>
