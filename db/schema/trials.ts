@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { boolean, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chambers } from "./chambers";
@@ -80,6 +81,8 @@ export const inspections = pgTable("inspections", {
 }, (t) => [
   index("inspections_lab_planned_idx").on(t.labId, t.plannedAt),
   index("inspections_lab_open_idx").on(t.labId, t.doneAt, t.plannedAt),
+  // The due list: open inspections of a lab in planned order, without walking the done ones.
+  index("inspections_lab_open_planned_idx").on(t.labId, t.plannedAt, t.id).where(sql`${t.doneAt} is null`),
   index("inspections_trial_idx").on(t.trialId, t.plannedAt),
 ]);
 

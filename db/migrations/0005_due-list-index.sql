@@ -1,0 +1,1 @@
+CREATE INDEX "inspections_lab_open_planned_idx" ON "inspections" USING btree ("lab_id","planned_at","id") WHERE "inspections"."done_at" is null;
