@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, desc, eq, gt, isNotNull, isNull, lt, lte, or, type SQL } from "drizzle-orm";
+import { and, asc, count, desc, eq, gt, isNotNull, isNull, lt, lte, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { formatDateTime } from "@/lib/format";
 import { inspectionStatus } from "@/lib/schedule";
@@ -12,6 +12,7 @@ import { assertRunningWritable, lockTrial } from "./trials";
 
 export { OVERDUE_GRACE_HOURS };
 export type InspectionFilter = "open" | "done" | "overdue" | "all";
+export const COUNT_CAP = 10_000;
 
 const columns = {
   id: inspections.id, trialId: inspections.trialId, trialTitle: trials.title, trialStatus: trials.status, dayNumber: inspections.dayNumber,
@@ -40,9 +41,13 @@ export async function listInspections({ labId, trialId, status = "all", before, 
   const [rows, [{ total }]] = await Promise.all([
     db.select(columns).from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).leftJoin(users, eq(users.id, inspections.doneBy))
       .where(w).orderBy(...order).limit(pageSize).offset((page - 1) * pageSize),
-    db.select({ total: count() }).from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).where(w),
+    // Counting stops after COUNT_CAP rows: a lab with tens of thousands of open inspections gets
+    // "10,000 or more" instead of a full scan on every refresh of the due list.
+    db.select({ total: count() }).from(
+      db.select({ one: sql`1` }).from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).where(w).limit(COUNT_CAP + 1).as("capped"),
+    ),
   ]);
-  return { rows: rows.map((r) => withStatus(r, now)), total, page, pageSize };
+  return { rows: rows.map((r) => withStatus(r, now)), total: Math.min(total, COUNT_CAP), totalCapped: total > COUNT_CAP, page, pageSize };
 }
 
 export async function getInspection({ labId, inspectionId, now = new Date() }: { labId: string; inspectionId: string; now?: Date }) {

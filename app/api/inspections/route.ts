@@ -1,5 +1,6 @@
 // GET /api/inspections — the lab's inspections (?trialId&status=open|done|overdue|all&before&page&pageSize).
 // "open" = not done in a running trial, earliest first; each item carries its status (due/overdue/…).
+// total stops at 10,000 (totalCapped: true beyond that).
 import { NextResponse } from "next/server";
 import { listInspections, OVERDUE_GRACE_HOURS } from "@/db/queries/inspections";
 import { labRoute } from "@/lib/auth/route";
@@ -8,6 +9,6 @@ import { inspectionListSchema } from "@/lib/validation/trials";
 export const GET = labRoute("lab.read", async (ctx, req) => {
   const p = inspectionListSchema.parse(Object.fromEntries(new URL(req.url).searchParams));
   const now = new Date();
-  const { rows, total, page, pageSize } = await listInspections({ labId: ctx.labId, ...p, now });
-  return NextResponse.json({ items: rows, page, pageSize, total, now: now.toISOString(), graceHours: OVERDUE_GRACE_HOURS }, { headers: { "cache-control": "no-store" } });
+  const { rows, total, totalCapped, page, pageSize } = await listInspections({ labId: ctx.labId, ...p, now });
+  return NextResponse.json({ items: rows, page, pageSize, total, totalCapped, now: now.toISOString(), graceHours: OVERDUE_GRACE_HOURS }, { headers: { "cache-control": "no-store" } });
 });
