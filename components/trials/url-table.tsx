@@ -51,7 +51,8 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
                 {hg.headers.map((h) => {
-                  const canSort = h.column.getCanSort() && h.column.columnDef.enableSorting !== false;
+                  // Display columns have no accessor, so TanStack would say "not sortable"; the server sorts by id.
+                  const canSort = h.column.columnDef.enableSorting !== false;
                   const active = sort === h.column.id;
                   const label = flexRender(h.column.columnDef.header, h.getContext());
                   return (

@@ -50,7 +50,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
         <div><dt className="text-xs muted">Primary outcome</dt><dd>{PRIMARY_OUTCOMES[trial.primaryOutcome as PrimaryOutcome] ?? trial.primaryOutcome}</dd></div>
         {trial.hypothesis && <div className="md:col-span-3"><dt className="text-xs muted">Hypothesis</dt><dd className="whitespace-pre-wrap">{trial.hypothesis}</dd></div>}
         <div><dt className="text-xs muted">Arms</dt><dd>{arms.length} (chambers × treatments) × {trial.replicatesPerArm} replicate{trial.replicatesPerArm === 1 ? "" : "s"}</dd></div>
-        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated ? <>seed <span className="font-mono">{trial.allocationSeed}</span>{trial.blockByMaterial ? ", blocked by material class" : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
+        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated || trial.allocationSeed ? <>seed <span className="font-mono">{trial.allocationSeed}</span>{trial.blockByMaterial ? ", blocked by material class" : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
         <div><dt className="text-xs muted">Inspection plan</dt><dd>{planText(trial.schedulePlan)}</dd></div>
         {trial.status !== "draft" && <div><dt className="text-xs muted">Inspections</dt><dd>{done} of {inspections.length} done{next ? <> · next: <Link className="link" href={`${base}/inspections/${next.id}`}>day {next.dayNumber}, {formatDateTime(next.plannedAt)}</Link> ({next.status})</> : ""}</dd></div>}
       </dl>
@@ -76,10 +76,10 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
           <p className="text-sm"><span className="muted">Technicians (get reminders): </span>{technicians.map((t) => t.name).join(", ") || <span className="text-rust-700">none yet — nobody gets reminders</span>}</p>
           <p className="text-sm"><span className="muted">Scorers: </span>{scorers.map((s) => `${s.name}${s.blind ? " (blind)" : ""}`).join(", ") || "none yet"}</p>
           <p className="text-sm"><span className="muted">Score of record: </span>{SCORE_RULES[trial.scoreRule]}{trial.scoreRule === "primary-scorer" ? ` — ${primary?.name ?? "not chosen yet"}` : ""}</p>
-          {open && design && <details><summary className="cursor-pointer text-sm link">Change technicians</summary><div className="pt-3"><TechniciansForm trialId={trial.id} people={people} initial={technicians.map((t) => t.userId)} /></div></details>}
+          {open && design && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Change technicians</summary><div className="pt-3"><TechniciansForm trialId={trial.id} people={people} initial={technicians.map((t) => t.userId)} /></div></details>}
           {trial.status !== "draft" && <p className="text-sm"><Link className="link" href={`${base}/scoring`}>Scorers and the score-of-record rule are managed on the Scoring tab</Link></p>}
           {trial.status === "draft" && can(ctx.role, "scorers.assign") && (
-            <details><summary className="cursor-pointer text-sm link">Assign scorers</summary><div className="pt-3">
+            <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Assign scorers</summary><div className="pt-3">
               <ScorersForm trialId={trial.id} people={people} initial={scorers.map((s) => ({ userId: s.userId, blind: s.blind }))} scoreRule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} />
             </div></details>
           )}
@@ -87,7 +87,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
         <section className="panel p-4 space-y-3" aria-labelledby="protocol-h">
           <h2 id="protocol-h" className="font-semibold">Photo protocol</h2>
           {trial.photoProtocol.length === 0 ? <p className="text-sm muted">No checklist.</p> : <ol className="list-decimal pl-5 text-sm space-y-1">{trial.photoProtocol.map((l, i) => <li key={i}>{l}</li>)}</ol>}
-          {open && design && <details><summary className="cursor-pointer text-sm link">Edit the checklist</summary><div className="pt-3"><ProtocolForm trialId={trial.id} initial={trial.photoProtocol} /></div></details>}
+          {open && design && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Edit the checklist</summary><div className="pt-3"><ProtocolForm trialId={trial.id} initial={trial.photoProtocol} /></div></details>}
         </section>
       </div>
 

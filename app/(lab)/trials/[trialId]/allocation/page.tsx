@@ -117,7 +117,7 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
             </tbody>
           </table>
           {trial.status === "running" && design && !blind && openPlacements.length > 0 && (
-            <details className="no-print"><summary className="cursor-pointer link text-sm">Move a specimen</summary><div className="pt-3">
+            <details className="no-print"><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Move a specimen</summary><div className="pt-3">
               <MoveForm trialId={trial.id} specimens={openPlacements.map((p) => ({ id: p.specimenId, label: p.label, where: `${p.chamberName} / ${p.treatmentName}` }))} arms={arms.map((a) => ({ id: a.id, label: a.label }))} />
             </div></details>
           )}

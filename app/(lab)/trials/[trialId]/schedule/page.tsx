@@ -59,8 +59,8 @@ export default async function SchedulePage({ params }: { params: Promise<{ trial
                 <td className="text-sm max-w-xs">{r.notes}</td>
                 {(record || reschedule) && (
                   <td className="min-w-56">
-                    {!r.doneAt && record && <details><summary className="cursor-pointer link text-sm">Mark done</summary><div className="pt-2"><RecordInspectionForm inspectionId={r.id} compact /></div></details>}
-                    {!r.doneAt && reschedule && <details><summary className="cursor-pointer link text-sm">Reschedule</summary><div className="pt-2"><RescheduleForm inspectionId={r.id} plannedAt={r.plannedAt.toISOString()} /></div></details>}
+                    {!r.doneAt && record && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Mark done</summary><div className="pt-2"><RecordInspectionForm inspectionId={r.id} compact /></div></details>}
+                    {!r.doneAt && reschedule && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Reschedule</summary><div className="pt-2"><RescheduleForm inspectionId={r.id} plannedAt={r.plannedAt.toISOString()} /></div></details>}
                   </td>
                 )}
               </tr>
