@@ -98,4 +98,18 @@ describe("JSON API", () => {
     expect(note.status).toBe(201);
     expect((await researcher.fetch(`/api/trials/${trial.id}/conclude`, json({}))).status).toBe(403);
   }, 60_000);
+
+  it("a blind scorer gets the demo trial's placements and allocation without chambers or treatments", async () => {
+    const blindScorer = await signedInClient("scorer@tarrow.example", "rustline-demo-1"); // blind scorer in the demo seed
+    const [demo] = await db.select().from(s.trials).where(eq(s.trials.title, "Storage humidity × surface treatment, 2026 slices"));
+    const seen = await (await technician.fetch(`/api/trials/${demo.id}/placements`)).json();
+    expect(seen.items.length).toBeGreaterThan(0);
+    expect(seen.items.every((p: { chamberName: string | null; treatmentName: string | null }) => p.chamberName && p.treatmentName)).toBe(true);
+    const hidden = await (await blindScorer.fetch(`/api/trials/${demo.id}/placements`)).json();
+    expect(hidden.items).toHaveLength(seen.items.length);
+    expect(hidden.items.every((p: { chamberName: string | null; treatmentName: string | null; armId: string | null; blinded: boolean }) => !p.chamberName && !p.treatmentName && !p.armId && p.blinded)).toBe(true);
+    const detail = await (await blindScorer.fetch(`/api/trials/${demo.id}`)).json();
+    expect(detail.viewerBlind).toBe(true);
+    expect(JSON.stringify(detail.allocation)).not.toMatch(/Uncoated control|Microcrystalline wax|Acrylic lacquer/);
+  });
 });

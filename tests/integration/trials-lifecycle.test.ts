@@ -187,6 +187,16 @@ describe("roles", () => {
     expect(lead.ok, lead.message).toBe(true);
     const members = await db.select().from(s.trialMembers).where(and(eq(s.trialMembers.trialId, trialId), eq(s.trialMembers.role, "scorer")));
     expect(members.map((m) => [m.userId, m.blind]).sort()).toEqual([[a.users.researcher.id, true], [a.users.technician.id, false]].sort());
+    // A lead's design form sets scorers, blind flags and the primary scorer in one go.
+    const byLead = await createTrialAction.withIdentity(a.as("lead"), { ...design, scorersIncluded: "1", "scorerIds[]": [a.users.technician.id, a.users.lead.id], "blindScorerIds[]": [a.users.lead.id], scoreRule: "primary-scorer", primaryScorerId: a.users.technician.id });
+    expect(byLead.ok, byLead.message).toBe(true);
+    const leadTrial = (byLead.data as { id: string }).id;
+    const [lt] = await db.select().from(s.trials).where(eq(s.trials.id, leadTrial));
+    expect(lt).toMatchObject({ scoreRule: "primary-scorer", primaryScorerId: a.users.technician.id });
+    const leadScorers = await db.select().from(s.trialMembers).where(and(eq(s.trialMembers.trialId, leadTrial), eq(s.trialMembers.role, "scorer")));
+    expect(leadScorers.map((m) => [m.userId, m.blind]).sort()).toEqual([[a.users.lead.id, true], [a.users.technician.id, false]].sort());
+    const noPrimary = await createTrialAction.withIdentity(a.as("lead"), { ...design, scorersIncluded: "1", "scorerIds[]": [a.users.technician.id], scoreRule: "primary-scorer", primaryScorerId: "" });
+    expect(noPrimary.errors?.primaryScorerId).toEqual(["Choose the primary scorer, or use consensus."]);
     // Observers cannot be given trial work.
     const observerTech = await updateTechniciansAction.withIdentity(a.as("researcher"), { trialId, "technicianIds[]": [a.users.observer.id] });
     expect(observerTech.ok).toBe(false);
