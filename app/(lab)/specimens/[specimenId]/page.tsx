@@ -67,7 +67,7 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
                       <td colSpan={2} className="muted">hidden: you score this trial blind</td>
                     ) : (<><td>{p.chamberName}</td><td>{p.treatmentName}</td></>)}
                     <td className="whitespace-nowrap">{p.fromAt ? formatDateTime(p.fromAt) : "—"}</td>
-                    <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : <span className="font-medium">now</span>}</td>
+                    <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : <span className="font-medium">current</span>}</td>
                     <td>{p.reason}</td>
                   </tr>
                 ))}

@@ -110,7 +110,7 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
                   <td><Link className="link" href={`/specimens/${p.specimenId}`}>{p.label}</Link></td>
                   <td>{p.chamberName ?? <span className="muted">hidden</span>}</td><td>{p.treatmentName ?? <span className="muted">hidden</span>}</td>
                   <td className="whitespace-nowrap">{p.fromAt ? formatDateTime(p.fromAt) : "—"}</td>
-                  <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : "now"}</td>
+                  <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : <span className="font-medium">current</span>}</td>
                   <td>{p.reason}</td>
                 </tr>
               ))}
