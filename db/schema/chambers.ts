@@ -40,6 +40,33 @@ export const readings = pgTable("readings", {
   index("readings_lab_chamber_time_idx").on(t.labId, t.chamberId, t.takenAt),
 ]);
 
+// One row per chamber, hour and instrument summarising that hour's readings. Kept current by
+// statement triggers on readings (migration 0007) so the chamber chart and its band statistics
+// read a year of minute readings as ~9,000 summaries plus the few hours that need every reading.
+// Spans are to the next reading of the chamber within the hour, in (taken_at, instrument) order.
+export const readingBlocks = pgTable("reading_blocks", {
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "cascade" }),
+  blockStart: timestamp("block_start", { withTimezone: true }).notNull(),
+  instrument: text("instrument").notNull(),
+  n: integer("n").notNull(),
+  firstAt: timestamp("first_at", { withTimezone: true }).notNull(),
+  lastAt: timestamp("last_at", { withTimezone: true }).notNull(),
+  lastRhPercent: doublePrecision("last_rh_percent").notNull(),
+  minRhPercent: doublePrecision("min_rh_percent").notNull(),
+  minAt: timestamp("min_at", { withTimezone: true }).notNull(),
+  minTempC: doublePrecision("min_temp_c"),
+  minDewPointC: doublePrecision("min_dew_point_c"),
+  maxRhPercent: doublePrecision("max_rh_percent").notNull(),
+  maxAt: timestamp("max_at", { withTimezone: true }).notNull(),
+  maxTempC: doublePrecision("max_temp_c"),
+  maxDewPointC: doublePrecision("max_dew_point_c"),
+  /** Σ span (ms) of this instrument's readings, the hour's last reading excluded. */
+  spanMs: doublePrecision("span_ms").notNull(),
+  /** Σ span (ms) × raw RH over the same readings. */
+  spanRhMs: doublePrecision("span_rh_ms").notNull(),
+}, (t) => [primaryKey({ columns: [t.labId, t.chamberId, t.blockStart, t.instrument] })]);
+
 export const readingImports = pgTable("reading_imports", {
   id: uuid("id").primaryKey().defaultRandom(),
   labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
