@@ -1,6 +1,6 @@
 import "server-only";
 // Status changes (draft → running → concluded), placements while running, and appended notes.
-import { and, eq, inArray, isNotNull, isNull, ne } from "drizzle-orm";
+import { and, eq, inArray, isNotNull, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { formatDateTime } from "@/lib/format";
 import { buildSchedule, planDays } from "@/lib/schedule";
@@ -66,7 +66,9 @@ export async function concludeTrial({ actor, trialId, note = "" }: { actor: Acto
     if (trial.status === "concluded") throw lockedError(trial);
     if (trial.status !== "running") throw new AppError("conflict", "Only a running trial can be concluded.");
     const at = new Date();
-    const closed = await tx.update(placements).set({ toAt: at }).where(and(eq(placements.trialId, trialId), isNull(placements.toAt))).returning({ id: placements.id });
+    // A trial concluded before its planned start closes its placements at their start, never before it.
+    const closed = await tx.update(placements).set({ toAt: sql`greatest(${placements.fromAt}, ${at.toISOString()}::timestamptz)` })
+      .where(and(eq(placements.trialId, trialId), isNull(placements.toAt))).returning({ id: placements.id });
     const [after] = await tx.update(trials).set({ status: "concluded", concludedAt: at, updatedAt: at }).where(eq(trials.id, trialId)).returning();
     if (note) await tx.insert(trialNotes).values({ labId: actor.labId, trialId, body: note, createdBy: actor.userId });
     await recordAudit(tx, {
