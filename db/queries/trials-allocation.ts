@@ -68,7 +68,8 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
       labId: actor.labId, userId: actor.userId, entity: "trial", entityId: trialId, action: "update",
       summary: `${previous.length ? "Re-allocated" : "Allocated"} ${result.assignments.length} specimens with seed "${seed}"${blockByMaterial ? ", blocked by material class" : ""}`,
       before: previous.length ? { seed: trial.allocationSeed, assignments: previous.map((p) => ({ specimenId: p.specimenId, armId: p.armId })) } : null,
-      after: { seed, blockByMaterial, assignments: result.assignments, unallocated: result.unallocated },
+      // The label form is what reproduces it: allocateDetailed with these labels, arm labels and seed.
+      after: { seed, blockByMaterial, replicatesPerArm: trial.replicatesPerArm, byLabel: byLabel.assignments, leftOverLabels: byLabel.unallocated, assignments: result.assignments },
     });
     return { trial: after, assigned: result.assignments.length, unallocated: result.unallocated.length };
   });
