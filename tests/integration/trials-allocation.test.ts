@@ -5,6 +5,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { allocateAction, createTrialAction, swapAction, updateTrialAction } from "@/app/(lab)/trials/actions";
+import { allocateDetailed } from "@/lib/allocation";
 import { createTestLab, type TestLab } from "../support/db";
 import { addChambers, addSpecimens, addTreatments, designInput } from "./trials-fixtures";
 
@@ -84,6 +85,18 @@ describe("allocation in the database", () => {
     expect(await byCombo(one)).not.toEqual(first);
     const audit = await db.select().from(s.auditEvents).where(and(eq(s.auditEvents.entityId, one), eq(s.auditEvents.entity, "trial"))).orderBy(desc(s.auditEvents.id)).limit(1);
     expect(audit[0].summary).toMatch(/^Re-allocated 12 specimens with seed "another-seed"/);
+  });
+
+  it("anyone can recompute the stored allocation from the printed labels and the seed", async () => {
+    const trialId = await draftTrial(3);
+    await allocateAction.withIdentity(a.as("researcher"), { trialId, "specimenIds[]": sp.map((x) => x.id), seed: "reviewer-check", blockByMaterial: "on" });
+    const rows = await db.select({ label: s.specimens.label, materialClass: s.specimens.materialClass, arm: s.trialArms.label })
+      .from(s.trialAllocations).innerJoin(s.specimens, eq(s.specimens.id, s.trialAllocations.specimenId))
+      .leftJoin(s.trialArms, eq(s.trialArms.id, s.trialAllocations.armId)).where(eq(s.trialAllocations.trialId, trialId));
+    const armLabels = (await db.select({ label: s.trialArms.label }).from(s.trialArms).where(eq(s.trialArms.trialId, trialId))).map((x) => ({ id: x.label }));
+    const again = allocateDetailed({ specimens: rows.map((r) => ({ id: r.label, materialClass: r.materialClass })), arms: armLabels, seed: "reviewer-check", blockBy: "materialClass", replicatesPerArm: 3 });
+    expect(Object.fromEntries(again.assignments.map((x) => [x.specimenId, x.armId]))).toEqual(Object.fromEntries(rows.filter((r) => r.arm).map((r) => [r.label, r.arm])));
+    expect(again.unallocated.sort()).toEqual(rows.filter((r) => !r.arm).map((r) => r.label).sort());
   });
 
   it("refuses too few specimens, and discards the allocation when the arms change", async () => {
