@@ -26,7 +26,8 @@ const children = [];
 let exitCode = 1;
 
 try {
-  started = await startServices(env, { databases: ["rustline", "rustline_test"] });
+  const testDb = new URL(env.DATABASE_URL).pathname.slice(1);
+  started = await startServices(env, { databases: ["rustline", "rustline_test", testDb] });
   run(bin("tsx"), ["db/migrate.ts", "--reset"], env, "resetting and migrating the test database");
   run(bin("tsx"), ["db/seed.ts"], env, "seeding the demo lab into the test database");
   run(bin("tsc"), ["--noEmit", "-p", "."], env, "type-checking");

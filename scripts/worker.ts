@@ -1,7 +1,7 @@
-// The background worker started by `npm start`: inspection reminders (and later photo processing)
-// from the pg-boss queue on the same PostgreSQL.
+// The background worker started by `npm start`: inspection and desiccant reminders, photo previews and
+// the orphan sweep, all from the pg-boss queue on the same PostgreSQL.
 import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
-import { claimDueReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
+import { claimDueReminders, reclaimStaleReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
 import { runDesiccantScan } from "@/db/jobs/desiccant";
 import { registerPhotoJobs } from "@/db/jobs/photos";
 import { closeDb } from "@/db/client";
@@ -12,7 +12,7 @@ const retryDelayS = Number(process.env.REMINDER_RETRY_DELAY_S ?? 30);
 
 async function scanOnce() {
   const boss = await getBoss();
-  const jobs = await claimDueReminders();
+  const jobs = [...(await claimDueReminders()), ...(await reclaimStaleReminders())];
   for (const j of jobs) {
     await boss.send(QUEUES.sendReminder, j, { retryLimit: 30, retryDelay: retryDelayS, retryBackoff: true, expireInSeconds: 120 });
   }

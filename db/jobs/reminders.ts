@@ -62,7 +62,16 @@ export async function sendReminder(job: ReminderJob) {
   return "sent";
 }
 
-/** Claimed but unsent reminders older than a minute (re-queued by the scan after a worker restart). */
-export async function unsentReminders(now = new Date()) {
-  return db.select().from(reminderLog).where(and(isNull(reminderLog.sentAt), lt(reminderLog.queuedAt, new Date(now.getTime() - 60_000)), gt(reminderLog.queuedAt, new Date(now.getTime() - 14 * 86_400_000))));
+/**
+ * Claimed reminders still unsent after `staleMinutes` (the worker stopped between claim and send, or
+ * the queue gave up while mail was down). Their claim time is renewed so each is re-queued at most
+ * once per period; sending checks sent_at first, so a duplicate job sends nothing twice.
+ */
+export async function reclaimStaleReminders(now = new Date(), staleMinutes = 30): Promise<ReminderJob[]> {
+  const rows = await db
+    .update(reminderLog)
+    .set({ queuedAt: now })
+    .where(and(isNull(reminderLog.sentAt), lt(reminderLog.queuedAt, new Date(now.getTime() - staleMinutes * 60_000)), gt(reminderLog.queuedAt, new Date(now.getTime() - 14 * 86_400_000))))
+    .returning();
+  return rows.map((r) => ({ inspectionId: r.inspectionId, userId: r.userId, kind: r.kind as ReminderKind }));
 }

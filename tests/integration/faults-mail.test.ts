@@ -58,3 +58,15 @@ it("keeps a reminder queued while the mail server is down and delivers it when i
   const [log] = await db.select().from(s.reminderLog).where(eq(s.reminderLog.userId, lab.users.technician.id));
   expect(log.sentAt).not.toBeNull();
 }, 120_000);
+
+it("re-queues a claimed reminder that was never sent (worker stopped between claim and send), once per period", async () => {
+  const { reclaimStaleReminders } = await import("@/db/jobs/reminders");
+  const [trial] = await db.insert(s.trials).values({ labId: lab.labId, title: "Stale claim", question: "?", status: "running", schedulePlan: { kind: "custom", days: [0] }, startedAt: new Date() }).returning();
+  const [insp] = await db.insert(s.inspections).values({ labId: lab.labId, trialId: trial.id, dayNumber: 0, plannedAt: new Date(Date.now() + 3_600_000) }).returning();
+  const twoHoursAgo = new Date(Date.now() - 2 * 3_600_000);
+  await db.insert(s.reminderLog).values({ inspectionId: insp.id, userId: lab.users.technician.id, kind: "day-before", queuedAt: twoHoursAgo });
+  const now = new Date();
+  const jobs = await reclaimStaleReminders(now);
+  expect(jobs).toContainEqual({ inspectionId: insp.id, userId: lab.users.technician.id, kind: "day-before" });
+  expect((await reclaimStaleReminders(now)).filter((j) => j.inspectionId === insp.id)).toHaveLength(0);
+});
