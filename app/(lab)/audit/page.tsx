@@ -8,9 +8,10 @@ import { EmptyState } from "@/components/ui/empty-state";
 
 export const metadata = { title: "Audit trail" };
 
-function Json({ value }: { value: unknown }) {
+function Json({ value, label }: { value: unknown; label: string }) {
   if (value == null) return <span className="muted">—</span>;
-  return <pre className="text-xs font-mono whitespace-pre-wrap break-all max-h-40 overflow-auto">{JSON.stringify(value, null, 1)}</pre>;
+  // Focusable so keyboard users can scroll a long record.
+  return <pre tabIndex={0} aria-label={label} className="text-xs font-mono whitespace-pre-wrap break-all max-h-40 overflow-auto">{JSON.stringify(value, null, 1)}</pre>;
 }
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
@@ -61,8 +62,8 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
                   <td>{e.userName ?? "System"}</td>
                   <td>{e.summary ?? e.action}</td>
                   <td><span className="font-mono text-xs">{e.entity}</span><br /><span className="text-xs muted">{e.action}</span></td>
-                  <td><Json value={e.before} /></td>
-                  <td><Json value={e.after} /></td>
+                  <td><Json value={e.before} label="Record before" /></td>
+                  <td><Json value={e.after} label="Record after" /></td>
                 </tr>
               ))}
             </tbody>
