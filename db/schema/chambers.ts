@@ -1,4 +1,4 @@
-import { bigserial, boolean, doublePrecision, index, integer, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { bigserial, boolean, doublePrecision, index, integer, pgTable, primaryKey, smallint, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chamberKindEnum, desiccantEventKindEnum, readingSourceEnum } from "./enums";
 
@@ -40,13 +40,15 @@ export const readings = pgTable("readings", {
   index("readings_lab_chamber_time_idx").on(t.labId, t.chamberId, t.takenAt),
 ]);
 
-// One row per chamber, hour and instrument summarising that hour's readings. Kept current by
-// statement triggers on readings (migration 0007) so the chamber chart and its band statistics
-// read a year of minute readings as ~9,000 summaries plus the few hours that need every reading.
-// Spans are to the next reading of the chamber within the hour, in (taken_at, instrument) order.
+// One row per chamber, block (1 or 6 hours from the epoch) and instrument summarising that block's
+// readings. Kept current by statement triggers on readings (migrations 0007, 0009) so the chamber
+// chart and its band statistics read a year of minute readings as ~1,500 six-hour summaries plus
+// the few hours that need every reading. Spans are to the next reading of the chamber within the
+// block, in (taken_at, instrument) order.
 export const readingBlocks = pgTable("reading_blocks", {
   labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
   chamberId: uuid("chamber_id").notNull().references(() => chambers.id, { onDelete: "cascade" }),
+  widthHours: smallint("width_hours").notNull().default(1),
   blockStart: timestamp("block_start", { withTimezone: true }).notNull(),
   instrument: text("instrument").notNull(),
   n: integer("n").notNull(),
@@ -65,7 +67,9 @@ export const readingBlocks = pgTable("reading_blocks", {
   spanMs: doublePrecision("span_ms").notNull(),
   /** Σ span (ms) × raw RH over the same readings. */
   spanRhMs: doublePrecision("span_rh_ms").notNull(),
-}, (t) => [primaryKey({ columns: [t.labId, t.chamberId, t.blockStart, t.instrument] })]);
+  /** Longest span (whole ms) from one of this instrument's readings to the next in the block. */
+  maxSpanMs: doublePrecision("max_span_ms").notNull().default(0),
+}, (t) => [primaryKey({ columns: [t.labId, t.chamberId, t.widthHours, t.blockStart, t.instrument] })]);
 
 export const readingImports = pgTable("reading_imports", {
   id: uuid("id").primaryKey().defaultRandom(),
