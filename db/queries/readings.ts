@@ -1,15 +1,12 @@
 import "server-only";
 import { and, desc, eq, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
-import { bandStats, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
 import { importCsv, type CsvImportError } from "@/lib/climate/csv-import";
-import { applyOffset } from "@/lib/climate/hygrometer-check";
-import { dewPointC } from "@/lib/humidity/psychrometrics";
-import type { ApiReading, CsvImportOptionsInput, Period } from "@/lib/validation/chambers";
+import type { ApiReading, CsvImportOptionsInput } from "@/lib/validation/chambers";
 import { recordAudit } from "../audit";
-import { db, getPool, type DbOrTx } from "../client";
+import { db, type DbOrTx } from "../client";
 import { chamberTokens, chambers, readingImports, readings } from "../schema";
-import { getChamber, hashChamberToken, listHygrometerChecks, type Chamber, type HygrometerCheck } from "./chambers";
+import { getChamber, hashChamberToken } from "./chambers";
 
 export type NewReading = { takenAt: Date; rhPercent: number; tempC: number | null; dewPointC: number | null; instrument: string };
 type Source = "manual" | "csv" | "api";
@@ -156,109 +153,6 @@ export async function postReadingsWithToken({ token, chamberId, body }: { token:
 }
 
 // ——— Chart and analysis ———
-
-export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
-type Row = { takenAt: Date; rhPercent: number; rhRaw: number; tempC: number | null; dewLogged: number | null; instrument: string };
-export type OffsetInUse = { instrument: string; offsetPercent: number; from: Date; saltId: string };
-
-const DAY_MS = 86_400_000;
-
-/** Raw rows in time order, as arrays (no per-row objects from pg), for a period of one chamber. */
-async function loadRows(labId: string, chamberId: string, from: Date | null, to: Date | null): Promise<Row[]> {
-  const values: unknown[] = [labId, chamberId];
-  let where = "lab_id = $1 and chamber_id = $2";
-  if (from) where += ` and taken_at >= $${values.push(from.toISOString())}`;
-  if (to) where += ` and taken_at <= $${values.push(to.toISOString())}`;
-  // float8 epoch (not numeric) and time order only: readings at the same instant may come in any
-  // order, which band-stats accepts; a larger work_mem keeps a year of minutes from sorting on disk.
-  const client = await getPool().connect();
-  let res;
-  try {
-    await client.query("begin read only");
-    await client.query("set local work_mem = '64MB'");
-    res = await client.query<[number, number, number | null, number | null, string]>({
-      text: `select (extract(epoch from taken_at) * 1000)::float8, rh_percent, temp_c, dew_point_c, instrument from readings where ${where} order by taken_at`,
-      values,
-      rowMode: "array",
-    });
-    await client.query("commit");
-  } catch (err) {
-    await client.query("rollback").catch(() => undefined);
-    throw err;
-  } finally {
-    client.release();
-  }
-  return res.rows.map((r) => {
-    const rh = Number(r[1]);
-    return { takenAt: new Date(Number(r[0])), rhPercent: rh, rhRaw: rh, tempC: r[2], dewLogged: r[3], instrument: r[4] };
-  });
-}
-
-/** Apply each instrument's hygrometer offsets from the check time on (latest applied check wins); raw rows are never changed. */
-function applyOffsets(rows: Row[], checks: readonly HygrometerCheck[]): OffsetInUse[] {
-  const byInstrument = new Map<string, HygrometerCheck[]>();
-  for (const c of checks) if (c.applied) byInstrument.set(c.instrument, [...(byInstrument.get(c.instrument) ?? []), c]);
-  if (byInstrument.size === 0) return [];
-  for (const list of byInstrument.values()) list.sort((a, b) => a.checkedAt.getTime() - b.checkedAt.getTime());
-  const pointer = new Map<string, number>();
-  const used = new Map<string, OffsetInUse>();
-  for (const r of rows) {
-    const list = byInstrument.get(r.instrument);
-    if (!list) continue;
-    let i = pointer.get(r.instrument) ?? -1;
-    while (i + 1 < list.length && list[i + 1].checkedAt.getTime() <= r.takenAt.getTime()) i++;
-    pointer.set(r.instrument, i);
-    if (i < 0) continue;
-    r.rhPercent = applyOffset(r.rhRaw, list[i].offsetRhPercent);
-    used.set(`${list[i].id}`, { instrument: r.instrument, offsetPercent: list[i].offsetRhPercent, from: list[i].checkedAt, saltId: list[i].saltId });
-  }
-  return [...used.values()];
-}
-
-function dewOf(r: Row): number | null {
-  if (r.tempC != null && r.rhPercent > 0) {
-    try {
-      return dewPointC(r.tempC, r.rhPercent);
-    } catch {
-      return null;
-    }
-  }
-  return r.dewLogged;
-}
-
-/** Gaps longer than this are not counted as time (the logger was off): 3 × the typical interval, 1 h to 1 day. */
-function gapLimitMinutes(rows: readonly Row[]): number {
-  if (rows.length < 3) return 60;
-  const step = Math.max(1, Math.floor(rows.length / 2000));
-  const gaps: number[] = [];
-  for (let i = step; i < rows.length; i += step) gaps.push((rows[i].takenAt.getTime() - rows[i - 1].takenAt.getTime()) / 60_000);
-  gaps.sort((a, b) => a - b);
-  return Math.min(1440, Math.max(60, 3 * gaps[Math.floor(gaps.length / 2)]));
-}
-
-export async function getChamberSeries({ labId, chamber, period, maxPoints = 1600, now = new Date(), settleFrom = [] }: {
-  labId: string; chamber: Chamber; period: Period; maxPoints?: number; now?: Date; settleFrom?: { label: string; at: Date }[];
-}) {
-  const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
-  const rows = await loadRows(labId, chamber.id, from, null);
-  const seen = new Set<string>();
-  for (const r of rows) seen.add(r.instrument);
-  const instruments = [...seen];
-  const checks = await listHygrometerChecks({ labId, instruments });
-  const offsets = applyOffsets(rows, checks);
-  const band = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
-  const maxGapMinutes = gapLimitMinutes(rows);
-  const stats = bandStats(rows, band, { maxGapMinutes });
-  const settle = [];
-  for (const ev of settleFrom) {
-    // Settling is judged on the data after the event, whether or not the chosen period covers it.
-    const inRange = from === null || ev.at >= from;
-    const data = inRange ? rows : await loadRows(labId, chamber.id, new Date(ev.at.getTime() - DAY_MS), new Date(ev.at.getTime() + 30 * DAY_MS));
-    if (!inRange) applyOffsets(data, checks);
-    const hasAfter = data.length > 0 && data[data.length - 1].takenAt > ev.at;
-    settle.push({ ...ev, minutes: hasAfter ? settleTimeMinutes(data, band, ev.at, { maxGapMinutes }) : null, hasData: hasAfter });
-  }
-  const points: SeriesPoint[] = downsample(rows, maxPoints).map((r) => ({ t: r.takenAt.getTime(), rh: r.rhPercent, rhRaw: r.rhRaw, tempC: r.tempC, dewC: dewOf(r), instrument: r.instrument }));
-  return { period, from, count: rows.length, firstAt: rows[0]?.takenAt ?? null, lastAt: rows[rows.length - 1]?.takenAt ?? null, points, band, stats, maxGapMinutes, offsets, settle, instruments };
-}
-export type ChamberSeries = Awaited<ReturnType<typeof getChamberSeries>>;
+// In readings-series.ts (hourly summaries + the hours that leave the band); re-exported so the
+// chamber page and its components keep importing from here.
+export { getChamberSeries, type ChamberSeries, type OffsetInUse, type SeriesPoint } from "./readings-series";

@@ -1,0 +1,179 @@
+import "server-only";
+import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
+import { bandStats, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
+import { dewPointC } from "@/lib/humidity/psychrometrics";
+import type { Period } from "@/lib/validation/chambers";
+import type { Chamber } from "./chambers";
+import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, type Snapshot } from "./climate-sql";
+import {
+  applyOffsets, blockFacts, BucketPicker, COARSE_MS, gapLimitMinutes, groupBlocks, HOUR_MS, noteBlockOffsets, OffsetsUsed, OffsetTimeline, RunFolder,
+  type BlockFacts, type BlockRow, type Candidate, type OffsetInUse, type Range, type Row,
+} from "./readings-reduce";
+
+export type { OffsetInUse } from "./readings-reduce";
+export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
+
+const DAY_MS = 86_400_000;
+/** Up to this many readings in the period, every reading is loaded (a finer chart for short periods). */
+export const ALL_ROWS_LIMIT = 20_000;
+
+const floorTo = (ms: number | null, width: number) => (ms == null ? null : Math.floor(ms / width) * width);
+
+/** Merge block starts (ascending) into ranges of consecutive blocks. */
+function stretches(starts: readonly number[], widthMs: number): { fromMs: number; toMs: number }[] {
+  const out: { fromMs: number; toMs: number }[] = [];
+  for (const s of starts) {
+    const last = out[out.length - 1];
+    if (last && last.toMs === s) last.toMs = s + widthMs;
+    else out.push({ fromMs: s, toMs: s + widthMs });
+  }
+  return out;
+}
+
+type Unit = { block: readonly BlockRow[]; f: BlockFacts; rowsToChart: boolean };
+type Reduced = { series: ClimateReading[]; count: number; points: Candidate[]; instruments: Set<string>; offsets: OffsetInUse[] };
+
+/**
+ * A range as lib/climate sees it without loading every reading. Blocks (6-hour, or hours when the
+ * chart needs hourly buckets) on one side of the band become a few stand-in readings
+ * (readings-reduce RunFolder); a 6-hour block that cannot is looked into hour by hour, and an hour
+ * that cannot comes with its readings — one index range scan per stretch of such hours.
+ */
+async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, timeline, maxGapMinutes, maxPoints }: {
+  labId: string; chamberId: string; coarse: readonly (readonly BlockRow[])[]; range: Range; band: RhBand; timeline: OffsetTimeline; maxGapMinutes: number; maxPoints: number;
+}): Promise<Reduced> {
+  const maxGapMs = maxGapMinutes * 60_000;
+  const key = { labId, chamberId };
+  const span = coarse.length ? (coarse[coarse.length - 1][0].blockStartMs - coarse[0][0].blockStartMs) / COARSE_MS + 1 : 0;
+  // Hourly buckets unless 6-hour blocks alone give the chart enough of them.
+  const hourly = span < Math.floor(maxPoints / 2);
+  const top = hourly ? groupBlocks(await loadBlocks(snap, { ...key, widthMs: HOUR_MS, ranges: [{ fromMs: floorTo(range.fromMs, HOUR_MS), toMs: range.toMs }] })) : coarse;
+  const topFacts = top.map((b) => blockFacts(b, band, timeline, range, maxGapMs));
+  const picker = top.length ? new BucketPicker(top[0][0].blockStartMs, top[top.length - 1][0].blockStartMs, hourly ? HOUR_MS : COARSE_MS, maxPoints) : null;
+
+  // The hours of the 6-hour blocks that cannot stand as a whole.
+  const opened = hourly ? [] : top.filter((_, i) => topFacts[i].side === null).map((b) => b[0].blockStartMs);
+  const hours = groupBlocks(await loadBlocks(snap, { ...key, widthMs: HOUR_MS, ranges: stretches(opened, COARSE_MS).map((r) => ({ fromMs: r.fromMs, toMs: r.toMs - HOUR_MS })) }));
+  const units: Unit[] = [];
+  let h = 0;
+  top.forEach((block, i) => {
+    const f = topFacts[i];
+    if (!f.chartRaw) picker!.offerBlock(block, timeline);
+    if (f.side !== null || hourly) {
+      units.push({ block, f, rowsToChart: f.chartRaw });
+      return;
+    }
+    const end = block[0].blockStartMs + COARSE_MS;
+    for (; h < hours.length && hours[h][0].blockStartMs < end; h++) {
+      const hf = blockFacts(hours[h], band, timeline, range, maxGapMs);
+      if (f.chartRaw && !hf.chartRaw) picker!.offerBlock(hours[h], timeline);
+      units.push({ block: hours[h], f: hf, rowsToChart: f.chartRaw && hf.chartRaw });
+    }
+  });
+
+  const ranges: RowRange[] = stretches(units.filter((u) => u.f.side === null).map((u) => u.block[0].blockStartMs), HOUR_MS).map((r) => ({ ...r, toInclusive: false }));
+  if (ranges.length && range.fromMs != null) ranges[0].fromMs = Math.max(ranges[0].fromMs!, range.fromMs);
+  const lastRange = ranges[ranges.length - 1];
+  if (lastRange && range.toMs != null && lastRange.toMs! > range.toMs) Object.assign(lastRange, { toMs: range.toMs, toInclusive: true });
+  const rows = await loadRows(snap, { ...key, ranges });
+
+  const series: ClimateReading[] = [];
+  const runs = new RunFolder(series, maxGapMs);
+  const used = new OffsetsUsed();
+  const instruments = new Set<string>();
+  let count = 0;
+  let r = 0;
+  for (const u of units) {
+    if (u.f.side !== null) {
+      runs.add(u.f);
+      noteBlockOffsets(u.block, timeline, used);
+      for (const b of u.block) instruments.add(b.instrument);
+      count += u.f.n;
+      continue;
+    }
+    runs.flush();
+    const from = r;
+    while (r < rows.length && rows[r].takenAt.getTime() < u.block[0].blockStartMs + HOUR_MS) r++;
+    const part = rows.slice(from, r);
+    applyOffsets(part, timeline, used);
+    for (const row of part) {
+      series.push(row);
+      instruments.add(row.instrument);
+      if (u.rowsToChart) picker!.offer(toCandidate(row));
+    }
+    count += part.length;
+  }
+  runs.flush();
+  return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list() };
+}
+
+function dewOf(c: Candidate): number | null {
+  if (c.tempC != null && c.rh > 0) {
+    try {
+      return dewPointC(c.tempC, c.rh);
+    } catch {
+      return null;
+    }
+  }
+  return c.dewLogged;
+}
+
+const toCandidate = (r: Row): Candidate => ({ t: r.takenAt.getTime(), rh: r.rhPercent, rhRaw: r.rhRaw, tempC: r.tempC, dewLogged: r.dewLogged, instrument: r.instrument });
+const byFrom = (a: OffsetInUse, b: OffsetInUse) => a.from.getTime() - b.from.getTime();
+
+/**
+ * The chamber chart and its band statistics for a period, with applied hygrometer offsets from
+ * each check on. Long periods are read from the block summaries plus the hours that cross a band
+ * edge; the results equal lib/climate on every reading (tests/integration/chambers-climate-sql.test.ts).
+ * Periods of up to allRowsLimit readings load every reading (a finer chart).
+ */
+export async function getChamberSeries({ labId, chamber, period, maxPoints = 1600, now = new Date(), settleFrom = [], allRowsLimit = ALL_ROWS_LIMIT }: {
+  labId: string; chamber: Chamber; period: Period; maxPoints?: number; now?: Date; settleFrom?: { label: string; at: Date }[]; allRowsLimit?: number;
+}) {
+  const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
+  const fromMs = from?.getTime() ?? null;
+  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  const key = { labId, chamberId: chamber.id };
+
+  return withSnapshot(async (snap) => {
+    const timeline = new OffsetTimeline(await loadAppliedChecks(snap, key));
+    const coarse = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(fromMs, COARSE_MS), toMs: null }] }));
+    const maxGapMinutes = gapLimitMinutes(coarse);
+    let total = 0;
+    for (const block of coarse) for (const b of block) total += b.n;
+
+    let series: readonly ClimateReading[], count: number, instruments: string[], offsets: OffsetInUse[], picked: Candidate[];
+    if (total <= allRowsLimit) {
+      const rows = await loadRows(snap, { ...key, ranges: [{ fromMs, toMs: null, toInclusive: true }] });
+      offsets = applyOffsets(rows, timeline);
+      series = rows;
+      count = rows.length;
+      instruments = [...new Set(rows.map((r) => r.instrument))];
+      picked = downsample(rows, maxPoints).map(toCandidate);
+    } else {
+      const red = await reduce(snap, { ...key, coarse, range: { fromMs, toMs: null }, band, timeline, maxGapMinutes, maxPoints });
+      ({ series, count, offsets, points: picked } = red);
+      instruments = [...red.instruments];
+    }
+    const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, dewC: dewOf(c), instrument: c.instrument }));
+    const stats = bandStats(series, band, { maxGapMinutes });
+
+    const settle = [];
+    for (const ev of settleFrom) {
+      let data = series;
+      if (fromMs !== null && ev.at.getTime() < fromMs) {
+        // Settling is judged on the data after the event, whether or not the chosen period covers it.
+        const range = { fromMs: ev.at.getTime() - DAY_MS, toMs: ev.at.getTime() + 30 * DAY_MS };
+        const windowBlocks = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(range.fromMs, COARSE_MS), toMs: range.toMs }] }));
+        data = (await reduce(snap, { ...key, coarse: windowBlocks, range, band, timeline, maxGapMinutes, maxPoints })).series;
+      }
+      const hasAfter = data.length > 0 && data[data.length - 1].takenAt > ev.at;
+      settle.push({ ...ev, minutes: hasAfter ? settleTimeMinutes(data, band, ev.at, { maxGapMinutes }) : null, hasData: hasAfter });
+    }
+    return {
+      period, from, count, firstAt: series[0]?.takenAt ?? null, lastAt: series[series.length - 1]?.takenAt ?? null,
+      points, band, stats, maxGapMinutes, offsets: offsets.sort(byFrom), settle, instruments,
+    };
+  });
+}
+export type ChamberSeries = Awaited<ReturnType<typeof getChamberSeries>>;
