@@ -27,8 +27,16 @@ export function readStorageConfig(env: NodeJS.ProcessEnv = process.env): Storage
   };
 }
 
+/** Thrown when object storage cannot be reached at all (as opposed to an S3 error answer). */
+export class StorageUnavailableError extends Error {
+  constructor(cause: unknown) {
+    super("Object storage is not reachable", { cause });
+    this.name = "StorageUnavailableError";
+  }
+}
+
 export function createS3Client(config: StorageConfig, endpoint: string = config.endpoint): S3Client {
-  return new S3Client({
+  const client = new S3Client({
     endpoint,
     region: config.region,
     forcePathStyle: config.forcePathStyle,
@@ -38,6 +46,24 @@ export function createS3Client(config: StorageConfig, endpoint: string = config.
     requestChecksumCalculation: "WHEN_REQUIRED",
     responseChecksumValidation: "WHEN_REQUIRED",
   });
+  // A failure with no HTTP answer (connection refused, reset, DNS) means storage is down; mark it so
+  // callers can tell the user plainly instead of reporting a generic error.
+  client.middlewareStack.add(
+    (next) => async (args) => {
+      try {
+        return await next(args);
+      } catch (err) {
+        const status = (err as { $metadata?: { httpStatusCode?: number } }).$metadata?.httpStatusCode;
+        const code = (err as { code?: string }).code ?? "";
+        if (!status && /ECONNREFUSED|ECONNRESET|ENOTFOUND|ETIMEDOUT|EPIPE|EAI_AGAIN/.test(code + String((err as Error).message))) {
+          throw new StorageUnavailableError(err);
+        }
+        throw err;
+      }
+    },
+    { step: "finalizeRequest", name: "rustlineStorageUnavailable", priority: "low" },
+  );
+  return client;
 }
 
 export interface Storage {

@@ -28,6 +28,9 @@ export class AppError extends Error {
 export function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
   const e = err as { code?: string; message?: string; cause?: { code?: string } };
+  if ((err as Error)?.name === "StorageUnavailableError") {
+    return new AppError("unavailable", "Photo storage is not reachable right now. Nothing was recorded; try the upload again in a moment.");
+  }
   const pgCode = e?.code ?? e?.cause?.code;
   if (pgCode === "23505") return new AppError("conflict", "That already exists.");
   if (pgCode === "23503") return new AppError("conflict", "Other records still refer to this one.");

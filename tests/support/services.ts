@@ -28,3 +28,15 @@ export function stopDatabase() {
 export async function startDatabase() {
   await startPostgres({ port: Number(process.env.RUSTLINE_PG_PORT ?? 54329) });
 }
+
+export function stopS3Fake() {
+  const pidFile = path.join(repoRoot, ".data", "run", "s3-fake.pid");
+  const pid = Number(fs.readFileSync(pidFile, "utf8"));
+  process.kill(pid, "SIGTERM");
+  fs.rmSync(pidFile, { force: true });
+}
+
+export async function startS3Fake() {
+  const env = { ...process.env, ...localEnv("test") };
+  await startServices({ ...env, DATABASE_URL: "postgres://external/none", SMTP_URL: "smtp://external" }, { databases: [] });
+}
