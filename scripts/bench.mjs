@@ -4,7 +4,7 @@ import { spawnSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
 import { spawn } from "node:child_process";
-import { bin, buildIfChanged, ensureDependencies, root, run, waitForHttp } from "./lib/bootstrap.mjs";
+import { assertPortFree, bin, buildIfChanged, ensureDependencies, root, run, waitForHttp } from "./lib/bootstrap.mjs";
 
 ensureDependencies();
 const { localEnv } = await import("./lib/env.mjs");
@@ -28,6 +28,7 @@ const only = process.argv.slice(2);
 let started = [];
 let failed = 0;
 try {
+  await assertPortFree(port, "BENCH_APP_PORT");
   started = await startServices(env, { databases: ["rustline", "rustline_test", "rustline_bench_test"] });
   run(bin("tsx"), ["db/migrate.ts", "--reset"], env, "resetting and migrating the bench database");
   run(bin("tsx"), ["db/seed.ts"], env, "seeding the demo lab");

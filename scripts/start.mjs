@@ -1,6 +1,6 @@
 // npm start — install what is missing, start the local services, migrate, seed the demo, build, serve.
 import { spawn } from "node:child_process";
-import { bin, buildIfChanged, ensureDependencies, root, run } from "./lib/bootstrap.mjs";
+import { assertPortFree, bin, buildIfChanged, ensureDependencies, root, run } from "./lib/bootstrap.mjs";
 
 ensureDependencies();
 const { localEnv } = await import("./lib/env.mjs");
@@ -23,6 +23,7 @@ process.on("SIGINT", () => shutdown(0));
 process.on("SIGTERM", () => shutdown(0));
 
 try {
+  await assertPortFree(env.PORT, "PORT");
   started = await startServices(env, { databases: ["rustline", "rustline_test"] });
   run(bin("tsx"), ["db/migrate.ts"], env, "migrating the database");
   run(bin("tsx"), ["db/seed.ts", "--if-empty"], env, "seeding the demo lab (only when the database is empty)");

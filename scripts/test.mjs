@@ -3,7 +3,7 @@
 import { spawn, spawnSync } from "node:child_process";
 import fs from "node:fs";
 import path from "node:path";
-import { bin, buildIfChanged, ensureChromium, ensureDependencies, root, run, waitForHttp } from "./lib/bootstrap.mjs";
+import { assertPortFree, bin, buildIfChanged, ensureChromium, ensureDependencies, root, run, waitForHttp } from "./lib/bootstrap.mjs";
 
 ensureDependencies();
 const { localEnv } = await import("./lib/env.mjs");
@@ -27,6 +27,7 @@ let exitCode = 1;
 
 try {
   const testDb = new URL(env.DATABASE_URL).pathname.slice(1);
+  await assertPortFree(testPort, "TEST_APP_PORT");
   started = await startServices(env, { databases: ["rustline", "rustline_test", testDb] });
   run(bin("tsx"), ["db/migrate.ts", "--reset"], env, "resetting and migrating the test database");
   run(bin("tsx"), ["db/seed.ts"], env, "seeding the demo lab into the test database");

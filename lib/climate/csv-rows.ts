@@ -48,6 +48,7 @@ export type RowVisitor = (cells: string[], line: number, parseError: string | nu
 export function eachRow(body: string, lineOffset: number, delimiter: string, visit: RowVisitor, preview = 0): void {
   let countedTo = 0;
   let line = lineOffset + 1;
+  let previousStart = lineOffset;
   Papa.parse<string[]>(body, {
     delimiter,
     newline: "\n",
@@ -66,7 +67,10 @@ export function eachRow(body: string, lineOffset: number, delimiter: string, vis
         for (let at = cell.indexOf("\n"); at >= 0; at = cell.indexOf("\n", at + 1)) embedded++;
       }
       const parseError = result.errors.length > 0 ? result.errors[0].message : null;
-      visit(result.data, line - embedded, parseError);
+      // An unterminated quote swallows the line ends after it; a row never starts before the one after the previous row.
+      const start = Math.max(previousStart + 1, line - embedded);
+      previousStart = start;
+      visit(result.data, start, parseError);
     },
   });
 }

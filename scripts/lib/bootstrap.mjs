@@ -87,3 +87,16 @@ export async function waitForHttp(url, ms = 60_000) {
   }
   throw new Error(`${url} did not answer within ${ms / 1000} s`);
 }
+
+/** Refuse to start on a port something else already holds (a stale server would answer our checks). */
+export async function assertPortFree(port, variable) {
+  const net = await import("node:net");
+  const busy = await new Promise((resolve) => {
+    const s = net.connect({ host: "127.0.0.1", port: Number(port) }, () => {
+      s.destroy();
+      resolve(true);
+    });
+    s.on("error", () => resolve(false));
+  });
+  if (busy) throw new Error(`port ${port} is taken by another program (perhaps an earlier run still serving); stop it or set ${variable} to a free port`);
+}
