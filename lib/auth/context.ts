@@ -1,5 +1,6 @@
 // Resolve who is calling and in which lab, and check one permission. Every server action and
 // route handler goes through requireLab (via labAction / labRoute); nothing trusts the UI.
+import { cache } from "react";
 import { getServerSession } from "next-auth";
 import { getMembership } from "@/db/queries/memberships";
 import { AppError } from "./errors";
@@ -9,17 +10,21 @@ import { can, type Permission, type Role } from "./permissions";
 export type SessionIdentity = { userId: string; labId: string | null } | null;
 export type LabContext = { userId: string; labId: string; role: Role; labName: string };
 
-export async function currentIdentity(): Promise<SessionIdentity> {
+// Per request (React cache): the layout and the page both ask, but the session is decoded once.
+export const currentIdentity = cache(async (): Promise<SessionIdentity> => {
   const s = await getServerSession(authOptions);
   if (!s?.userId) return null;
   return { userId: s.userId, labId: s.labId };
-}
+});
+
+// Read fresh from the database on every request (a changed role applies at once), but once per request.
+const membershipOf = cache((userId: string, labId: string) => getMembership({ userId, labId }));
 
 /** Session → membership (read fresh from the database) → permission. */
 export async function requireLab(identity: SessionIdentity, permission: Permission): Promise<LabContext> {
   if (!identity) throw new AppError("unauthenticated", "Please sign in.");
   if (!identity.labId) throw new AppError("forbidden", "You are not a member of any lab yet.");
-  const m = await getMembership({ userId: identity.userId, labId: identity.labId });
+  const m = await membershipOf(identity.userId, identity.labId);
   if (!m) throw new AppError("forbidden", "You are no longer a member of this lab.");
   if (!can(m.role, permission)) {
     throw new AppError("forbidden", `Your role (${m.role}) does not allow this.`);
