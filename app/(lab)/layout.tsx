@@ -3,6 +3,7 @@ import { redirect } from "next/navigation";
 import { listUserLabs } from "@/db/queries/memberships";
 import { currentIdentity } from "@/lib/auth/context";
 import { ROLE_LABELS, type Role } from "@/lib/auth/permissions";
+import { LabChooser } from "@/components/shell/lab-chooser";
 import { LabSwitcher, SignOutButton } from "@/components/shell/lab-switcher";
 import { NavLinks } from "@/components/shell/nav-links";
 import { Providers } from "@/components/shell/providers";
@@ -19,8 +20,17 @@ export default async function LabLayout({ children }: { children: React.ReactNod
     return (
       <main className="max-w-xl mx-auto p-8 space-y-4">
         <Wordmark />
-        <p role="alert">You are not a member of any lab. Ask a lab lead for an invitation, or <a className="link" href="/sign-up">create a lab</a>.</p>
-        <Providers><SignOutButton /></Providers>
+        {labs.length > 0 ? (
+          <>
+            <p role="alert">This session points at a lab you are no longer a member of. Choose one of your labs:</p>
+            <Providers><LabChooser labs={labs} /> <SignOutButton /></Providers>
+          </>
+        ) : (
+          <>
+            <p role="alert">You are not a member of any lab. Ask a lab lead for an invitation, or <a className="link" href="/sign-up">create a lab</a>.</p>
+            <Providers><SignOutButton /></Providers>
+          </>
+        )}
       </main>
     );
   }
