@@ -36,6 +36,7 @@ try {
   buildIfChanged(env);
   app = spawn(bin("next"), ["start", "-p", port], { cwd: root, env, stdio: ["ignore", "ignore", "inherit"] });
   await waitForHttp(`${appUrl}/sign-in`);
+  env.APP_PID = String(app.pid); // lets benches read the app server's CPU time
   const files = fs.readdirSync(path.join(root, "bench")).filter((f) => f.endsWith("-bench.ts") && (!only.length || only.some((o) => f.includes(o)))).sort();
   for (const f of files) {
     console.log(`\n=== ${f} ===`);
