@@ -5,6 +5,7 @@ import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
 import { rustedAreaPercent, type Mark, type Point } from "@/lib/scoring/geometry";
+import { dayOf } from "@/lib/analysis/derive";
 import { firstRustInterval, isRusted } from "@/lib/stats/outcomes";
 import type { ConsensusScoreInput, SaveScoreInput } from "@/lib/validation/scores";
 import { recordAudit } from "../audit";
@@ -220,10 +221,19 @@ export type FirstRust = {
  */
 export async function firstRustForSpecimen(q: DbOrTx, { labId, trialId, specimenId }: { labId: string; trialId: string; specimenId: string }): Promise<FirstRust> {
   const rows = await q
-    .select({ dayNumber: inspections.dayNumber, spotCount: scores.spotCount, areaPercent: scores.areaPercent, weeping: scores.weeping })
+    .select({
+      dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt, startedAt: trials.startedAt,
+      spotCount: scores.spotCount, areaPercent: scores.areaPercent, weeping: scores.weeping,
+    })
     .from(scores)
     .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
+    .innerJoin(trials, eq(trials.id, scores.trialId))
     .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.specimenId, specimenId), eq(scores.isRecord, true)));
-  const outcomes = rows.map((r) => ({ inspectedAt: r.dayNumber, rusted: isRusted(r), areaPercent: r.areaPercent }));
+  // Days since the start of the inspection's actual time, the same convention as the comparison
+  // (lib/analysis/derive), so the score page and the Compare tab show the same interval.
+  const outcomes = rows.map((r) => {
+    const start = r.startedAt ?? new Date(r.plannedAt.getTime() - r.dayNumber * 86_400_000);
+    return { inspectedAt: dayOf(r.doneAt ?? r.plannedAt, start), rusted: isRusted(r), areaPercent: r.areaPercent };
+  });
   return { interval: firstRustInterval(outcomes, 0), scoredInspections: rows.length };
 }

@@ -55,10 +55,12 @@ export interface SpecimenOutcome extends Omit<PlacementInput, "fromAt" | "toAt">
   weepingSeen: boolean;
 }
 
-/** Days since start, rounded to 0.01 day (≈15 min): finer than any inspection spacing, and it makes
- * specimens seen at the same inspection tie exactly, as the survival tallies expect. */
+/** Days since start of an inspection's actual time, rounded to 0.1 day (2.4 h): finer than any
+ * inspection spacing (a day or more), coarse enough that an inspection done an hour after its planned
+ * time reads as its planned day, and it makes specimens seen at the same inspection tie exactly, as the
+ * survival tallies expect. The score page and the comparison both use it. */
 export function dayOf(at: Date, startAt: Date): number {
-  return Math.round(Math.max(0, (at.getTime() - startAt.getTime()) / MS_PER_DAY) * 100) / 100;
+  return Math.round(Math.max(0, (at.getTime() - startAt.getTime()) / MS_PER_DAY) * 10) / 10;
 }
 
 export function deriveSpecimenOutcomes(input: {
