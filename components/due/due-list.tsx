@@ -7,7 +7,7 @@ import { formatDateTime } from "@/lib/format";
 import { STATUS_RULE_TEXT } from "@/lib/schedule";
 
 type Item = { id: string; trialId: string; trialTitle: string; dayNumber: number; plannedAt: string; status: "due" | "overdue" | "upcoming" | "done"; rescheduleReason: string | null };
-type Answer = { items: Item[]; total: number; now: string; graceHours: number };
+type Answer = { items: Item[]; total: number; totalCapped: boolean; now: string; graceHours: number };
 const REFRESH_MS = 60_000;
 const WEEK_MS = 7 * 86_400_000;
 
@@ -91,7 +91,7 @@ export function DueList() {
           <Group id="overdue-h" title="Overdue" items={overdue} empty="Nothing overdue." />
           <Group id="today-h" title="Today (UTC)" items={today} empty="Nothing else planned for today." />
           <Group id="week-h" title="The next seven days" items={week} empty="Nothing planned in the coming week. Running trials list their full schedule on their Schedule tab." />
-          {data.total > items.length && <p className="text-sm muted">Showing the first {items.length} of {data.total}.</p>}
+          {data.total > items.length && <p className="text-sm muted">Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</p>}
           <p className="text-xs muted max-w-3xl">{STATUS_RULE_TEXT} Grace period: {data.graceHours} h. Only running trials are listed.</p>
         </>
       )}

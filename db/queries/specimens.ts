@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
+import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { can, type Permission, type Role } from "@/lib/auth/permissions";
 import { parseSpecimenCsv, type CsvRowError, type SpecimenInput, type SpecimenListParams } from "@/lib/validation/specimens";
@@ -38,11 +38,12 @@ export async function listSpecimens({ labId, q, materialClass, sort, dir, page, 
   const where = listWhere({ labId, q, materialClass });
   const col = SORT_COLUMNS[sort];
   const order = dir === "desc" ? sql`${col} desc nulls last` : sql`${col} asc nulls last`;
-  const [rows, [{ total }]] = await Promise.all([
-    db.select().from(specimens).where(where).orderBy(order, asc(specimens.label), asc(specimens.id)).limit(pageSize).offset((page - 1) * pageSize),
-    db.select({ total: count() }).from(specimens).where(where),
-  ]);
-  return { rows, total, page, pageSize };
+  // One round trip: the count is an uncorrelated scalar subquery beside the page (see listInspections).
+  const counted = db.select({ total: sql<number>`count(*)::int` }).from(specimens).where(where);
+  const page_ = await db.select({ row: specimens, total: sql<number>`(${counted})` }).from(specimens).where(where)
+    .orderBy(order, asc(specimens.label), asc(specimens.id)).limit(pageSize).offset((page - 1) * pageSize);
+  const total = page_.length ? page_[0].total : page === 1 ? 0 : (await counted)[0].total;
+  return { rows: page_.map((r) => r.row), total, page, pageSize };
 }
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;

@@ -1,21 +1,16 @@
 // Resolve who is calling and in which lab, and check one permission. Every server action and
 // route handler goes through requireLab (via labAction / labRoute); nothing trusts the UI.
 import { cache } from "react";
-import { getServerSession } from "next-auth";
 import { getMembership } from "@/db/queries/memberships";
 import { AppError } from "./errors";
-import { authOptions } from "./options";
 import { can, type Permission, type Role } from "./permissions";
+import { readSessionIdentity, type SessionIdentity } from "./session";
 
-export type SessionIdentity = { userId: string; labId: string | null } | null;
+export type { SessionIdentity };
 export type LabContext = { userId: string; labId: string; role: Role; labName: string };
 
 // Per request (React cache): the layout and the page both ask, but the session is decoded once.
-export const currentIdentity = cache(async (): Promise<SessionIdentity> => {
-  const s = await getServerSession(authOptions);
-  if (!s?.userId) return null;
-  return { userId: s.userId, labId: s.labId };
-});
+export const currentIdentity = cache(readSessionIdentity);
 
 // Read fresh from the database on every request (a changed role applies at once), but once per request.
 const membershipOf = cache((userId: string, labId: string) => getMembership({ userId, labId }));

@@ -5,6 +5,7 @@ import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { users } from "@/db/schema";
 import { getMembership, listUserLabs } from "@/db/queries/memberships";
+import { decode, encode } from "./jwt";
 import { verifyPassword } from "./password";
 
 export const MAX_FAILED_SIGN_INS = 5;
@@ -31,6 +32,7 @@ export async function checkCredentials(emailRaw: string, password: string) {
 
 export const authOptions: NextAuthOptions = {
   session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
+  jwt: { encode, decode },
   pages: { signIn: "/sign-in" },
   secret: process.env.NEXTAUTH_SECRET,
   providers: [

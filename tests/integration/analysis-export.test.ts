@@ -4,7 +4,7 @@ import { createHash } from "node:crypto";
 import JSZip from "jszip";
 import Papa from "papaparse";
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
-import { getServerSession } from "next-auth";
+import { readSessionIdentity } from "@/lib/auth/session";
 import { closeDb } from "@/db/client";
 import { GET as getCsv } from "@/app/api/trials/[trialId]/export/outcomes.csv/route";
 import { GET as getZip } from "@/app/api/trials/[trialId]/export/datapackage.zip/route";
@@ -14,8 +14,8 @@ import { OUTCOME_TABLE } from "@/lib/export/trial-tables";
 import { createTestLab, type TestLab } from "../support/db";
 import { buildHandTrial, type HandTrial } from "./analysis-fixtures";
 
-vi.mock("next-auth", () => ({ getServerSession: vi.fn() }));
-const session = vi.mocked(getServerSession);
+vi.mock("@/lib/auth/session", () => ({ readSessionIdentity: vi.fn() }));
+const session = vi.mocked(readSessionIdentity);
 
 let lab: TestLab;
 let other: TestLab;

@@ -1,14 +1,14 @@
 // Outcomes derived from scores in the database, and the JSON analysis endpoint's answers and refusals.
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
-import { getServerSession } from "next-auth";
+import { readSessionIdentity } from "@/lib/auth/session";
 import { closeDb } from "@/db/client";
 import { getAnalysisTrial, getTrialAnalysis, loadSpecimenOutcomes } from "@/db/queries/analysis";
 import { GET as getAnalysis } from "@/app/api/trials/[trialId]/analysis/route";
 import { createTestLab, type TestLab } from "../support/db";
 import { buildHandTrial, type HandTrial } from "./analysis-fixtures";
 
-vi.mock("next-auth", () => ({ getServerSession: vi.fn() }));
-const session = vi.mocked(getServerSession);
+vi.mock("@/lib/auth/session", () => ({ readSessionIdentity: vi.fn() }));
+const session = vi.mocked(readSessionIdentity);
 
 let lab: TestLab;
 let other: TestLab;

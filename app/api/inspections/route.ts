@@ -1,6 +1,6 @@
 // GET /api/inspections — the lab's inspections (?trialId&status=open|done|overdue|all&before&page&pageSize).
 // "open" = not done in a running trial, earliest first; each item carries its status (due/overdue/…).
-// total stops at 10,000 (totalCapped: true beyond that).
+// total stops at 1,000 (totalCapped: true beyond that).
 import { NextResponse } from "next/server";
 import { listInspections, OVERDUE_GRACE_HOURS } from "@/db/queries/inspections";
 import { labRoute } from "@/lib/auth/route";
