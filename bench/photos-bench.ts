@@ -35,11 +35,22 @@ type Signed = { key: string; url: string; headers: Record<string, string> };
 
 const MB = 1024 * 1024;
 
-/** utime + stime of a process in seconds, from /proc (Linux). */
+/** utime + stime of a process and its direct children (the app's cluster workers) in seconds, from /proc (Linux). */
 function cpuSeconds(pid: number): number {
-  const stat = fs.readFileSync(`/proc/${pid}/stat`, "utf8");
-  const fields = stat.slice(stat.lastIndexOf(")") + 2).split(" ");
-  return (Number(fields[11]) + Number(fields[12])) / 100; // USER_HZ is 100 on Linux
+  const stat = (p: string) => {
+    const text = fs.readFileSync(`/proc/${p}/stat`, "utf8");
+    return text.slice(text.lastIndexOf(")") + 2).split(" ");
+  };
+  let total = 0;
+  for (const p of fs.readdirSync("/proc").filter((d) => /^\d+$/.test(d))) {
+    try {
+      const f = stat(p);
+      if (Number(p) === pid || Number(f[1]) === pid) total += (Number(f[11]) + Number(f[12])) / 100; // USER_HZ is 100 on Linux
+    } catch {
+      // the process ended while we looked
+    }
+  }
+  return total;
 }
 
 // One keep-alive agent per scheme, as a browser keeps its connections to the storage host.

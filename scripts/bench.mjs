@@ -34,7 +34,7 @@ try {
   run(bin("tsx"), ["db/seed.ts"], env, "seeding the demo lab");
   run(bin("tsx"), ["db/seed-large.ts"], env, "adding the large demo (5,000 specimens, 100,000 inspections, 500,000 readings)");
   buildIfChanged(env);
-  app = spawn(bin("next"), ["start", "-p", port], { cwd: root, env, stdio: ["ignore", "ignore", "inherit"] });
+  app = spawn(process.execPath, ["scripts/serve.mjs"], { cwd: root, env, stdio: ["ignore", "ignore", "inherit"] });
   await waitForHttp(`${appUrl}/sign-in`);
   env.APP_PID = String(app.pid); // lets benches read the app server's CPU time
   const files = fs.readdirSync(path.join(root, "bench")).filter((f) => f.endsWith("-bench.ts") && (!only.length || only.some((o) => f.includes(o)))).sort();

@@ -30,7 +30,7 @@ try {
   buildIfChanged(env);
   const worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], { cwd: root, env, stdio: "inherit" });
   children.push(worker);
-  const next = spawn(bin("next"), ["start", "-p", env.PORT], { cwd: root, env, stdio: "inherit" });
+  const next = spawn(process.execPath, ["scripts/serve.mjs"], { cwd: root, env, stdio: "inherit" });
   children.push(next);
   console.log(`\nRustline: ${env.APP_URL}  (demo logins in README.md; Ctrl-C stops everything this started)\n`);
   next.on("exit", (code) => shutdown(code ?? 0));

@@ -36,7 +36,7 @@ try {
   ensureChromium();
   const worker = spawn(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/worker.ts"], { cwd: root, env: { ...env, WORKER_POLL_S: "1", REMINDER_RETRY_DELAY_S: "1" }, stdio: ["ignore", "inherit", "inherit"] });
   children.push(worker);
-  const next = spawn(bin("next"), ["start", "-p", testPort], { cwd: root, env, stdio: ["ignore", "ignore", "inherit"] });
+  const next = spawn(process.execPath, ["scripts/serve.mjs"], { cwd: root, env: { ...env, PORT: testPort }, stdio: ["ignore", "ignore", "inherit"] });
   children.push(next);
   await waitForHttp(`${appUrl}/sign-in`);
   const report = path.join(root, ".data", "vitest-report.json");

@@ -4,11 +4,13 @@
 import { useCallback, useEffect, useState } from "react";
 import Link from "next/link";
 import { formatDateTime } from "@/lib/format";
-import { STATUS_RULE_TEXT } from "@/lib/schedule";
+import { DUE_PAGE_SIZE, STATUS_RULE_TEXT } from "@/lib/schedule";
 
 type Item = { id: string; trialId: string; trialTitle: string; dayNumber: number; plannedAt: string; status: "due" | "overdue" | "upcoming" | "done"; rescheduleReason: string | null };
 type Answer = { items: Item[]; total: number; totalCapped: boolean; now: string; graceHours: number };
 const REFRESH_MS = 60_000;
+const DUE_PAGE = DUE_PAGE_SIZE;
+const DUE_MAX = 500; // the API's largest page
 const WEEK_MS = 7 * 86_400_000;
 
 function startOfTomorrowUtc(now: Date) {
@@ -40,12 +42,13 @@ export function DueList() {
   const [data, setData] = useState<Answer | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [loading, setLoading] = useState(false);
+  const [limit, setLimit] = useState(DUE_PAGE);
 
   const load = useCallback(async () => {
     setLoading(true);
     try {
       const before = new Date(Date.now() + WEEK_MS).toISOString();
-      const res = await fetch(`/api/inspections?status=open&pageSize=500&before=${encodeURIComponent(before)}`, { cache: "no-store" });
+      const res = await fetch(`/api/inspections?status=open&pageSize=${limit}&before=${encodeURIComponent(before)}`, { cache: "no-store" });
       if (!res.ok) {
         const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
         throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
@@ -57,7 +60,7 @@ export function DueList() {
     } finally {
       setLoading(false);
     }
-  }, []);
+  }, [limit]);
 
   useEffect(() => {
     void load();
@@ -91,7 +94,14 @@ export function DueList() {
           <Group id="overdue-h" title="Overdue" items={overdue} empty="Nothing overdue." />
           <Group id="today-h" title="Today (UTC)" items={today} empty="Nothing else planned for today." />
           <Group id="week-h" title="The next seven days" items={week} empty="Nothing planned in the coming week. Running trials list their full schedule on their Schedule tab." />
-          {data.total > items.length && <p className="text-sm muted">Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</p>}
+          {data.total > items.length && (
+            <p className="text-sm muted flex flex-wrap items-center gap-3">
+              <span>Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</span>
+              {limit < DUE_MAX
+                ? <button type="button" className="btn-quiet" disabled={loading} onClick={() => setLimit((l) => Math.min(DUE_MAX, l + DUE_PAGE))}>Show {DUE_PAGE} more</button>
+                : <span>Each trial&apos;s Schedule tab lists all of its inspections.</span>}
+            </p>
+          )}
           <p className="text-xs muted max-w-3xl">{STATUS_RULE_TEXT} Grace period: {data.graceHours} h. Only running trials are listed.</p>
         </>
       )}

@@ -17,5 +17,5 @@ const columns: ColumnDef<SpecimenRow, unknown>[] = [
 ];
 
 export function SpecimenTable(props: { data: SpecimenRow[]; total: number; page: number; pageSize: number; sort: string; dir: "asc" | "desc" }) {
-  return <UrlTable caption="Specimens" columns={columns} getRowId={(r) => r.id} {...props} />;
+  return <UrlTable caption="Specimens" columns={columns} getRowId={(r) => r.id} endpoint="/api/specimens" {...props} />;
 }

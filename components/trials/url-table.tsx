@@ -1,6 +1,10 @@
 "use client";
 // A TanStack table whose sort and page live in the URL search params; the server sorts and pages,
 // so this only renders one page and rewrites the URL (filters are plain GET forms beside it).
+// With `endpoint` (a JSON list route answering { items, total, page, pageSize }), sorting and paging
+// fetch just the rows from it and push the URL with history.pushState (which Next's router follows),
+// instead of rendering the page again on the server; links still work without JavaScript.
+import { useEffect, useState, type MouseEvent } from "react";
 import Link from "next/link";
 import { usePathname, useRouter, useSearchParams } from "next/navigation";
 import { flexRender, getCoreRowModel, useReactTable, type ColumnDef, type SortingState } from "@tanstack/react-table";
@@ -15,7 +19,11 @@ export type UrlTableProps<T> = {
   sort?: string;
   dir?: "asc" | "desc";
   getRowId: (row: T) => string;
+  /** JSON list route for client-side sorting and paging (same query parameters as the page). */
+  endpoint?: string;
 };
+
+type View<T> = { data: T[]; total: number; page: number; pageSize: number; sort?: string; dir: "asc" | "desc"; key: string };
 
 export function useHref() {
   const path = usePathname();
@@ -31,9 +39,59 @@ export function useHref() {
   };
 }
 
-export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sort, dir = "asc", getRowId }: UrlTableProps<T>) {
+export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sort, dir = "asc", getRowId, endpoint }: UrlTableProps<T>) {
   const href = useHref();
   const router = useRouter();
+  const params = useSearchParams();
+  const key = params.toString();
+  // What the server rendered, replaced by fetched rows when the URL changes on the client; a new server
+  // render (a filter form, a refresh) wins again (React's "adjust state when a prop changes" pattern).
+  const [view, setView] = useState<View<T>>({ data, total, page, pageSize, sort, dir, key });
+  const [served, setServed] = useState(data);
+  if (served !== data) {
+    setServed(data);
+    setView({ data, total, page, pageSize, sort, dir, key });
+  }
+  const [busy, setBusy] = useState(false);
+  const [error, setError] = useState<string | null>(null);
+
+  useEffect(() => {
+    if (!endpoint || key === view.key) return;
+    const ctl = new AbortController();
+    setBusy(true);
+    fetch(`${endpoint}?${key}`, { signal: ctl.signal, cache: "no-store" })
+      .then(async (res) => {
+        const body = (await res.json().catch(() => null)) as { items?: T[]; total?: number; page?: number; pageSize?: number; error?: { message?: string } } | null;
+        if (!res.ok || !body?.items) throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
+        setView({ data: body.items, total: body.total ?? 0, page: body.page ?? 1, pageSize: body.pageSize ?? pageSize, sort: params.get("sort") ?? sort, dir: params.get("dir") === "desc" ? "desc" : params.get("dir") === "asc" ? "asc" : dir, key });
+        setError(null);
+      })
+      .catch((e: unknown) => {
+        if (ctl.signal.aborted) return;
+        setError(`Could not load these rows (${e instanceof Error ? e.message : "network error"}). The rows below are still the previous ones.`);
+      })
+      .finally(() => !ctl.signal.aborted && setBusy(false));
+    return () => ctl.abort();
+    // eslint-disable-next-line react-hooks/exhaustive-deps
+  }, [endpoint, key]);
+
+  /** Follow a sort/page link on the client when an endpoint is given (plain clicks only). */
+  const go = (url: string) => (e?: MouseEvent) => {
+    if (!endpoint) return;
+    if (e && (e.metaKey || e.ctrlKey || e.shiftKey || e.altKey || e.button !== 0)) return;
+    e?.preventDefault();
+    window.history.pushState(null, "", url);
+  };
+
+  return <TableView caption={caption} columns={columns} getRowId={getRowId} view={view} busy={busy} error={error} href={href}
+    go={go} onPageSize={(n) => (endpoint ? go(href({ pageSize: n, page: 1 }))() : router.push(href({ pageSize: n, page: 1 })))} />;
+}
+
+function TableView<T>({ caption, columns, getRowId, view, busy, error, href, go, onPageSize }: {
+  caption: string; columns: ColumnDef<T, unknown>[]; getRowId: (row: T) => string; view: View<T>; busy: boolean; error: string | null;
+  href: ReturnType<typeof useHref>; go: (url: string) => (e?: MouseEvent) => void; onPageSize: (n: string) => void;
+}) {
+  const { data, total, page, pageSize, sort, dir } = view;
   const sorting: SortingState = sort ? [{ id: sort, desc: dir === "desc" }] : [];
   const table = useReactTable({
     data, columns, getRowId, state: { sorting }, manualSorting: true, manualPagination: true, manualFiltering: true,
@@ -44,7 +102,8 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
   const last = Math.min(total, page * pageSize);
   return (
     <div className="space-y-2">
-      <div className="panel overflow-x-auto">
+      {error && <p role="alert" className="text-sm rounded-md px-3 py-2 bg-rust-50 text-rust-800">{error}</p>}
+      <div className="panel overflow-x-auto" aria-busy={busy}>
         <table className="data">
           <caption className="sr-only">{caption}</caption>
           <thead>
@@ -58,7 +117,7 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
                   return (
                     <th key={h.id} scope="col" aria-sort={active ? (dir === "asc" ? "ascending" : "descending") : undefined}>
                       {canSort ? (
-                        <Link className="hover:underline" href={href({ sort: h.column.id, dir: active && dir === "asc" ? "desc" : "asc", page: 1 })}>
+                        <Link className="hover:underline" href={href({ sort: h.column.id, dir: active && dir === "asc" ? "desc" : "asc", page: 1 })} onClick={go(href({ sort: h.column.id, dir: active && dir === "asc" ? "desc" : "asc", page: 1 }))}>
                           {label} <span aria-hidden="true">{active ? (dir === "asc" ? "▲" : "▼") : "↕"}</span>
                         </Link>
                       ) : label}
@@ -78,12 +137,12 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
         </table>
       </div>
       <nav aria-label={`${caption} pages`} className="flex flex-wrap items-center gap-3 text-sm">
-        <span className="muted" role="status">{first}–{last} of {total}</span>
-        {page > 1 ? <Link className="btn-quiet" href={href({ page: page - 1 })}>Previous</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Previous</span>}
+        <span className="muted" role="status">{busy ? "Loading…" : `${first}–${last} of ${total}`}</span>
+        {page > 1 ? <Link className="btn-quiet" href={href({ page: page - 1 })} onClick={go(href({ page: page - 1 }))}>Previous</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Previous</span>}
         <span>Page {page} of {pages}</span>
-        {page < pages ? <Link className="btn-quiet" href={href({ page: page + 1 })}>Next</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Next</span>}
+        {page < pages ? <Link className="btn-quiet" href={href({ page: page + 1 })} onClick={go(href({ page: page + 1 }))}>Next</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Next</span>}
         <label className="inline-flex items-center gap-2">Rows per page
-          <select className="field py-1" style={{ width: "5rem" }} value={pageSize} onChange={(e) => router.push(href({ pageSize: e.target.value, page: 1 }))}>
+          <select className="field py-1" style={{ width: "5rem" }} value={pageSize} onChange={(e) => onPageSize(e.target.value)}>
             {[25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
           </select>
         </label>

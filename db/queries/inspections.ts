@@ -40,7 +40,10 @@ export async function listInspections({ labId, trialId, status = "all", before, 
   const order = status === "done" ? [desc(inspections.doneAt), asc(inspections.id)] : [asc(inspections.plannedAt), asc(inspections.id)];
   // The count rides along as an uncorrelated scalar subquery (computed once), so a page costs one round
   // trip instead of two; only a page past the end needs the count on its own.
-  const counted = db.select({ one: sql`1` }).from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).where(w).limit(COUNT_CAP + 1);
+  // Ordered like the page, so PostgreSQL walks the same index and stops at the cap: unordered, it
+  // estimated "open" and "planned before next week" as independent and scanned the whole table
+  // (7.5 ms on the large demo instead of 0.4 ms).
+  const counted = db.select({ one: sql`1` }).from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).where(w).orderBy(...order).limit(COUNT_CAP + 1);
   const rows = await db.select({ ...columns, total: sql<number>`(select count(*)::int from (${counted}) as capped)` })
     .from(inspections).innerJoin(trials, eq(trials.id, inspections.trialId)).leftJoin(users, eq(users.id, inspections.doneBy))
     .where(w).orderBy(...order).limit(pageSize).offset((page - 1) * pageSize);

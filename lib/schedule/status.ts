@@ -48,3 +48,6 @@ export function dueWithin<T extends InspectionTiming>(list: readonly T[], now: D
     .filter((i) => i.doneAt == null && i.plannedAt.getTime() <= limit)
     .sort((a, b) => a.plannedAt.getTime() - b.plannedAt.getTime());
 }
+
+/** The due page asks for this many open inspections at a time (earliest first) and offers more, up to 500. */
+export const DUE_PAGE_SIZE = 50;

@@ -5,6 +5,7 @@ import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, specimenListSchema } from "@/lib/validation/specimens";
 import { SpecimenTable } from "@/components/specimens/specimen-table";
+import { UrlHiddenInputs } from "@/components/trials/url-hidden-inputs";
 import { EmptyState } from "@/components/ui/empty-state";
 
 export const metadata = { title: "Specimens" };
@@ -35,9 +36,7 @@ export default async function SpecimensPage({ searchParams }: { searchParams: Pr
             {MATERIAL_CLASSES.map((c) => <option key={c} value={c}>{MATERIAL_CLASS_LABELS[c]}</option>)}
           </select>
         </label>
-        <input type="hidden" name="sort" value={params.sort} />
-        <input type="hidden" name="dir" value={params.dir} />
-        <input type="hidden" name="pageSize" value={params.pageSize} />
+        <UrlHiddenInputs defaults={{ sort: params.sort, dir: params.dir, pageSize: params.pageSize }} />
         <button className="btn-quiet">Filter</button>
         {filtered && <Link className="link text-sm" href="/specimens">Clear filter</Link>}
       </form>

@@ -1,0 +1,52 @@
+// Serve the built app: WEB_CONCURRENCY Next.js server processes (default: one per CPU core, at most 4)
+// sharing PORT through node:cluster, each a Next.js custom server (next({ dev: false })). One Node
+// process renders on one core; on a 2-core machine the second process roughly doubles what the app can
+// answer under load (see README, Benchmarks). A worker that dies is replaced; SIGTERM/SIGINT stop all.
+import cluster from "node:cluster";
+import http from "node:http";
+import os from "node:os";
+import path from "node:path";
+import { fileURLToPath } from "node:url";
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
+const port = Number(process.env.PORT ?? 3000);
+const workers = Math.max(1, Number(process.env.WEB_CONCURRENCY ?? Math.min(4, os.availableParallelism?.() ?? os.cpus().length)));
+
+if (cluster.isPrimary) {
+  let stopping = false;
+  const recentDeaths = [];
+  const stop = (signal) => {
+    stopping = true;
+    for (const w of Object.values(cluster.workers ?? {})) w?.process.kill(signal);
+    setTimeout(() => process.exit(0), 5000).unref();
+  };
+  process.on("SIGTERM", () => stop("SIGTERM"));
+  process.on("SIGINT", () => stop("SIGTERM"));
+  cluster.on("exit", (worker, code, signal) => {
+    if (stopping) {
+      if (!Object.keys(cluster.workers ?? {}).length) process.exit(0);
+      return;
+    }
+    const now = Date.now();
+    recentDeaths.push(now);
+    while (recentDeaths.length && now - recentDeaths[0] > 30_000) recentDeaths.shift();
+    if (recentDeaths.length > 3) {
+      console.error(`[serve] app workers keep exiting (last: code ${code}, signal ${signal}); stopping.`);
+      stop("SIGTERM");
+      process.exitCode = 1;
+      return;
+    }
+    console.error(`[serve] an app worker exited (code ${code}, signal ${signal}); starting another.`);
+    cluster.fork();
+  });
+  for (let i = 0; i < workers; i++) cluster.fork();
+  console.log(`[serve] ${workers} app process${workers === 1 ? "" : "es"} on port ${port}`);
+} else {
+  const { default: next } = await import("next");
+  const app = next({ dev: false, dir: root, hostname: "localhost", port });
+  await app.prepare();
+  const handle = app.getRequestHandler();
+  const server = http.createServer((req, res) => handle(req, res));
+  server.listen(port);
+  process.on("SIGTERM", () => server.close(() => process.exit(0)));
+}
