@@ -7,8 +7,8 @@ export type Db = NodePgDatabase<typeof schema>;
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 export type DbOrTx = Db | Tx;
 
-// Reads run as named prepared statements (pg's `name` option), so each connection parses and plans a
-// query shape once instead of on every call: on the large demo, planning the due list's join took longer
+// Reads run as named prepared statements (pg's `name` option) with generic plans, so each connection
+// parses and plans a query shape once instead of on every call: on the large demo, planning the due list's join took longer
 // than running it. The name is a hash of the SQL text (values stay parameters), only for SELECTs up to
 // 8 kB, and at most STATEMENTS_PER_CONNECTION per connection; anything else runs unnamed as before.
 export const STATEMENTS_PER_CONNECTION = 200;
@@ -47,7 +47,13 @@ export function getPool(): pg.Pool {
   if (!g.rustlinePool) {
     const url = process.env.DATABASE_URL;
     if (!url) throw new Error("DATABASE_URL is not set");
-    g.rustlinePool = new pg.Pool({ connectionString: url, max: Number(process.env.PG_POOL_MAX ?? 10), connectionTimeoutMillis: 5000 });
+    g.rustlinePool = new pg.Pool({
+      connectionString: url, max: Number(process.env.PG_POOL_MAX ?? 10), connectionTimeoutMillis: 5000,
+      // Named statements keep one generic plan instead of re-planning with each call's values: PostgreSQL's
+      // "auto" mode kept re-planning the due list and the lab home (their date bounds make custom plans look
+      // cheaper), which cost more than running them. Benchmarked on the large demo (README, Benchmarks).
+      options: "-c plan_cache_mode=force_generic_plan",
+    });
     // An idle client losing its server (a restart) must not crash the process.
     g.rustlinePool.on("error", (err) => console.error("[db] idle client error:", err.message));
     g.rustlinePool.on("connect", nameStatements);

@@ -44,7 +44,7 @@ it(`stops naming after ${STATEMENTS_PER_CONNECTION} shapes on one connection and
     expect(namedStatementsOf(client)).toBe(STATEMENTS_PER_CONNECTION);
     expect((await prepared(client)).filter((r) => r.name.startsWith("rl_")).length).toBe(STATEMENTS_PER_CONNECTION);
   } finally {
-    client.release();
+    client.release(true); // close this full connection so later tests get one with room
   }
 });
 
@@ -56,4 +56,18 @@ it("runs Drizzle's queries through the same path with correct results", async ()
     expect(row.name).toBe("Prepared statements lab");
   }
   await db.delete(s.labs).where(eq(s.labs.id, lab.id));
+});
+
+it("plans named statements once per connection (plan_cache_mode = force_generic_plan)", async () => {
+  const client = await getPool().connect();
+  try {
+    expect((await client.query("show plan_cache_mode")).rows[0].plan_cache_mode).toBe("force_generic_plan");
+    const text = "select count(*)::int as n from labs where created_at <= $1";
+    for (let i = 0; i < 3; i++) await client.query({ text, values: [new Date()] });
+    const [row] = (await client.query<{ generic_plans: string; custom_plans: string }>("select generic_plans, custom_plans from pg_prepared_statements where name = $1", [statementName(text)])).rows;
+    expect(Number(row.generic_plans)).toBe(3);
+    expect(Number(row.custom_plans)).toBe(0);
+  } finally {
+    client.release();
+  }
 });
