@@ -24,8 +24,7 @@ const nextConfig: NextConfig = {
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   serverExternalPackages: ["@node-rs/argon2", "sharp", "pg-boss", "s3rver"],
-  // Logger CSV imports stream through a route handler; the proxy would otherwise cut bodies at 10 MB.
-  experimental: { serverActions: { bodySizeLimit: "2mb" }, proxyClientMaxBodySize: "60mb" },
+  experimental: { serverActions: { bodySizeLimit: "2mb" } },
   async headers() {
     return [
       {

@@ -1,12 +1,14 @@
 // Serve the built app: WEB_CONCURRENCY Next.js server processes (default: one per CPU core, at most 4)
-// sharing PORT through node:cluster, each a Next.js custom server (next({ dev: false })). One Node
-// process renders on one core; on a 2-core machine the second process roughly doubles what the app can
-// answer under load (see README, Benchmarks). A worker that dies is replaced; SIGTERM/SIGINT stop all.
+// sharing PORT through node:cluster, each a Next.js custom server (next({ dev: false })) behind the
+// database readiness gate (scripts/lib/readiness.mjs). One Node process renders on one core; on a 2-core
+// machine a second one adds about a quarter to what the app answers under load (README, Benchmarks).
+// A worker that dies is replaced; SIGTERM/SIGINT stop all.
 import cluster from "node:cluster";
 import http from "node:http";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { readinessGate } from "./lib/readiness.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const port = Number(process.env.PORT ?? 3000);
@@ -46,7 +48,11 @@ if (cluster.isPrimary) {
   const app = next({ dev: false, dir: root, hostname: "localhost", port });
   await app.prepare();
   const handle = app.getRequestHandler();
-  const server = http.createServer((req, res) => handle(req, res));
+  const gate = readinessGate({ databaseUrl: process.env.DATABASE_URL });
+  const server = http.createServer(async (req, res) => {
+    if (await gate.refuse(req, res)) return;
+    await handle(req, res);
+  });
   server.listen(port);
   process.on("SIGTERM", () => server.close(() => process.exit(0)));
 }

@@ -29,7 +29,7 @@ export function run(cmd, args, env, label) {
 }
 
 const sourceDirs = ["app", "components", "db", "lib", "storage", "experiments", "public"];
-const sourceFiles = ["proxy.ts", "next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
+const sourceFiles = ["next.config.ts", "tailwind.config.ts", "postcss.config.mjs", "package-lock.json", "tsconfig.json"];
 
 function walk(dir, out) {
   if (!fs.existsSync(dir)) return;

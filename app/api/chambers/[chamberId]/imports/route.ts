@@ -9,8 +9,8 @@ import { labRoute } from "@/lib/auth/route";
 import { csvImportOptionsSchema } from "@/lib/validation/chambers";
 import { z } from "zod";
 
-// The readiness proxy (proxy.ts) makes Next buffer request bodies up to 10 MB and cut the rest,
-// so files are kept below that (a 100,000-row logger file is typically 3–6 MB).
+// One logger file per import, at most 9.5 MB (a 100,000-row logger file is typically 3–6 MB); a larger
+// file is refused with a message before anything is stored.
 const MAX_IMPORT_FILE_BYTES = 9.5 * 1024 * 1024;
 
 export const POST = labRoute<{ chamberId: string }>("readings.write", async (ctx, req, { chamberId }) => {
