@@ -26,7 +26,7 @@ function Group({ id, title, items, empty }: { id: string; title: string; items: 
           {items.map((i) => (
             <li key={i.id} className="py-2 flex flex-wrap items-baseline justify-between gap-2">
               <span>
-                <Link className="link" href={`/trials/${i.trialId}/inspections/${i.id}`}>{i.trialTitle} · day {i.dayNumber}</Link>
+                <Link className="link" prefetch={false} href={`/trials/${i.trialId}/inspections/${i.id}`}>{i.trialTitle} · day {i.dayNumber}</Link>
                 {i.rescheduleReason && <span className="text-xs muted"> (rescheduled)</span>}
               </span>
               <span className={`text-sm whitespace-nowrap ${i.status === "overdue" ? "text-rust-700 font-medium" : "muted"}`}>{i.status === "overdue" ? "overdue since " : ""}{formatDateTime(i.plannedAt)}</span>

@@ -7,7 +7,7 @@ import { MATERIAL_CLASS_LABELS, type MaterialClass } from "@/lib/validation/spec
 export type SpecimenRow = { id: string; label: string; materialClass: MaterialClass; findName: string; face: string; surfacePrep: string; massG: number | null; contaminationNotes: string };
 
 const columns: ColumnDef<SpecimenRow, unknown>[] = [
-  { id: "label", header: "Label", cell: ({ row }) => <Link className="link font-medium" href={`/specimens/${row.original.id}`}>{row.original.label}</Link> },
+  { id: "label", header: "Label", cell: ({ row }) => <Link className="link font-medium" prefetch={false} href={`/specimens/${row.original.id}`}>{row.original.label}</Link> },
   { id: "materialClass", header: "Material class", cell: ({ row }) => MATERIAL_CLASS_LABELS[row.original.materialClass] },
   { id: "findName", header: "Find name", cell: ({ row }) => row.original.findName || <span className="muted">—</span> },
   { id: "face", header: "Face", enableSorting: false, cell: ({ row }) => row.original.face || <span className="muted">—</span> },

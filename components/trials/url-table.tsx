@@ -1,6 +1,7 @@
 "use client";
 // A TanStack table whose sort and page live in the URL search params; the server sorts and pages,
-// so this only renders one page and rewrites the URL (filters are plain GET forms beside it).
+// so this only renders one page and rewrites the URL (filters are plain GET forms beside it). Row links
+// in long tables use prefetch={false}: otherwise every page view asks the server for one prefetch per row.
 // With `endpoint` (a JSON list route answering { items, total, page, pageSize }), sorting and paging
 // fetch just the rows from it and push the URL with history.pushState (which Next's router follows),
 // instead of rendering the page again on the server; links still work without JavaScript.
