@@ -144,7 +144,7 @@ function TableView<T>({ caption, columns, getRowId, view, busy, error, href, go,
         {page < pages ? <Link className="btn-quiet" href={href({ page: page + 1 })} onClick={go(href({ page: page + 1 }))}>Next</Link> : <span className="btn-quiet opacity-50" aria-disabled="true">Next</span>}
         <label className="inline-flex items-center gap-2">Rows per page
           <select className="field py-1" style={{ width: "5rem" }} value={pageSize} onChange={(e) => onPageSize(e.target.value)}>
-            {[25, 50, 100].map((n) => <option key={n} value={n}>{n}</option>)}
+            {[...new Set([25, 50, 100, pageSize])].sort((a, b) => a - b).map((n) => <option key={n} value={n}>{n}</option>)}
           </select>
         </label>
       </nav>
