@@ -7,12 +7,18 @@ export type Db = NodePgDatabase<typeof schema>;
 export type Tx = Parameters<Parameters<Db["transaction"]>[0]>[0];
 export type DbOrTx = Db | Tx;
 
-// Reads run as named prepared statements (pg's `name` option) with generic plans, so each connection
-// parses and plans a query shape once instead of on every call: on the large demo, planning the due list's join took longer
+// Reads run as named prepared statements (pg's `name` option), so each connection parses and plans a
+// query shape once instead of on every call: on the large demo, planning the due list's join took longer
 // than running it. The name is a hash of the SQL text (values stay parameters), only for SELECTs up to
-// 8 kB, and at most STATEMENTS_PER_CONNECTION per connection; anything else runs unnamed as before.
+// 8 kB with at most MAX_NAMED_PARAMS values (long IN lists would each be a shape of their own), and at
+// most STATEMENTS_PER_CONNECTION per connection; anything else runs unnamed. The pool also sets
+// plan_cache_mode = force_generic_plan, which applies to every parameterized statement on these
+// connections, named or not: plans are made without looking at the values (benchmarked, README).
+// Named statements outlive a schema change on an open connection, so migrate before starting the app
+// (npm start does), and use a session-mode pooler if any (transaction-mode PgBouncer drops them).
 export const STATEMENTS_PER_CONNECTION = 200;
 const MAX_NAMED_SQL = 8_000;
+const MAX_NAMED_PARAMS = 20;
 const namedCount = new WeakMap<pg.PoolClient, number>();
 
 export function statementName(text: string): string | null {
@@ -25,7 +31,8 @@ function nameStatements(client: pg.PoolClient) {
   const seen = new Set<string>();
   namedCount.set(client, 0);
   (client as unknown as { query: (...args: unknown[]) => unknown }).query = (config: unknown, ...rest: unknown[]) => {
-    if (config && typeof config === "object" && typeof (config as pg.QueryConfig).text === "string" && !(config as pg.QueryConfig).name) {
+    const values = (config as pg.QueryConfig | null)?.values ?? (Array.isArray(rest[0]) ? rest[0] : []);
+    if (config && typeof config === "object" && typeof (config as pg.QueryConfig).text === "string" && !(config as pg.QueryConfig).name && values.length <= MAX_NAMED_PARAMS) {
       const name = statementName((config as pg.QueryConfig).text);
       if (name && (seen.has(name) || seen.size < STATEMENTS_PER_CONNECTION)) {
         seen.add(name);

@@ -12,7 +12,10 @@ import { readinessGate } from "./lib/readiness.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const port = Number(process.env.PORT ?? 3000);
-const workers = Math.max(1, Number(process.env.WEB_CONCURRENCY ?? Math.min(4, os.availableParallelism?.() ?? os.cpus().length)));
+const cores = os.availableParallelism?.() ?? os.cpus().length;
+const requested = Number.parseInt(process.env.WEB_CONCURRENCY ?? "", 10);
+const workers = Number.isFinite(requested) && requested > 0 ? requested : Math.min(4, cores);
+process.env.NODE_ENV ??= "production";
 
 if (cluster.isPrimary) {
   let stopping = false;
@@ -20,13 +23,13 @@ if (cluster.isPrimary) {
   const stop = (signal) => {
     stopping = true;
     for (const w of Object.values(cluster.workers ?? {})) w?.process.kill(signal);
-    setTimeout(() => process.exit(0), 5000).unref();
+    setTimeout(() => process.exit(process.exitCode ?? 0), 5000).unref();
   };
   process.on("SIGTERM", () => stop("SIGTERM"));
   process.on("SIGINT", () => stop("SIGTERM"));
   cluster.on("exit", (worker, code, signal) => {
     if (stopping) {
-      if (!Object.keys(cluster.workers ?? {}).length) process.exit(0);
+      if (!Object.keys(cluster.workers ?? {}).length) process.exit(process.exitCode ?? 0);
       return;
     }
     const now = Date.now();

@@ -1,7 +1,7 @@
 "use client";
 // The lab-wide due list, fetched from /api/inspections so it stays current: refreshed every 60 s and
 // whenever the tab comes back into view. Grouped: overdue, today, the rest of the coming week.
-import { useCallback, useEffect, useState } from "react";
+import { useCallback, useEffect, useRef, useState } from "react";
 import Link from "next/link";
 import { formatDateTime } from "@/lib/format";
 import { DUE_PAGE_SIZE, STATUS_RULE_TEXT } from "@/lib/schedule";
@@ -44,7 +44,10 @@ export function DueList() {
   const [loading, setLoading] = useState(false);
   const [limit, setLimit] = useState(DUE_PAGE);
 
+  // Only the newest request may update the list (a minute's refresh must not overwrite "show more").
+  const latest = useRef(0);
   const load = useCallback(async () => {
+    const id = ++latest.current;
     setLoading(true);
     try {
       const before = new Date(Date.now() + WEEK_MS).toISOString();
@@ -53,12 +56,15 @@ export function DueList() {
         const body = (await res.json().catch(() => null)) as { error?: { message?: string } } | null;
         throw new Error(body?.error?.message ?? `The server answered ${res.status}.`);
       }
-      setData((await res.json()) as Answer);
+      const answer = (await res.json()) as Answer;
+      if (id !== latest.current) return;
+      setData(answer);
       setError(null);
     } catch (e) {
+      if (id !== latest.current) return;
       setError(`Could not refresh the list: ${e instanceof Error ? e.message : "network error"}. Showing the last copy; retrying in a minute.`);
     } finally {
-      setLoading(false);
+      if (id === latest.current) setLoading(false);
     }
   }, [limit]);
 
@@ -98,7 +104,7 @@ export function DueList() {
             <p className="text-sm muted flex flex-wrap items-center gap-3">
               <span>Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</span>
               {limit < DUE_MAX
-                ? <button type="button" className="btn-quiet" disabled={loading} onClick={() => setLimit((l) => Math.min(DUE_MAX, l + DUE_PAGE))}>Show {DUE_PAGE} more</button>
+                ? <button type="button" className="btn-quiet" aria-disabled={loading} onClick={() => !loading && setLimit((l) => Math.min(DUE_MAX, l + DUE_PAGE))}>Show {DUE_PAGE} more</button>
                 : <span>Each trial&apos;s Schedule tab lists all of its inspections.</span>}
             </p>
           )}

@@ -16,6 +16,6 @@ const columns: ColumnDef<SpecimenRow, unknown>[] = [
   { id: "contamination", header: "Contamination", enableSorting: false, cell: ({ row }) => (row.original.contaminationNotes ? <span title={row.original.contaminationNotes}>noted</span> : "") },
 ];
 
-export function SpecimenTable(props: { data: SpecimenRow[]; total: number; page: number; pageSize: number; sort: string; dir: "asc" | "desc" }) {
+export function SpecimenTable(props: { data: SpecimenRow[]; total: number; page: number; pageSize: number; sort: string; dir: "asc" | "desc"; renderedQuery: string }) {
   return <UrlTable caption="Specimens" columns={columns} getRowId={(r) => r.id} endpoint="/api/specimens" {...props} />;
 }

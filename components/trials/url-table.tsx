@@ -22,7 +22,16 @@ export type UrlTableProps<T> = {
   getRowId: (row: T) => string;
   /** JSON list route for client-side sorting and paging (same query parameters as the page). */
   endpoint?: string;
+  /** The query string the server rendered these rows for (with `endpoint`). */
+  renderedQuery?: string;
 };
+
+/** A query string with its parameters in a fixed order, so two spellings of one URL compare equal. */
+export function queryKey(qs: string) {
+  const p = new URLSearchParams(qs);
+  p.sort();
+  return p.toString();
+}
 
 type View<T> = { data: T[]; total: number; page: number; pageSize: number; sort?: string; dir: "asc" | "desc"; key: string };
 
@@ -40,24 +49,31 @@ export function useHref() {
   };
 }
 
-export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sort, dir = "asc", getRowId, endpoint }: UrlTableProps<T>) {
+export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sort, dir = "asc", getRowId, endpoint, renderedQuery }: UrlTableProps<T>) {
   const href = useHref();
   const router = useRouter();
   const params = useSearchParams();
-  const key = params.toString();
-  // What the server rendered, replaced by fetched rows when the URL changes on the client; a new server
-  // render (a filter form, a refresh) wins again (React's "adjust state when a prop changes" pattern).
-  const [view, setView] = useState<View<T>>({ data, total, page, pageSize, sort, dir, key });
+  const key = queryKey(params.toString());
+  // What the server rendered (for renderedQuery — after Back the URL may say another page than the rows
+  // the router kept), replaced by fetched rows when the URL changes on the client; a new server render
+  // (a filter form, a refresh) wins again (React's "adjust state when a prop changes" pattern).
+  const servedKey = renderedQuery === undefined ? key : queryKey(renderedQuery);
+  const [view, setView] = useState<View<T>>({ data, total, page, pageSize, sort, dir, key: servedKey });
   const [served, setServed] = useState(data);
-  if (served !== data) {
-    setServed(data);
-    setView({ data, total, page, pageSize, sort, dir, key });
-  }
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
+  const [attempt, setAttempt] = useState(0);
+  if (served !== data) {
+    setServed(data);
+    setView({ data, total, page, pageSize, sort, dir, key: servedKey });
+    setError(null);
+  }
 
   useEffect(() => {
-    if (!endpoint || key === view.key) return;
+    if (!endpoint || key === view.key) {
+      setBusy(false);
+      return;
+    }
     const ctl = new AbortController();
     setBusy(true);
     fetch(`${endpoint}?${key}`, { signal: ctl.signal, cache: "no-store" })
@@ -74,7 +90,7 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
       .finally(() => !ctl.signal.aborted && setBusy(false));
     return () => ctl.abort();
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [endpoint, key]);
+  }, [endpoint, key, attempt]);
 
   /** Follow a sort/page link on the client when an endpoint is given (plain clicks only). */
   const go = (url: string) => (e?: MouseEvent) => {
@@ -84,12 +100,12 @@ export function UrlTable<T>({ caption, columns, data, total, page, pageSize, sor
     window.history.pushState(null, "", url);
   };
 
-  return <TableView caption={caption} columns={columns} getRowId={getRowId} view={view} busy={busy} error={error} href={href}
+  return <TableView caption={caption} columns={columns} getRowId={getRowId} view={view} busy={busy} error={error} href={href} retry={() => setAttempt((n) => n + 1)}
     go={go} onPageSize={(n) => (endpoint ? go(href({ pageSize: n, page: 1 }))() : router.push(href({ pageSize: n, page: 1 })))} />;
 }
 
-function TableView<T>({ caption, columns, getRowId, view, busy, error, href, go, onPageSize }: {
-  caption: string; columns: ColumnDef<T, unknown>[]; getRowId: (row: T) => string; view: View<T>; busy: boolean; error: string | null;
+function TableView<T>({ caption, columns, getRowId, view, busy, error, href, retry, go, onPageSize }: {
+  caption: string; columns: ColumnDef<T, unknown>[]; getRowId: (row: T) => string; view: View<T>; busy: boolean; error: string | null; retry: () => void;
   href: ReturnType<typeof useHref>; go: (url: string) => (e?: MouseEvent) => void; onPageSize: (n: string) => void;
 }) {
   const { data, total, page, pageSize, sort, dir } = view;
@@ -103,7 +119,12 @@ function TableView<T>({ caption, columns, getRowId, view, busy, error, href, go,
   const last = Math.min(total, page * pageSize);
   return (
     <div className="space-y-2">
-      {error && <p role="alert" className="text-sm rounded-md px-3 py-2 bg-rust-50 text-rust-800">{error}</p>}
+      {error && (
+        <p role="alert" className="text-sm rounded-md px-3 py-2 bg-rust-50 text-rust-800 flex flex-wrap items-center gap-3">
+          <span>{error}</span>
+          <button type="button" className="btn-quiet" onClick={retry}>Try again</button>
+        </p>
+      )}
       <div className="panel overflow-x-auto" aria-busy={busy}>
         <table className="data">
           <caption className="sr-only">{caption}</caption>

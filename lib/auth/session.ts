@@ -9,8 +9,10 @@ export type SessionIdentity = { userId: string; labId: string | null } | null;
 
 export async function readSessionIdentity(): Promise<SessionIdentity> {
   const [h, c] = await Promise.all([headers(), cookies()]);
+  // Only the cookie counts: getToken would also take a session token from an Authorization header.
+  const { authorization: _ignored, ...rest } = Object.fromEntries(h);
   const token = await getToken({
-    req: { headers: Object.fromEntries(h), cookies: Object.fromEntries(c.getAll().map((x) => [x.name, x.value])) } as never,
+    req: { headers: rest, cookies: Object.fromEntries(c.getAll().map((x) => [x.name, x.value])) } as never,
     secret: process.env.NEXTAUTH_SECRET,
     decode,
   });

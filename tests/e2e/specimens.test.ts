@@ -64,5 +64,19 @@ describe("specimen table", () => {
     await expect(page.getByRole("alert").filter({ hasText: "Could not load" }).textContent()).resolves.toMatch(/database is not reachable/);
     await expect(firstLabel()).resolves.toBe(labels[10]);
     await page.unroute("**/api/specimens?**");
+    await page.getByRole("button", { name: "Try again" }).click();
+    await expect.poll(firstLabel).toBe(labels[0]);
+    await expect(page.getByRole("alert").filter({ hasText: "Could not load" }).count()).resolves.toBe(0);
+  });
+
+  it("shows the rows of the URL after Back from a specimen page", async () => {
+    await page.getByRole("link", { name: "Next" }).click();
+    await expect.poll(firstLabel).toBe(labels[10]);
+    await page.getByRole("link", { name: labels[10], exact: true }).click();
+    await page.waitForURL((u) => /\/specimens\/[0-9a-f-]{36}$/.test(u.pathname));
+    await page.goBack();
+    await page.waitForURL((u) => u.pathname === "/specimens" && u.searchParams.get("page") === "2");
+    await expect.poll(firstLabel).toBe(labels[10]);
+    await expect.poll(status).toMatch(/^11–20 of /);
   });
 });

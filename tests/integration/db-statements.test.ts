@@ -25,6 +25,18 @@ it("names a SELECT by its text, so the connection parses it once and reuses it w
   }
 });
 
+it("leaves a statement with many values (a long IN list) unnamed", async () => {
+  const client = await getPool().connect();
+  try {
+    const values = Array.from({ length: 21 }, (_, i) => i);
+    const text = `select ${values.map((_, i) => `$${i + 1}::int`).join(" + ")} as total`;
+    expect((await client.query({ text, values })).rows).toEqual([{ total: 210 }]);
+    expect((await prepared(client)).some((r) => r.name === statementName(text))).toBe(false);
+  } finally {
+    client.release();
+  }
+});
+
 it("leaves writes, transaction control and very long statements unnamed", () => {
   expect(statementName("insert into labs (name) values ($1)")).toBeNull();
   expect(statementName("begin")).toBeNull();

@@ -13,7 +13,9 @@ export const metadata = { title: "Specimens" };
 export default async function SpecimensPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
-  const params = specimenListSchema.parse(await searchParams);
+  const raw = await searchParams;
+  const params = specimenListSchema.parse(raw);
+  const renderedQuery = new URLSearchParams(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string")).toString();
   const { rows, total } = await listSpecimens({ labId: ctx.labId, ...params });
   const write = can(ctx.role, "specimens.write");
   const filtered = !!(params.q || params.materialClass);
@@ -45,7 +47,7 @@ export default async function SpecimensPage({ searchParams }: { searchParams: Pr
           ? <EmptyState text="No specimen matches this filter. Clear it or try part of a label." action={{ href: "/specimens", label: "Show all specimens" }} />
           : <EmptyState text={write ? "No specimens yet. Add one, or import a CSV list of slices." : "No specimens yet. A lead or researcher adds them."} action={write ? { href: "/specimens/new", label: "Add the first specimen" } : undefined} />
       ) : (
-        <SpecimenTable data={rows} total={total} page={params.page} pageSize={params.pageSize} sort={params.sort} dir={params.dir} />
+        <SpecimenTable data={rows} total={total} page={params.page} pageSize={params.pageSize} sort={params.sort} dir={params.dir} renderedQuery={renderedQuery} />
       )}
     </div>
   );
