@@ -31,6 +31,9 @@ export async function screenshot(page: Page, name: string) {
 
 /** Run axe-core in the page and return serious/critical violations. */
 export async function axeViolations(page: Page) {
+  // Next streams the metadata (the <title>) of dynamic pages after the first bytes: check the finished page.
+  await page.waitForLoadState("load");
+  await page.waitForFunction(() => document.title.trim() !== "", undefined, { timeout: 10_000 }).catch(() => undefined);
   const source = fs.readFileSync(require.resolve("axe-core/axe.min.js"), "utf8");
   await page.addScriptTag({ content: source });
   const result = await page.evaluate(async () => {
