@@ -10,6 +10,7 @@ import { pathToFileURL } from "node:url";
 import { eq, sql } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
+import { percentiles } from "./support";
 import { createChamber, getChamber } from "@/db/queries/chambers";
 import { getChamberSeries, importReadingsFromCsv, insertReadings, type NewReading } from "@/db/queries/readings";
 import { chamberSchema, csvImportOptionsSchema, type Period } from "@/lib/validation/chambers";
@@ -32,10 +33,6 @@ function loggerCsv(rows: number, startMs: number): string {
     lines.push(`${stamp};${(33 + ((i * 7) % 40) / 20).toFixed(1).replace(".", ",")};21,${i % 10}`);
   }
   return lines.join("\n");
-}
-
-function percentile(sorted: number[], p: number): number {
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
 }
 
 export async function runChambersBench(opts: { importRows?: number; importRuns?: number; chartReadings?: number; chartRuns?: number } = {}): Promise<ChambersBenchResult> {
@@ -93,8 +90,8 @@ export async function runChambersBench(opts: { importRows?: number; importRuns?:
         if (run >= 2) runsMs.push(ms); // the first runs warm the connection pool and JIT
       }
       if (period === "all" && last!.count !== chartReadings) throw new Error(`chart saw ${last!.count} readings`);
-      const sorted = [...runsMs].sort((a, b) => a - b);
-      charts.push({ period, runsMs, p50Ms: percentile(sorted, 50), p95Ms: percentile(sorted, 95), readings: last!.count, points: last!.points.length, excursions: last!.stats.excursions.length });
+      const { p50, p95 } = percentiles([...runsMs]);
+      charts.push({ period, runsMs, p50Ms: p50, p95Ms: p95, readings: last!.count, points: last!.points.length, excursions: last!.stats.excursions.length });
     }
     const totalImportMs = importRunsMs.reduce((a, b) => a + b, 0);
     return { importRows, importRunsMs, importRowsPerSecond: (importRows * importRuns) / (totalImportMs / 1000), chartReadings, charts };

@@ -1,6 +1,7 @@
 // Time-to-first-rust statistics at trial scale: KM + Turnbull + log-rank for 10,000 specimens.
 // Run directly with `npx tsx bench/stats-bench.ts`; a bench runner can import runStatsBench().
 import { kaplanMeier, logRank, rightEndpointKm, turnbull, type IntervalObservation } from "../lib/stats/survival";
+import { mulberry32 } from "@/lib/allocation/prng"; // seeded, so runs are repeatable
 
 const SPECIMENS = 10_000;
 const GROUPS = 4;
@@ -10,16 +11,6 @@ const INSPECTION_SPACING_DAYS = 7;
 const MEAN_DAYS_TO_RUST = [40, 70, 110, 180];
 const TARGET_MS = 10;
 
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Deterministic interval data: exponential latent rust time, seen at weekly inspections. */
 export function generateTrialIntervals(seed = 20250301): IntervalObservation[][] {

@@ -4,7 +4,6 @@
 // on APP_URL: the HTTP endpoints with 20 connections (autocannon), signed in as the bench lab's lead.
 //   node --conditions=react-server --import tsx bench/trials-bench.ts
 import crypto from "node:crypto";
-import autocannon from "autocannon";
 import { eq, inArray } from "drizzle-orm";
 import { closeDb, db, getPool } from "@/db/client";
 import * as s from "@/db/schema";
@@ -12,6 +11,7 @@ import { listInspections } from "@/db/queries/inspections";
 import { listSpecimens } from "@/db/queries/specimens";
 import { hashPassword } from "@/lib/auth/password";
 import { APP_URL, signedInClient } from "../tests/support/http";
+import { loadRun, percentiles } from "./support";
 
 process.env.PG_POOL_MAX ??= "20"; // read at the first query: 20 concurrent calls need 20 connections
 const SIZE = { specimens: 5000, trials: 40, inspectionsPerTrial: 2500 };
@@ -21,10 +21,6 @@ const HTTP_SECONDS = Number(process.env.BENCH_HTTP_SECONDS ?? 10);
 const PASSWORD = `bench-${crypto.randomBytes(6).toString("hex")}-1`;
 
 type Figure = { name: string; mode: "function" | "http"; calls: number; p50: number; p95: number; max: number; errors: number };
-
-function pct(sorted: number[], p: number) {
-  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
-}
 
 async function seed() {
   const tag = crypto.randomBytes(3).toString("hex");
@@ -89,8 +85,8 @@ async function measure(name: string, call: (i: number) => Promise<unknown>): Pro
       times.push(performance.now() - t0);
     }));
   }
-  times.sort((a, b) => a - b);
-  return { name, mode: "function", calls: times.length, p50: pct(times, 50), p95: pct(times, 95), max: times[times.length - 1], errors };
+  const { p50, p95, max } = percentiles(times);
+  return { name, mode: "function", calls: times.length, p50, p95, max, errors };
 }
 
 async function appAnswers() {
@@ -102,9 +98,8 @@ async function appAnswers() {
 }
 
 async function httpFigure(name: string, path: string, cookie: string): Promise<Figure> {
-  const r = await autocannon({ url: `${APP_URL}${path}`, connections: CONCURRENCY, duration: HTTP_SECONDS, headers: { cookie } });
-  const lat = r.latency as unknown as Record<string, number>;
-  return { name, mode: "http", calls: r.requests.total, p50: lat.p50, p95: lat.p95 ?? lat.p97_5, max: lat.max, errors: r.errors + r.timeouts + r.non2xx };
+  const r = await loadRun({ url: `${APP_URL}${path}`, connections: CONCURRENCY, duration: HTTP_SECONDS, headers: { cookie } });
+  return { name, mode: "http", calls: r.requests, p50: r.p50, p95: r.p95, max: r.max, errors: r.errors + r.non2xx };
 }
 
 export async function runTrialsBench(): Promise<Figure[]> {

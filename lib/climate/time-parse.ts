@@ -2,6 +2,7 @@
 // offset, so the importer needs the zone the logger was set to. Offsets come from Intl (no date
 // library): a zone's offset at an instant is read from formatToParts and cached per 15 minutes,
 // which is finer than any real zone's transition rule and keeps 100,000-row files fast.
+import { assertKnownZone, wallToUtcMs, zoneOffsetMs } from "@/lib/time/zone";
 
 export type DateFormat = "auto" | "iso" | "ymd" | "dmy" | "mdy";
 
@@ -86,18 +87,8 @@ export function zoneResolver(timeZone: string): ZoneResolver {
   const fixed = parseOffsetMinutes(timeZone.trim());
   if (fixed !== null) return { toUtcMs: (wallMs) => wallMs - fixed * 60_000 };
 
-  let format: Intl.DateTimeFormat;
   try {
-    format = new Intl.DateTimeFormat("en-US", {
-      timeZone,
-      hourCycle: "h23",
-      year: "numeric",
-      month: "numeric",
-      day: "numeric",
-      hour: "numeric",
-      minute: "numeric",
-      second: "numeric",
-    });
+    assertKnownZone(timeZone);
   } catch {
     throw new RangeError(`Unknown time zone "${timeZone}": use an IANA name such as "Europe/Berlin" or an offset such as "+02:00"`);
   }
@@ -106,27 +97,12 @@ export function zoneResolver(timeZone: string): ZoneResolver {
   // transitions fall on whole quarter hours.
   const offsetAt = (utcMs: number): number => {
     const key = Math.floor(utcMs / CACHE_STEP_MS);
-    const hit = cache.get(key);
-    if (hit !== undefined) return hit;
-    const at = key * CACHE_STEP_MS;
-    const p: Record<string, number> = {};
-    for (const part of format.formatToParts(new Date(at))) {
-      if (part.type !== "literal") p[part.type] = Number(part.value);
+    let offset = cache.get(key);
+    if (offset === undefined) {
+      offset = zoneOffsetMs(key * CACHE_STEP_MS, timeZone);
+      cache.set(key, offset);
     }
-    const wall = Date.UTC(p.year, p.month - 1, p.day, p.hour, p.minute, p.second);
-    const offset = wall - at;
-    cache.set(key, offset);
     return offset;
   };
-  return {
-    toUtcMs(wallMs) {
-      // Two passes: guess with the offset at the wall time, then correct with the offset at the guess.
-      // A time in the autumn's repeated hour resolves to its later (standard-time) instant; a time
-      // in the spring gap, which never existed, is moved forward by the gap.
-      const first = wallMs - offsetAt(wallMs);
-      const second = wallMs - offsetAt(first);
-      if (second === first) return first;
-      return wallMs - offsetAt(second) === second ? second : Math.max(first, second);
-    },
-  };
+  return { toUtcMs: (wallMs) => wallToUtcMs(wallMs, offsetAt) };
 }

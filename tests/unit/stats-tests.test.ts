@@ -8,18 +8,8 @@ import {
   mannWhitney,
 } from "@/lib/stats/tests";
 import { chiSquareUpperTail, normalCdf } from "@/lib/stats/distributions";
+import { mulberry32 } from "@/lib/allocation/prng"; // seeded, so runs are repeatable
 
-// Small seeded PRNG so the brute-force comparisons are repeatable.
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 // All k-subsets of 0…n−1 (brute-force helper).
 function* subsets(n: number, k: number, start = 0, chosen: number[] = []): Generator<number[]> {
