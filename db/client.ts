@@ -19,7 +19,7 @@ export type DbOrTx = Db | Tx;
 export const STATEMENTS_PER_CONNECTION = 200;
 const MAX_NAMED_SQL = 8_000;
 const MAX_NAMED_PARAMS = 20;
-const namedCount = new WeakMap<pg.PoolClient, number>();
+const namesOf = new WeakMap<pg.PoolClient, Set<string>>();
 
 export function statementName(text: string): string | null {
   if (text.length > MAX_NAMED_SQL || !/^\s*(select|with)\b/i.test(text)) return null;
@@ -29,14 +29,13 @@ export function statementName(text: string): string | null {
 function nameStatements(client: pg.PoolClient) {
   const query = client.query.bind(client) as (...args: unknown[]) => unknown;
   const seen = new Set<string>();
-  namedCount.set(client, 0);
+  namesOf.set(client, seen);
   (client as unknown as { query: (...args: unknown[]) => unknown }).query = (config: unknown, ...rest: unknown[]) => {
     const values = (config as pg.QueryConfig | null)?.values ?? (Array.isArray(rest[0]) ? rest[0] : []);
     if (config && typeof config === "object" && typeof (config as pg.QueryConfig).text === "string" && !(config as pg.QueryConfig).name && values.length <= MAX_NAMED_PARAMS) {
       const name = statementName((config as pg.QueryConfig).text);
       if (name && (seen.has(name) || seen.size < STATEMENTS_PER_CONNECTION)) {
         seen.add(name);
-        namedCount.set(client, seen.size);
         config = { ...(config as pg.QueryConfig), name };
       }
     }
@@ -45,7 +44,7 @@ function nameStatements(client: pg.PoolClient) {
 }
 
 /** How many statement names a pooled connection has used (for tests). */
-export const namedStatementsOf = (client: pg.PoolClient) => namedCount.get(client) ?? 0;
+export const namedStatementsOf = (client: pg.PoolClient) => namesOf.get(client)?.size ?? 0;
 
 // One pool per process; kept on globalThis so Next's module reloading does not open a pool per import.
 const g = globalThis as unknown as { rustlinePool?: pg.Pool; rustlineDb?: Db };

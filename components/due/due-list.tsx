@@ -9,7 +9,6 @@ import { DUE_PAGE_SIZE, STATUS_RULE_TEXT } from "@/lib/schedule";
 type Item = { id: string; trialId: string; trialTitle: string; dayNumber: number; plannedAt: string; status: "due" | "overdue" | "upcoming" | "done"; rescheduleReason: string | null };
 type Answer = { items: Item[]; total: number; totalCapped: boolean; now: string; graceHours: number };
 const REFRESH_MS = 60_000;
-const DUE_PAGE = DUE_PAGE_SIZE;
 const DUE_MAX = 500; // the API's largest page
 const WEEK_MS = 7 * 86_400_000;
 
@@ -42,7 +41,7 @@ export function DueList() {
   const [data, setData] = useState<Answer | null>(null);
   const [error, setError] = useState<string | null>(null);
   const [loading, setLoading] = useState(false);
-  const [limit, setLimit] = useState(DUE_PAGE);
+  const [limit, setLimit] = useState(DUE_PAGE_SIZE);
 
   // Only the newest request may update the list (a minute's refresh must not overwrite "show more").
   const latest = useRef(0);
@@ -104,7 +103,7 @@ export function DueList() {
             <p className="text-sm muted flex flex-wrap items-center gap-3">
               <span>Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</span>
               {limit < DUE_MAX
-                ? <button type="button" className="btn-quiet" aria-disabled={loading} onClick={() => !loading && setLimit((l) => Math.min(DUE_MAX, l + DUE_PAGE))}>Show {DUE_PAGE} more</button>
+                ? <button type="button" className="btn-quiet" aria-disabled={loading} onClick={() => !loading && setLimit((l) => Math.min(DUE_MAX, l + DUE_PAGE_SIZE))}>Show {DUE_PAGE_SIZE} more</button>
                 : <span>Each trial&apos;s Schedule tab lists all of its inspections.</span>}
             </p>
           )}

@@ -6,6 +6,7 @@ import { parseSpecimenCsv, type CsvRowError, type SpecimenInput, type SpecimenLi
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { auditEvents, chambers, placements, specimens, treatments, trials } from "../schema";
+import { isUuid } from "@/lib/ids";
 
 export type Actor = { userId: string; labId: string; role: Role };
 export type Specimen = typeof specimens.$inferSelect;
@@ -46,9 +47,7 @@ export async function listSpecimens({ labId, q, materialClass, sort, dir, page, 
   return { rows: page_.map((r) => r.row), total, page, pageSize };
 }
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-/** Ids from URLs are checked before they reach SQL, so a malformed one is simply "not found". */
-export const isUuid = (v: unknown): v is string => typeof v === "string" && UUID.test(v);
+export { isUuid };
 
 export async function getSpecimen({ labId, specimenId }: { labId: string; specimenId: string }) {
   if (!isUuid(specimenId)) return null;

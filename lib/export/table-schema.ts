@@ -1,6 +1,7 @@
 // Table Schema (Frictionless): field types, how our values are written into CSV cells, and a check
 // that a CSV's header and cells agree with a schema.
 import { toCsv } from "./csv";
+import { isUuid } from "@/lib/ids";
 
 /** The field types the Table Schema specification allows. */
 export const FIELD_TYPES = [
@@ -98,12 +99,11 @@ const PATTERNS: Partial<Record<FieldType, RegExp>> = {
   year: /^\d{4}$/,
   yearmonth: /^\d{4}-\d{2}$/,
 };
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 /** Whether a cell's text can be read as its field's type (missing values always can). */
 export function cellMatches(text: string, field: Field, missingValues: readonly string[] = [""]): boolean {
   if (missingValues.includes(text)) return !field.constraints?.required;
-  if (field.type === "string" && field.format === "uuid") return UUID.test(text);
+  if (field.type === "string" && field.format === "uuid") return isUuid(text);
   if (field.type === "object" || field.type === "array") {
     try {
       const v = JSON.parse(text);

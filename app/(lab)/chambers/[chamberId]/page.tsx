@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { desiccantStatus, getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
 import { getChamberSeries, listReadingImports, listRecentReadings } from "@/db/queries/readings";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -15,6 +14,7 @@ import { ClimateSummary } from "@/components/chambers/climate-summary";
 import { DesiccantSection, HygrometerSection, ReadingsSection } from "@/components/chambers/chamber-sections";
 import { HazardPanel } from "@/components/chambers/hazard-panel";
 import { EmptyState } from "@/components/ui/empty-state";
+import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Chamber" };
 
@@ -24,10 +24,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const [{ chamberId }, sp] = await Promise.all([params, searchParams]);
-  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch((e) => {
-    if (e instanceof AppError && e.code === "not-found") notFound();
-    throw e;
-  });
+  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const period = parsePeriod(sp.period);
   const isDesiccant = chamber.kind === "desiccant";
   const [events, opening, instruments, recent, imports] = await Promise.all([

@@ -1,12 +1,12 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { getChamber } from "@/db/queries/chambers";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { ChamberForm, type ChamberFormValues } from "@/components/chambers/chamber-form";
 import { ArchiveForm } from "@/components/chambers/archive-form";
 import { updateChamberAction } from "../../actions";
+import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Edit chamber" };
 
@@ -16,10 +16,7 @@ export default async function EditChamberPage({ params }: { params: Promise<{ ch
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const { chamberId } = await params;
-  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch((e) => {
-    if (e instanceof AppError && e.code === "not-found") notFound();
-    throw e;
-  });
+  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const initial: ChamberFormValues = {
     name: chamber.name, kind: chamber.kind, saltId: str(chamber.saltId), desiccantKind: str(chamber.desiccantKind), desiccantMassG: str(chamber.desiccantMassG),
     nominalTempC: str(chamber.nominalTempC), volumeL: str(chamber.volumeL), setpointRhPercent: str(chamber.setpointRhPercent), toleranceRhPercent: str(chamber.toleranceRhPercent),

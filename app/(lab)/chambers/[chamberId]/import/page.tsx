@@ -1,10 +1,10 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { getChamber, listChamberInstruments } from "@/db/queries/chambers";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { CsvImport } from "@/components/chambers/csv-import";
+import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Import logger CSV" };
 
@@ -12,10 +12,7 @@ export default async function ImportPage({ params }: { params: Promise<{ chamber
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const { chamberId } = await params;
-  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch((e) => {
-    if (e instanceof AppError && e.code === "not-found") notFound();
-    throw e;
-  });
+  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const instruments = await listChamberInstruments({ labId: ctx.labId, chamberId });
   return (
     <div className="space-y-4 max-w-5xl">

@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { getChamber, listChamberTokens } from "@/db/queries/chambers";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { appUrl } from "@/lib/mail/send";
@@ -9,6 +8,7 @@ import { formatDateTime } from "@/lib/format";
 import { MAX_API_READINGS } from "@/lib/validation/chambers";
 import { CreateTokenForm, RevokeTokenButton } from "@/components/chambers/token-forms";
 import { EmptyState } from "@/components/ui/empty-state";
+import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Logger tokens" };
 
@@ -16,10 +16,7 @@ export default async function TokensPage({ params }: { params: Promise<{ chamber
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const { chamberId } = await params;
-  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch((e) => {
-    if (e instanceof AppError && e.code === "not-found") notFound();
-    throw e;
-  });
+  const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   if (!can(ctx.role, "chambers.tokens")) {
     return <p role="alert" className="panel p-4 text-sm">Your role ({ctx.role}) cannot manage logger tokens; ask a lead or researcher.</p>;
   }

@@ -4,15 +4,15 @@ import { db } from "@/db/client";
 import { scorerAssignment } from "@/db/queries/scores";
 import { ASTM_CATEGORIES, scorerAgreement, type PairAgreement } from "@/db/queries/scores-agreement";
 import { getTrialForLab } from "@/db/queries/scores-read";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { describeKappa } from "@/lib/stats/outcomes";
 import { BlandAltmanLazy } from "@/components/scoring/bland-altman-lazy";
 import { EmptyState } from "@/components/ui/empty-state";
+import { orNotFound } from "@/lib/auth/not-found";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Agreement between scorers" };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 const k = (x: number | undefined) => (x == null ? "—" : Number.isNaN(x) ? "undefined" : x.toFixed(2));
 const pp = (x: number) => `${x >= 0 ? "+" : "−"}${Math.abs(x).toFixed(3)}`;
 
@@ -35,8 +35,8 @@ export default async function AgreementPage({ params }: { params: Promise<{ tria
   const ctx = await getLabContext("analysis.read");
   if (!ctx) redirect("/sign-in");
   const { trialId } = await params;
-  if (!UUID.test(trialId)) notFound();
-  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  if (!isUuid(trialId)) notFound();
+  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
   const blind = (await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind && trial.status !== "concluded";
   const data = blind ? null : await scorerAgreement({ labId: ctx.labId, trialId });
 

@@ -4,26 +4,26 @@ import { listMembers } from "@/db/queries/memberships";
 import { listTrialScorers } from "@/db/queries/scores-agreement";
 import { getTrialForLab } from "@/db/queries/scores-read";
 import { listScoringQueue } from "@/db/queries/scores-queue";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { queueQuerySchema } from "@/lib/validation/scores";
 import { AssignScorerForm, ScoreRuleForm, ScorerRow } from "@/components/scoring/assign-scorers";
 import { EmptyState } from "@/components/ui/empty-state";
+import { orNotFound } from "@/lib/auth/not-found";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Scoring queue" };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export default async function ScoringQueuePage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const { trialId } = await params;
-  if (!UUID.test(trialId)) notFound();
+  if (!isUuid(trialId)) notFound();
   const sp = await searchParams;
   const q = queueQuerySchema.safeParse({ trialId, page: sp.page, show: sp.show });
   const { page, show } = q.success ? q.data : { page: 1, show: "todo" as const };
-  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
   const canScore = can(ctx.role, "scores.write");
   const lead = can(ctx.role, "scorers.assign");
   const [queue, scorers, members] = await Promise.all([

@@ -4,26 +4,22 @@ import { db } from "@/db/client";
 import { scorerAssignment } from "@/db/queries/scores";
 import { getLabPhoto, getTrialForLab } from "@/db/queries/scores-read";
 import { getBlindPhoto } from "@/db/queries/scores-queue";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
 import { ScoreLine } from "@/components/scoring/score-summary";
 import { saveScoreAction } from "../../inspections/[inspectionId]/score/[specimenId]/actions";
+import { orNotFound } from "@/lib/auth/not-found";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Blind scoring" };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-const orNotFound = (err: unknown): never => {
-  if (err instanceof AppError && err.code === "not-found") notFound();
-  throw err;
-};
 
 export default async function BlindScorePage({ params }: { params: Promise<{ trialId: string; photoId: string }> }) {
   const ctx = await getLabContext("scores.write");
   if (!ctx) redirect("/sign-in");
   const { trialId, photoId } = await params;
-  if (!UUID.test(trialId) || !UUID.test(photoId)) notFound();
+  if (!isUuid(trialId) || !isUuid(photoId)) notFound();
   const assignment = await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId });
   if (!assignment?.blind) {
     // An open scorer gets the labelled score page for the same photo.

@@ -10,15 +10,15 @@ import { PhotoCard } from "@/components/photos/photo-card";
 import { PhotoUploader } from "@/components/photos/photo-uploader";
 import { ProtocolChecklist } from "@/components/photos/protocol-checklist";
 import { RefreshWhilePending } from "@/components/photos/refresh-while-pending";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Inspection photos" };
-const UUID = /^[0-9a-f-]{36}$/i;
 
 export default async function InspectionPhotosPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
   const { trialId, inspectionId } = await params;
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
-  const target = UUID.test(trialId) && UUID.test(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
+  const target = isUuid(trialId) && isUuid(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
   if (!target) notFound();
   const { inspection, trial } = target;
   const ref = referenceTime(inspection);

@@ -3,24 +3,24 @@ import { notFound, redirect } from "next/navigation";
 import { scorerAssignment } from "@/db/queries/scores";
 import { listInspectionScoring } from "@/db/queries/scores-read";
 import { db } from "@/db/client";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { EmptyState } from "@/components/ui/empty-state";
 import { astmText } from "@/components/scoring/score-summary";
+import { orNotFound } from "@/lib/auth/not-found";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Scoring at an inspection" };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
 export default async function InspectionScoringPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
   const ctx = await getLabContext();
   if (!ctx) redirect("/sign-in");
   const { trialId, inspectionId } = await params;
-  if (!UUID.test(trialId) || !UUID.test(inspectionId)) notFound();
+  if (!isUuid(trialId) || !isUuid(inspectionId)) notFound();
   // Blind scorers must not see this list (it names specimens); their way in is the shuffled queue.
   if ((await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind) redirect(`/trials/${trialId}/scoring`);
   const data = await listInspectionScoring({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId })
-    .catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+    .catch(orNotFound);
   const { trial, inspection, rows } = data;
   const scored = rows.filter((r) => r.mine).length;
   return (

@@ -1,7 +1,6 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { getScorePage } from "@/db/queries/scores-read";
-import { AppError } from "@/lib/auth/errors";
 import { getLabContext } from "@/lib/auth/context";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -10,10 +9,11 @@ import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
 import { FirstRustNote, ScoreLine } from "@/components/scoring/score-summary";
 import { EmptyState } from "@/components/ui/empty-state";
 import { saveConsensusAction, saveScoreAction } from "./actions";
+import { orNotFound } from "@/lib/auth/not-found";
+import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Score a specimen" };
 
-const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 type Params = { trialId: string; inspectionId: string; specimenId: string };
 
 export default async function ScorePage({ params, searchParams }: { params: Promise<Params>; searchParams: Promise<{ photo?: string }> }) {
@@ -21,9 +21,9 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   if (!ctx) redirect("/sign-in");
   const { trialId, inspectionId, specimenId } = await params;
   const { photo: photoParam } = await searchParams;
-  if (![trialId, inspectionId, specimenId].every((id) => UUID.test(id))) notFound();
-  const data = await getScorePage({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId, photoId: photoParam && UUID.test(photoParam) ? photoParam : undefined })
-    .catch((err) => { if (err instanceof AppError && err.code === "not-found") notFound(); throw err; });
+  if (![trialId, inspectionId, specimenId].every(isUuid)) notFound();
+  const data = await getScorePage({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId, photoId: photoParam && isUuid(photoParam) ? photoParam : undefined })
+    .catch(orNotFound);
   // A blind scorer of this trial scores from the shuffled queue, where nothing names the specimen.
   if (data.assignment?.blind) redirect(data.photo ? `/trials/${trialId}/scoring/${data.photo.id}` : `/trials/${trialId}/scoring`);
 
