@@ -1,7 +1,4 @@
-import { notFound, redirect } from "next/navigation";
-import { getTrialAnalysis } from "@/db/queries/analysis";
-import { pageQuery } from "@/lib/analysis/params";
-import { getLabContext } from "@/lib/auth/context";
+import { loadAnalysisPage, type AnalysisPageProps } from "@/lib/analysis/page";
 import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
 import { CompareControls, ExportLinks } from "@/components/analysis/compare-controls";
@@ -13,16 +10,8 @@ import { EmptyState } from "@/components/ui/empty-state";
 
 export const metadata = { title: "Compare outcomes" };
 
-type Props = { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
-
-export default async function ComparePage({ params, searchParams }: Props) {
-  const ctx = await getLabContext("analysis.read");
-  if (!ctx) redirect("/sign-in");
-  const [{ trialId }, raw] = await Promise.all([params, searchParams]);
-  const q = pageQuery(raw);
-  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy: q.groupBy, method: q.method });
-  if (!analysis) notFound();
-  const { trial, comparison: c } = analysis;
+export default async function ComparePage(props: AnalysisPageProps) {
+  const { q, analysis, trial, c } = await loadAnalysisPage(props);
   const base = `/trials/${trial.id}/compare`;
 
   return (

@@ -1,8 +1,5 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
-import { getTrialAnalysis } from "@/db/queries/analysis";
-import { pageQuery } from "@/lib/analysis/params";
-import { getLabContext } from "@/lib/auth/context";
+import { loadAnalysisPage, type AnalysisPageProps } from "@/lib/analysis/page";
 import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
 import { ExportLinks, hrefFor } from "@/components/analysis/compare-controls";
@@ -30,16 +27,8 @@ const PRINT_CSS = `
   a.link { color: inherit; text-decoration: none; }
 }`;
 
-type Props = { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> };
-
-export default async function ReportPage({ params, searchParams }: Props) {
-  const ctx = await getLabContext("analysis.read");
-  if (!ctx) redirect("/sign-in");
-  const [{ trialId }, raw] = await Promise.all([params, searchParams]);
-  const q = pageQuery(raw);
-  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy: q.groupBy, method: q.method });
-  if (!analysis) notFound();
-  const { trial, comparison: c } = analysis;
+export default async function ReportPage(props: AnalysisPageProps) {
+  const { ctx, q, analysis, trial, c } = await loadAnalysisPage(props);
   const generated = new Date();
 
   return (
