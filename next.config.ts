@@ -24,7 +24,8 @@ const nextConfig: NextConfig = {
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
   serverExternalPackages: ["@node-rs/argon2", "sharp", "pg-boss", "s3rver"],
-  experimental: { serverActions: { bodySizeLimit: "2mb" } },
+  // authInterrupts: forbidden() answers a 403 with app/(lab)/forbidden.tsx (lib/auth/page.ts).
+  experimental: { serverActions: { bodySizeLimit: "2mb" }, authInterrupts: true },
   async headers() {
     return [
       {

@@ -6,6 +6,8 @@ export type AuditInput = {
   userId: string | null;
   entity: string;
   entityId: string;
+  /** The trial the change belongs to; inferred for trial entities and rows that carry a trialId. */
+  trialId?: string | null;
   action: "create" | "update" | "delete";
   summary?: string;
   before?: unknown;
@@ -18,6 +20,17 @@ function clean(v: unknown): unknown {
   return JSON.parse(JSON.stringify(v, (k, val) => (k === "passwordHash" || k === "tokenHash" ? undefined : val)));
 }
 
+function trialOf(e: AuditInput): string | null {
+  if (e.trialId !== undefined) return e.trialId;
+  if (e.entity === "trial") return e.entityId;
+  if (e.entity === "trial_member") return e.entityId.split(":")[0] || null;
+  for (const v of [e.after, e.before]) {
+    const id = v && typeof v === "object" ? (v as { trialId?: unknown }).trialId : undefined;
+    if (typeof id === "string") return id;
+  }
+  return null;
+}
+
 /** Write one audit event; call it with the same transaction as the change it describes. */
 export async function recordAudit(tx: DbOrTx, e: AuditInput) {
   await tx.insert(auditEvents).values({
@@ -25,6 +38,7 @@ export async function recordAudit(tx: DbOrTx, e: AuditInput) {
     userId: e.userId,
     entity: e.entity,
     entityId: e.entityId,
+    trialId: trialOf(e),
     action: e.action,
     summary: e.summary ?? null,
     before: clean(e.before),

@@ -114,7 +114,7 @@ export async function seedDemoPhotos(ids: SeedIds): Promise<number> {
     for (const r of rows) {
       await tx.update(s.scores).set({ photoId: r.id! }).where(and(eq(s.scores.inspectionId, r.inspectionId!), eq(s.scores.specimenId, r.specimenId)));
     }
-    await recordAudit(tx, { labId: ids.labId, userId: ids.technicianId, entity: "photo", entityId: ids.trialId, action: "create", summary: `Demo photos loaded (${rows.length})`, after: { photos: rows.length } });
+    await recordAudit(tx, { labId: ids.labId, userId: ids.technicianId, entity: "photo", entityId: ids.trialId, trialId: ids.trialId, action: "create", summary: `Demo photos loaded (${rows.length})`, after: { photos: rows.length } });
   });
   console.log(`[seed] ${rows.length} demo photos with previews in ${((Date.now() - t0) / 1000).toFixed(1)} s (painted rust within ${worstGap.toFixed(2)} points of the scores)`);
   return rows.length;

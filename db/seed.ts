@@ -1,6 +1,6 @@
 // Load the demo scenario (experiments/demo-lab.ts). `--if-empty` does nothing when users exist.
 import { count } from "drizzle-orm";
-import { allocate } from "@/lib/allocation";
+import { allocateByLabel } from "@/lib/allocation/allocate";
 import { createRng, randomNormal } from "@/lib/allocation/prng";
 import { hashPassword } from "@/lib/auth/password";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
@@ -59,11 +59,11 @@ async function main() {
       blockByMaterial: true, schedulePlan: demoTrial.schedulePlan, scoreRule: "primary-scorer", primaryScorerId: users.technician,
       photoProtocol: demoTrial.photoProtocol, startedAt: start, createdBy: users.researcher,
     }).returning();
-    const arms: { id: string; chamberKey: string; treatmentKey: string }[] = [];
+    const arms: { id: string; label: string; chamberKey: string; treatmentKey: string }[] = [];
     for (const c of demoChambers) {
       for (const t of demoTreatments) {
         const [row] = await tx.insert(s.trialArms).values({ labId: lab.id, trialId: trial.id, chamberId: chambers[c.key], treatmentId: treatments[t.key], label: `${c.name.split(" · ")[1]} / ${t.name}` }).returning();
-        arms.push({ id: row.id, chamberKey: c.key, treatmentKey: t.key });
+        arms.push({ id: row.id, label: row.label, chamberKey: c.key, treatmentKey: t.key });
       }
     }
     await tx.insert(s.trialMembers).values([
@@ -72,9 +72,10 @@ async function main() {
       { trialId: trial.id, userId: users.scorer, labId: lab.id, role: "technician", blind: false },
       { trialId: trial.id, userId: users.scorer, labId: lab.id, role: "scorer", blind: true },
     ]);
-    const assignment = allocate({
-      specimens: specimenRows.map((r) => ({ id: r.id, materialClass: r.materialClass })),
-      arms: arms.map((a) => ({ id: a.id })),
+    // By labels, as the allocation form does: the same seed gives the same allocation on every installation.
+    const { assignments: assignment } = allocateByLabel({
+      specimens: specimenRows,
+      arms: arms.map((a) => ({ id: a.id, label: a.label, chamberId: chambers[a.chamberKey] })),
       seed: demoTrial.allocationSeed,
       blockBy: "materialClass",
     });

@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listAuditEvents } from "@/db/queries/audit";
 import { listDueInspections, listRunningTrials } from "@/db/queries/home";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { EmptyState } from "@/components/ui/empty-state";
 import { formatDateTime } from "@/lib/format";
@@ -10,13 +9,12 @@ import { formatDateTime } from "@/lib/format";
 export const metadata = { title: "Lab home" };
 
 export default async function HomePage() {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/");
   const weekAhead = new Date(Date.now() + 7 * 86_400_000);
   const [running, due, activity] = await Promise.all([
     listRunningTrials({ labId: ctx.labId }),
     listDueInspections({ labId: ctx.labId, until: weekAhead, limit: 20 }),
-    listAuditEvents({ labId: ctx.labId, limit: 12 }),
+    listAuditEvents({ labId: ctx.labId, viewerId: ctx.userId, limit: 12 }),
   ]);
   const now = Date.now();
   return (

@@ -1,6 +1,6 @@
 // Saved scores and first-rust intervals as text (server-rendered; no interactivity).
 import { formatAstm, formatIso, type AstmDistributionLetter, type IsoRustDegree } from "@/lib/scoring/grades";
-import type { FirstRust } from "@/db/queries/scores";
+import type { SpecimenOutcome } from "@/lib/analysis/derive";
 
 type Scoreish = { spotCount: number; areaPercent: number; astmGrade: number | null; astmLetter: string | null; isoDegree: number | null; weeping: boolean; silicateChange: string };
 
@@ -24,17 +24,27 @@ export function ScoreLine({ score }: { score: Scoreish }) {
   );
 }
 
-export function FirstRustNote({ firstRust }: { firstRust: FirstRust }) {
-  const i = firstRust.interval;
-  let text: string;
-  if (!i) text = "Not scored yet: no score of record for this specimen in this trial.";
-  else if (i.upper === Infinity) text = `No rust yet: clean at every scored inspection through day ${i.lower} (censored there).`;
-  else if (i.lower === i.upper) text = `Rust at the first inspection, day ${i.upper}.`;
-  else text = `First rust appeared between day ${i.lower} and day ${i.upper}: the interval (${i.lower}, ${i.upper}] days.`;
+function intervalText(i: SpecimenOutcome["interval"]): string {
+  if (!i) return "not scored yet: no score of record at a done inspection.";
+  if (i.upper === null) return `no rust yet: clean at every scored inspection through day ${i.lower} (censored there).`;
+  if (i.lower === i.upper) return `rust at the first inspection, day ${i.upper}.`;
+  return `first rust appeared between day ${i.lower} and day ${i.upper}: the interval (${i.lower}, ${i.upper}] days.`;
+}
+
+/** The comparison's outcomes for this specimen (one per placement), as the score page shows them. */
+export function FirstRustNote({ outcomes, inspectionDone }: { outcomes: SpecimenOutcome[]; inspectionDone: boolean }) {
+  const scored = outcomes.reduce((n, o) => n + o.observations.length, 0);
   return (
-    <p className="text-sm" data-testid="first-rust">
-      <span className="font-medium">Time to first rust: </span>{text}
-      <span className="muted"> Derived from the scores of record ({firstRust.scoredInspections} scored inspection{firstRust.scoredInspections === 1 ? "" : "s"}); a correction moves it.</span>
-    </p>
+    <div className="text-sm space-y-0.5" data-testid="first-rust">
+      {outcomes.length <= 1 ? (
+        <p><span className="font-medium">Time to first rust: </span>{intervalText(outcomes[0]?.interval ?? null)}</p>
+      ) : outcomes.map((o, i) => (
+        <p key={i}><span className="font-medium">Time to first rust in {o.armLabel ?? `${o.chamberName} / ${o.treatmentName}`}: </span>{intervalText(o.interval)}</p>
+      ))}
+      <p className="muted text-xs">
+        Derived from the scores of record at done inspections ({scored} scored), the same way as the comparison; a correction moves it.
+        {!inspectionDone && " This inspection is not marked done yet, so its scores do not count until it is."}
+      </p>
+    </div>
   );
 }

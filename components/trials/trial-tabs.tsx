@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 
+const RESULT_TABS = new Set(["agreement", "compare", "report"]);
 const TABS = [
   { seg: "", label: "Overview" },
   { seg: "allocation", label: "Allocation" },
@@ -14,16 +15,17 @@ const TABS = [
   { seg: "report", label: "Report" },
 ];
 
-export function TrialTabs({ trialId }: { trialId: string }) {
+export function TrialTabs({ trialId, resultsHidden }: { trialId: string; resultsHidden: boolean }) {
   const path = usePathname();
   const base = `/trials/${trialId}`;
   return (
     <nav aria-label="Trial sections" className="no-print border-b border-[var(--line)]">
       <ul className="flex flex-wrap gap-1">
-        {TABS.map((t) => {
+        {TABS.filter((t) => !(resultsHidden && RESULT_TABS.has(t.seg))).map((t) => {
           const href = t.seg ? `${base}/${t.seg}` : base;
-          // Inspection pages belong to the schedule; the edit page to the overview.
-          const active = t.seg === "schedule" ? path.startsWith(href) || path.startsWith(`${base}/inspections`)
+          // Inspection pages belong to the schedule, score pages to Scoring; the edit page to the overview.
+          const active = t.seg === "schedule" ? path.startsWith(href) || /\/inspections\/[^/]+(\/photos)?$/.test(path)
+            : t.seg === "scoring" ? path.startsWith(href) || path.includes("/score")
             : t.seg ? path.startsWith(href) : path === base || path.startsWith(`${base}/edit`);
           return (
             <li key={t.seg}>

@@ -1,6 +1,5 @@
 import "server-only";
 import { and, asc, desc, eq, gte, inArray, isNotNull, lte, or, sql } from "drizzle-orm";
-import { z } from "zod";
 import { compareGroups, scorerAgreement, type ComparisonResult, type CurveMethod, type GradePair } from "@/lib/analysis/compare";
 import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
 import type { Grouping } from "@/lib/analysis/groups";
@@ -11,10 +10,10 @@ import {
   CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
 } from "@/lib/export/trial-tables";
 import { db } from "../client";
+import { getTrial, type Trial } from "./trial-access";
 import { chambers, inspections, photos, placements, readings, scores, specimens, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
-const isUuid = (id: string) => z.uuid().safeParse(id).success;
 
 /** Trials of the lab with what there is to analyse, newest first. */
 export async function listTrialsForAnalysis({ labId }: { labId: string }) {
@@ -32,13 +31,7 @@ export async function listTrialsForAnalysis({ labId }: { labId: string }) {
     .orderBy(desc(trials.createdAt));
 }
 
-/** The trial, only if it belongs to the lab (null otherwise, also for a malformed id). */
-export async function getAnalysisTrial({ labId, trialId }: { labId: string; trialId: string }) {
-  if (!isUuid(trialId)) return null;
-  const [row] = await db.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId))).limit(1);
-  return row ?? null;
-}
-export type AnalysisTrial = NonNullable<Awaited<ReturnType<typeof getAnalysisTrial>>>;
+export type AnalysisTrial = Trial;
 
 /** Time zero: the recorded start, else the first inspection's planned time less its plan day. */
 function startOf(trial: AnalysisTrial, done: readonly { dayNumber: number; plannedAt: Date }[]): Date | null {
@@ -47,8 +40,12 @@ function startOf(trial: AnalysisTrial, done: readonly { dayNumber: number; plann
   return first ? new Date(first.plannedAt.getTime() - first.dayNumber * DAY_MS) : null;
 }
 
-/** Done inspections, placements and scores of record of one trial, turned into per-specimen outcomes. */
-export async function loadSpecimenOutcomes({ labId, trial }: { labId: string; trial: AnalysisTrial }) {
+/**
+ * Done inspections, placements and scores of record of one trial, turned into one outcome per
+ * placement by lib/analysis/derive: the one time-to-first-rust derivation, used by the comparison,
+ * the report, the exports and the score page (which passes one specimenId).
+ */
+export async function loadSpecimenOutcomes({ labId, trial, specimenId }: { labId: string; trial: AnalysisTrial; specimenId?: string }) {
   const trialId = trial.id;
   const [placementRows, doneRows, scoreRows] = await Promise.all([
     db
@@ -63,7 +60,7 @@ export async function loadSpecimenOutcomes({ labId, trial }: { labId: string; tr
       .innerJoin(chambers, eq(chambers.id, placements.chamberId))
       .innerJoin(treatments, eq(treatments.id, placements.treatmentId))
       .leftJoin(trialArms, eq(trialArms.id, placements.armId))
-      .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId)))
+      .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId), specimenId ? eq(placements.specimenId, specimenId) : undefined))
       .orderBy(asc(specimens.label), asc(placements.fromAt)),
     db
       .select({ id: inspections.id, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
@@ -76,7 +73,7 @@ export async function loadSpecimenOutcomes({ labId, trial }: { labId: string; tr
         areaPercent: scores.areaPercent, weeping: scores.weeping, updatedAt: scores.updatedAt,
       })
       .from(scores)
-      .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true))),
+      .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true), specimenId ? eq(scores.specimenId, specimenId) : undefined)),
   ]);
   const done = doneRows.map((r) => ({ ...r, doneAt: r.doneAt! }));
   const startAt = startOf(trial, done);
@@ -120,12 +117,11 @@ export interface TrialAnalysis {
   comparison: ComparisonResult | null;
 }
 
-/** Everything the compare page, the report and the JSON endpoint show; null for another lab's trial. */
+/** Everything the compare page, the report and the JSON endpoint show; another lab's trial is not found. */
 export async function getTrialAnalysis(
   { labId, trialId, groupBy, method }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod },
-): Promise<TrialAnalysis | null> {
-  const trial = await getAnalysisTrial({ labId, trialId });
-  if (!trial) return null;
+): Promise<TrialAnalysis> {
+  const trial = await getTrial({ labId, trialId });
   const [loaded, pairs] = await Promise.all([loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId })]);
   const scored = loaded.outcomes.some((o) => o.interval);
   const comparison = scored

@@ -8,7 +8,8 @@ import { db } from "../client";
 import { OVERDUE_GRACE_HOURS } from "../jobs/reminders";
 import { chambers, inspections, placements, reminderLog, specimens, treatments, trials, users } from "../schema";
 import { assertAllowed, isUuid, type Actor } from "./specimens";
-import { assertRunningWritable, lockTrial } from "./trials";
+import { assertWritable } from "@/lib/trials/lock";
+import { lockTrial } from "./trial-access";
 
 export { OVERDUE_GRACE_HOURS };
 export type InspectionFilter = "open" | "done" | "overdue" | "all";
@@ -91,7 +92,7 @@ async function lockInspection(actor: Actor, inspectionId: string, tx: Parameters
   const [insp] = await tx.select().from(inspections).where(and(eq(inspections.labId, actor.labId), eq(inspections.id, inspectionId))).for("update");
   if (!insp) throw new AppError("not-found", "No such inspection in this lab.");
   const trial = await lockTrial(tx, actor.labId, insp.trialId);
-  assertRunningWritable(trial);
+  assertWritable(trial, "running");
   return { insp, trial };
 }
 
@@ -104,7 +105,7 @@ export async function recordInspection({ actor, inspectionId, doneAt = new Date(
     if (insp.doneAt) throw new AppError("conflict", `This inspection was already marked done at ${formatDateTime(insp.doneAt)}.`);
     if (trial.startedAt && doneAt < trial.startedAt) throw new AppError("invalid", "That is before the trial started.", { doneAt: [`Not before ${formatDateTime(trial.startedAt)}.`] });
     const [after] = await tx.update(inspections).set({ doneAt, doneBy: actor.userId, notes }).where(eq(inspections.id, insp.id)).returning();
-    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "inspection", entityId: insp.id, action: "update", summary: `Inspection day ${insp.dayNumber} of "${trial.title}" marked done`, before: insp, after });
+    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "inspection", entityId: insp.id, trialId: insp.trialId, action: "update", summary: `Inspection day ${insp.dayNumber} of "${trial.title}" marked done`, before: insp, after });
     return after;
   });
 }
@@ -119,7 +120,7 @@ export async function rescheduleInspection({ actor, inspectionId, plannedAt, rea
     const [after] = await tx.update(inspections).set({ plannedAt, rescheduleReason: reason }).where(eq(inspections.id, insp.id)).returning();
     await tx.delete(reminderLog).where(eq(reminderLog.inspectionId, insp.id));
     await recordAudit(tx, {
-      labId: actor.labId, userId: actor.userId, entity: "inspection", entityId: insp.id, action: "update",
+      labId: actor.labId, userId: actor.userId, entity: "inspection", entityId: insp.id, trialId: insp.trialId, action: "update",
       summary: `Inspection day ${insp.dayNumber} of "${trial.title}" moved from ${formatDateTime(insp.plannedAt)} to ${formatDateTime(plannedAt)}: ${reason}`, before: insp, after,
     });
     return after;

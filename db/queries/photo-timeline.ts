@@ -6,7 +6,8 @@ import { and, asc, eq, gt, inArray, isNull, lte, or } from "drizzle-orm";
 import { db } from "@/db/client";
 import { inspections, photos, placements, scores, specimens, trialArms, trials } from "@/db/schema";
 import type { Role } from "@/lib/auth/permissions";
-import { blindTrialIds, referenceTime, toPhotoView, type PhotoView, type RecordScore } from "./photos";
+import { referenceTime, toPhotoView, type PhotoView, type RecordScore } from "./photos";
+import { blindTrialIds } from "./trial-access";
 
 type InspectionRow = typeof inspections.$inferSelect;
 export type InspectionLite = { id: string; dayNumber: number; plannedAt: string; doneAt: string | null };

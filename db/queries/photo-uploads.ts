@@ -14,6 +14,7 @@ import { AppError } from "@/lib/auth/errors";
 import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
 import { PHOTO_CONTENT_TYPES, PHOTO_TYPES, formatBytes, isPhotoContentType, readPhotoConfig } from "@/lib/photos/config";
 import { extractPhotoExif } from "@/lib/photos/exif";
+import { assertWritable } from "@/lib/trials/lock";
 import { cleanFileName } from "@/lib/photos/label-match";
 import { describeSniffed, sniffImageType } from "@/lib/photos/magic";
 import type { PresignRequest } from "@/lib/photos/schemas";
@@ -21,6 +22,7 @@ import { signUploadToken, verifyUploadToken, type UploadClaim } from "@/lib/phot
 import { keyBelongsToLab, photoKey } from "@/storage/keys";
 import { deleteObject, getObjectRange, headObject, presignPut, type PresignedUpload } from "@/storage/presign";
 import { getInspectionForPhotos, isSpecimenPlaced, referenceTime } from "./photos";
+import { lockTrial } from "./trial-access";
 
 type Caller = { labId: string; userId: string };
 
@@ -44,7 +46,7 @@ export async function presignPhotoUpload({ caller, input, expiresInS }: { caller
   }
   const target = await getInspectionForPhotos({ labId: caller.labId, inspectionId: input.inspectionId });
   if (!target) throw new AppError("not-found", "That inspection does not exist in this lab.");
-  if (target.trial.status === "concluded") throw new AppError("locked", "This trial is concluded; its record is locked and takes no new photos.");
+  assertWritable(target.trial);
   const placed = await isSpecimenPlaced({ labId: caller.labId, trialId: target.trial.id, specimenId: input.specimenId, at: referenceTime(target.inspection).at });
   if (!placed) throw new AppError("invalid", "That specimen was not in this trial at this inspection.", { specimenId: ["Choose a specimen placed in the trial at this inspection."] });
 
@@ -157,9 +159,8 @@ export async function finalizePhotoUpload({
   const exif = await extractPhotoExif(head);
 
   const inserted = await db.transaction(async (tx) => {
-    const [trial] = await tx.select({ status: trials.status }).from(trials).where(and(eq(trials.id, claim.trialId), eq(trials.labId, caller.labId)));
-    if (!trial) throw new AppError("not-found", "That trial no longer exists in this lab.");
-    if (trial.status === "concluded") throw new AppError("locked", "This trial was concluded meanwhile; its record is locked and takes no new photos.");
+    // Share-locked: a conclusion arriving meanwhile waits for this insert, or refuses it first.
+    assertWritable(await lockTrial(tx, caller.labId, claim.trialId, "share"));
     const rows = await tx.insert(photos).values({
       labId: caller.labId, trialId: claim.trialId, inspectionId: claim.inspectionId, specimenId: claim.specimenId,
       objectKey: claim.key, filename: claim.filename, status: "pending", contentType: claim.contentType, sizeBytes: claim.sizeBytes,
@@ -170,7 +171,7 @@ export async function finalizePhotoUpload({
     if (!rows[0]) return null;
     // The audit trail is readable by observers, so the location is recorded only as present or not.
     await recordAudit(tx, {
-      labId: caller.labId, userId: caller.userId, entity: "photo", entityId: rows[0].id, action: "create",
+      labId: caller.labId, userId: caller.userId, entity: "photo", entityId: rows[0].id, trialId: claim.trialId, action: "create",
       summary: `Photo ${claim.filename} uploaded`,
       after: { filename: claim.filename, inspectionId: claim.inspectionId, specimenId: claim.specimenId, contentType: claim.contentType, sizeBytes: claim.sizeBytes, sha256, capturedAtRaw: exif.capturedAtRaw, capturedOffset: exif.capturedOffset, hasGps: exif.gps != null },
     });

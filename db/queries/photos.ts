@@ -3,10 +3,12 @@ import "server-only";
 // short-lived signed URLs handed out only after the lab and permission checks.
 import { and, asc, desc, eq, gt, inArray, isNull, lte, or } from "drizzle-orm";
 import { db } from "@/db/client";
-import { inspections, photos, placements, specimens, trialMembers, trials, users } from "@/db/schema";
+import { inspections, photos, placements, specimens, trials, users } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { can, type Role } from "@/lib/auth/permissions";
 import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
+import { photoForBlindViewer } from "@/lib/trials/access";
+import { blindTrialIds } from "./trial-access";
 import { readPhotoConfig } from "@/lib/photos/config";
 import type { PhotoVariant } from "@/lib/photos/schemas";
 import { presignGet } from "@/storage/presign";
@@ -46,13 +48,6 @@ export async function isSpecimenPlaced({ labId, trialId, specimenId, at }: { lab
   const rows = await db.select({ id: placements.id }).from(placements)
     .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId), eq(placements.specimenId, specimenId), placedAt(at))).limit(1);
   return rows.length > 0;
-}
-
-/** Trials in which this user scores blind: they must not see treatments or the scores of record. */
-export async function blindTrialIds({ labId, userId }: { labId: string; userId: string }): Promise<Set<string>> {
-  const rows = await db.select({ trialId: trialMembers.trialId }).from(trialMembers)
-    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
-  return new Set(rows.map((r) => r.trialId));
 }
 
 /** What pages and the API show of a photo. Location only for roles with photos.gps. */
@@ -132,25 +127,33 @@ export async function getPhotoForLab({ labId, photoId }: { labId: string; photoI
   return rows[0] ?? null;
 }
 
-export async function photoDetails({ ctx, photoId }: { ctx: { labId: string; role: Role }; photoId: string }) {
+/** Is the viewer blind for the trial this photo belongs to (not concluded)? */
+async function blindFor(ctx: { labId: string; userId: string }, trialId: string | null) {
+  return !!trialId && (await blindTrialIds({ labId: ctx.labId, userId: ctx.userId })).has(trialId);
+}
+
+export async function photoDetails({ ctx, photoId }: { ctx: { labId: string; userId: string; role: Role }; photoId: string }) {
   const row = await getPhotoForLab({ labId: ctx.labId, photoId });
   if (!row) throw new AppError("not-found", "No such photo in this lab.");
   const reference = row.plannedAt ? referenceTime({ plannedAt: row.plannedAt, doneAt: row.doneAt }) : null;
-  return { ...toPhotoView(row.p, { role: ctx.role, reference }), specimenLabel: row.specimenLabel };
+  const view = { ...toPhotoView(row.p, { role: ctx.role, reference }), specimenLabel: row.specimenLabel };
+  return (await blindFor(ctx, row.p.trialId)) ? photoForBlindViewer(view) : view;
 }
 
 /**
  * A signed GET URL (5 minutes) for one variant of a photo, after the lab check. Previews are open
  * to every member; the original carries EXIF location, so it needs photos.gps.
  */
-export async function photoFileUrl({ ctx, photoId, variant }: { ctx: { labId: string; role: Role }; photoId: string; variant: PhotoVariant }) {
+export async function photoFileUrl({ ctx, photoId, variant }: { ctx: { labId: string; userId: string; role: Role }; photoId: string; variant: PhotoVariant }) {
   const row = await getPhotoForLab({ labId: ctx.labId, photoId });
   if (!row) throw new AppError("not-found", "No such photo in this lab.");
   const p = row.p;
   const ttl = readPhotoConfig().downloadUrlTtlS;
   if (variant === "original") {
     if (!can(ctx.role, "photos.gps")) throw new AppError("forbidden", "Your role sees previews only; the original file carries its location.");
-    return { url: await presignGet({ key: p.objectKey, expiresInS: ttl, filename: p.filename, disposition: "attachment" }), expiresInS: ttl };
+    // The original file name carries the specimen label: a blind scorer's download is named by photo id.
+    const filename = (await blindFor(ctx, p.trialId)) ? `${p.id}${p.filename.match(/\.[A-Za-z0-9]{1,8}$/)?.[0] ?? ""}` : p.filename;
+    return { url: await presignGet({ key: p.objectKey, expiresInS: ttl, filename, disposition: "attachment" }), expiresInS: ttl };
   }
   const key = p.derivatives[variant];
   if (!key) throw new AppError("not-found", p.status === "failed" ? p.processingNote ?? "No preview for this photo." : "The preview is still being made.");

@@ -3,10 +3,12 @@ import "server-only";
 import { and, asc, eq, isNotNull } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { blandAltman, cohensKappa, type BlandAltmanResult } from "@/lib/stats/agreement";
+import { assertWritable } from "@/lib/trials/lock";
 import { recordAudit } from "../audit";
-import { db } from "../client";
+import { db, type Tx } from "../client";
 import { memberships, scores, trialMembers, trials, users } from "../schema";
 import { applyRecordRuleToTrial, type ScoreActor } from "./scores";
+import { lockTrial } from "./trial-access";
 
 /** ASTM D610 grades 0…10 are the kappa categories (11 of them, equally spaced for the weights). */
 export const ASTM_CATEGORIES = 11;
@@ -20,10 +22,9 @@ export async function listTrialScorers({ labId, trialId }: { labId: string; tria
     .orderBy(asc(users.name));
 }
 
-async function trialOfLab(tx: Parameters<Parameters<typeof db.transaction>[0]>[0], labId: string, trialId: string) {
-  const [trial] = await tx.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId))).for("update");
-  if (!trial) throw new AppError("not-found", "That trial does not exist.");
-  if (trial.status === "concluded") throw new AppError("locked", "This trial is concluded; its scorers are fixed.");
+async function trialOfLab(tx: Tx, labId: string, trialId: string) {
+  const trial = await lockTrial(tx, labId, trialId);
+  assertWritable(trial);
   return trial;
 }
 

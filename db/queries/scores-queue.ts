@@ -6,8 +6,8 @@ import { hashSeed } from "@/lib/allocation/prng";
 import { AppError } from "@/lib/auth/errors";
 import { db } from "../client";
 import { chambers, inspections, photos, placements, scores, specimens, treatments } from "../schema";
-import { scorerAssignment } from "./scores";
-import { getTrialForLab, marksOnPhoto, photoUrl, type PhotoForScoring } from "./scores-read";
+import { marksOnPhoto, photoUrl, type PhotoForScoring } from "./scores-read";
+import { getTrial, scorerAssignment } from "./trial-access";
 
 export const QUEUE_PAGE_SIZE = 24;
 
@@ -54,7 +54,7 @@ function pageOf<T>(all: T[], page: number): { items: T[]; page: number; pages: n
 
 export async function listScoringQueue(input: { labId: string; userId: string; trialId: string; page: number; show: "todo" | "all" }): Promise<ScoringQueue> {
   const { labId, userId, trialId } = input;
-  await getTrialForLab({ labId, trialId });
+  await getTrial({ labId, trialId });
   const assignment = await scorerAssignment(db, { labId, trialId, userId });
   const rows = await queuePhotos(labId, trialId, userId);
   const todo = rows.filter((r) => !r.mine).length;
@@ -107,7 +107,7 @@ export type BlindPhotoView = {
 
 /** One photo for blind scoring: the image and the caller's own work on it, nothing else. */
 export async function getBlindPhoto({ labId, userId, trialId, photoId }: { labId: string; userId: string; trialId: string; photoId: string }): Promise<BlindPhotoView> {
-  await getTrialForLab({ labId, trialId });
+  await getTrial({ labId, trialId });
   // Any ready photo of this trial may be opened (an older one of the same specimen and day too);
   // photos of other trials or labs answer 404.
   const [found] = await db.select({ photo: photos }).from(photos)

@@ -1,14 +1,15 @@
 import "server-only";
 // Reading what the score page needs: the trial, inspection, specimen, photos with signed display
 // URLs, the caller's score and marks, the previous inspection's marks (ghost layer), and first rust.
-import { and, asc, desc, eq, inArray, lt } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, lt, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { keyBelongsToLab } from "@/storage/keys";
 import { presignGet } from "@/storage/presign";
 import { db } from "../client";
 import { chambers, inspections, marks, photos, placements, scores, specimens, treatments, trials, users } from "../schema";
-import { firstRustForSpecimen, scorerAssignment } from "./scores";
+import { loadSpecimenOutcomes } from "./analysis";
+import { getTrial, getTrialAccess } from "./trial-access";
 
 type PhotoRow = typeof photos.$inferSelect;
 
@@ -53,21 +54,15 @@ export async function getLabPhoto({ labId, photoId }: { labId: string; photoId: 
   return photo;
 }
 
-export async function getTrialForLab({ labId, trialId }: { labId: string; trialId: string }) {
-  const [trial] = await db.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId)));
-  if (!trial) throw new AppError("not-found", "That trial does not exist.");
-  return trial;
-}
-
-/** Treatment and chamber of a specimen in a trial (its latest placement). */
-async function placementOf(labId: string, trialId: string, specimenId: string) {
+/** Treatment and chamber of a specimen in a trial at a time: the placement open then, else its latest before. */
+async function placementOf(labId: string, trialId: string, specimenId: string, at: Date) {
   const [row] = await db
     .select({ treatment: treatments.name, chamber: chambers.name })
     .from(placements)
     .innerJoin(treatments, eq(treatments.id, placements.treatmentId))
     .innerJoin(chambers, eq(chambers.id, placements.chamberId))
     .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId), eq(placements.specimenId, specimenId)))
-    .orderBy(desc(placements.fromAt))
+    .orderBy(sql`(${placements.fromAt} is null or ${placements.fromAt} <= ${at.toISOString()}::timestamptz) desc`, desc(placements.fromAt))
     .limit(1);
   return row ?? null;
 }
@@ -76,20 +71,23 @@ export type ScorePageInput = { labId: string; userId: string; trialId: string; i
 
 export async function getScorePage(input: ScorePageInput) {
   const { labId, userId, trialId, inspectionId, specimenId } = input;
-  const trial = await getTrialForLab({ labId, trialId });
+  const { trial, access } = await getTrialAccess({ labId, trialId, userId });
   const [inspection] = await db.select().from(inspections).where(and(eq(inspections.id, inspectionId), eq(inspections.labId, labId), eq(inspections.trialId, trialId)));
   if (!inspection) throw new AppError("not-found", "That inspection does not exist in this trial.");
   const [specimen] = await db.select({ id: specimens.id, label: specimens.label, materialClass: specimens.materialClass, face: specimens.face })
     .from(specimens).where(and(eq(specimens.id, specimenId), eq(specimens.labId, labId)));
-  const placement = specimen ? await placementOf(labId, trialId, specimenId) : null;
-  if (!specimen || !placement) throw new AppError("not-found", "That specimen is not in this trial.");
+  const placed = specimen ? await placementOf(labId, trialId, specimenId, inspection.doneAt ?? inspection.plannedAt) : null;
+  if (!specimen || !placed) throw new AppError("not-found", "That specimen is not in this trial.");
+  // A blind scorer sees the specimen and their own work, never its arm or anyone else's score.
+  const placement = access.blind ? null : placed;
 
-  const pairScores = await db
+  const allScores = await db
     .select({ score: scores, scorerName: users.name })
     .from(scores)
     .leftJoin(users, eq(users.id, scores.scorerId))
     .where(and(eq(scores.labId, labId), eq(scores.inspectionId, inspectionId), eq(scores.specimenId, specimenId)))
     .orderBy(asc(scores.createdAt));
+  const pairScores = access.blind ? allScores.filter((r) => r.score.scorerId === userId) : allScores;
   const mine = pairScores.find((r) => r.score.scorerId === userId)?.score ?? null;
   const record = pairScores.find((r) => r.score.isRecord) ?? null;
 
@@ -101,16 +99,16 @@ export async function getScorePage(input: ScorePageInput) {
   // Read-only viewers see the marks behind the score of record when it was made on this photo.
   const recordScorer = record?.score.scorerId && record.score.photoId === chosen?.id ? record.score.scorerId : null;
 
-  const [assignment, myMarks, recordMarks, previous, firstRust, photoList] = await Promise.all([
-    scorerAssignment(db, { labId, trialId, userId }),
+  const [myMarks, recordMarks, previous, firstRust, photoList] = await Promise.all([
     chosen ? marksOnPhoto({ labId, photoId: chosen.id, scorerId: userId }) : Promise.resolve({ face: null, marks: [] as Mark[] }),
     chosen && recordScorer ? marksOnPhoto({ labId, photoId: chosen.id, scorerId: recordScorer }) : Promise.resolve({ face: null, marks: [] as Mark[] }),
     previousOwnScore({ labId, trialId, specimenId, userId, before: inspection.plannedAt }),
-    firstRustForSpecimen(db, { labId, trialId, specimenId }),
+    // The comparison's own derivation (one outcome per placement), so both screens show the same interval.
+    access.blind ? Promise.resolve(null) : loadSpecimenOutcomes({ labId, trial, specimenId }).then((r) => r.outcomes),
     Promise.all(photoRows.map(async (p) => ({ id: p.id, filename: p.filename, thumbUrl: await photoUrl(p, "thumb") }))),
   ]);
   return {
-    trial, inspection, specimen, placement, assignment,
+    trial, access, inspection, specimen, placement,
     photo: chosen ? await photoForScoring(chosen) : null,
     photos: photoList,
     mine, myMarks, recordMarks, record, pairScores, previous, firstRust,
@@ -142,7 +140,7 @@ async function previousOwnScore(input: { labId: string; trialId: string; specime
 
 /** Specimens of a trial at one inspection, with photo counts, the caller's score and the record. */
 export async function listInspectionScoring({ labId, userId, trialId, inspectionId }: { labId: string; userId: string; trialId: string; inspectionId: string }) {
-  const trial = await getTrialForLab({ labId, trialId });
+  const trial = await getTrial({ labId, trialId });
   const [inspection] = await db.select().from(inspections).where(and(eq(inspections.id, inspectionId), eq(inspections.labId, labId), eq(inspections.trialId, trialId)));
   if (!inspection) throw new AppError("not-found", "That inspection does not exist in this trial.");
   const placed = await db

@@ -1,16 +1,17 @@
 import "server-only";
-// Writing rust scores: marks and score in one transaction with their audit events, the rule that
-// picks the score of record, and the first-rust interval derived from scores of record.
+// Writing rust scores: marks and score in one transaction with their audit events, and the rule that
+// picks the score of record.
 import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
 import { rustedAreaPercent, type Mark, type Point } from "@/lib/scoring/geometry";
-import { dayOf } from "@/lib/analysis/derive";
-import { firstRustInterval, isRusted } from "@/lib/stats/outcomes";
 import type { ConsensusScoreInput, SaveScoreInput } from "@/lib/validation/scores";
+import { pickRecord, type RecordCandidate } from "@/lib/scoring/record-rule";
+import { assertWritable } from "@/lib/trials/lock";
 import { recordAudit } from "../audit";
-import { db, type DbOrTx, type Tx } from "../client";
-import { inspections, marks, photos, placements, scores, trialMembers, trials } from "../schema";
+import { db, type Tx } from "../client";
+import { inspections, marks, photos, placements, scores, trials } from "../schema";
+import { lockTrial, scorerAssignment } from "./trial-access";
 
 export type ScoreActor = { labId: string; userId: string };
 type TrialRow = typeof trials.$inferSelect;
@@ -18,9 +19,8 @@ type ScoreRow = typeof scores.$inferSelect;
 
 /** The trial of the caller's lab, share-locked so a concurrent "conclude" waits for this write. */
 async function writableTrial(tx: Tx, labId: string, trialId: string): Promise<TrialRow> {
-  const [trial] = await tx.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId))).for("share");
-  if (!trial) throw new AppError("not-found", "That trial does not exist.");
-  if (trial.status === "concluded") throw new AppError("locked", "This trial is concluded; its scores are locked. Add a trial note instead.");
+  const trial = await lockTrial(tx, labId, trialId, "share");
+  assertWritable(trial);
   return trial;
 }
 
@@ -50,27 +50,6 @@ async function resolveTarget(tx: Tx, labId: string, trialId: string, input: { ph
 /** Serialises writes to one specimen × inspection, so the record rule never races itself. */
 async function lockPair(tx: Tx, inspectionId: string, specimenId: string) {
   await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`score:${inspectionId}:${specimenId}`}))`);
-}
-
-/** The caller's scorer assignment on the trial (blind or not), or null when not assigned. */
-export async function scorerAssignment(q: DbOrTx, { labId, trialId, userId }: { labId: string; trialId: string; userId: string }) {
-  const [row] = await q.select({ blind: trialMembers.blind }).from(trialMembers)
-    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.trialId, trialId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer")));
-  return row ?? null;
-}
-
-type RecordCandidate = { id: string; scorerId: string | null; blind: boolean };
-
-/**
- * The score of record for one specimen × inspection. Consensus rule: the consensus score once it
- * exists. Otherwise (and under the primary-scorer rule) the primary scorer's score; until that exists,
- * the first non-blind score, then the first score at all, so analysis always has one value to use.
- */
-export function pickRecord(rows: readonly RecordCandidate[], trial: Pick<TrialRow, "scoreRule" | "primaryScorerId">): RecordCandidate | null {
-  const consensus = rows.find((r) => r.scorerId === null) ?? null;
-  if (trial.scoreRule === "consensus" && consensus) return consensus;
-  const scored = rows.filter((r) => r.scorerId !== null);
-  return scored.find((r) => r.scorerId === trial.primaryScorerId) ?? scored.find((r) => !r.blind) ?? scored[0] ?? consensus;
 }
 
 /** Re-apply the record rule to every specimen × inspection of a trial (after the rule changes). */
@@ -111,7 +90,7 @@ function grades(areaPercent: number, letter: string | undefined) {
 }
 
 /** Replace the caller's face outline and marks on a photo (paint order kept in seq). */
-async function replaceMarks(tx: Tx, actor: ScoreActor, photoId: string, face: Point[] | null | undefined, spotMarks: Mark[]) {
+async function replaceMarks(tx: Tx, actor: ScoreActor, trialId: string, photoId: string, face: Point[] | null | undefined, spotMarks: Mark[]) {
   const mine = and(eq(marks.labId, actor.labId), eq(marks.photoId, photoId), eq(marks.scorerId, actor.userId));
   const before = await tx.select({ role: marks.role, geometry: marks.geometry }).from(marks).where(mine).orderBy(asc(marks.seq));
   await tx.delete(marks).where(mine);
@@ -122,7 +101,7 @@ async function replaceMarks(tx: Tx, actor: ScoreActor, photoId: string, face: Po
   if (before.length === 0 && rows.length === 0) return null;
   const areaFromMarks = face ? rustedAreaPercent(face, spotMarks) : null;
   await recordAudit(tx, {
-    labId: actor.labId, userId: actor.userId, entity: "marks", entityId: photoId, action: before.length ? "update" : "create",
+    labId: actor.labId, userId: actor.userId, entity: "marks", entityId: photoId, trialId, action: before.length ? "update" : "create",
     summary: `Marks on a photo: ${before.filter((m) => m.role === "spot").length} → ${spotMarks.length}${face ? ", face outlined" : ""}`,
     before: before.length ? before : null,
     after: { face: face ?? null, marks: spotMarks, areaFromMarksPercent: areaFromMarks },
@@ -145,7 +124,7 @@ export async function saveScore(actor: ScoreActor, input: SaveScoreInput) {
     const [before] = await tx.select().from(scores).where(mine);
 
     // Marks first: if the score write fails afterwards, the transaction takes the marks back too.
-    if (photo) await replaceMarks(tx, actor, photo.id, input.face, input.marks);
+    if (photo) await replaceMarks(tx, actor, trial.id, photo.id, input.face, input.marks);
 
     const values = {
       photoId: photo?.id ?? before?.photoId ?? null,
@@ -206,34 +185,4 @@ export async function saveConsensusScore(actor: ScoreActor, input: ConsensusScor
     });
     return { score, inspection, specimenId };
   });
-}
-
-export type FirstRust = {
-  /** (lower, upper] in trial days; upper Infinity = no rust yet (right-censored at lower). */
-  interval: { lower: number; upper: number } | null;
-  /** Scored inspections (by the score of record) the interval was derived from. */
-  scoredInspections: number;
-};
-
-/**
- * Time to first rust for one specimen, derived each time from the scores of record (never stored),
- * so correcting a score moves it.
- */
-export async function firstRustForSpecimen(q: DbOrTx, { labId, trialId, specimenId }: { labId: string; trialId: string; specimenId: string }): Promise<FirstRust> {
-  const rows = await q
-    .select({
-      dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt, startedAt: trials.startedAt,
-      spotCount: scores.spotCount, areaPercent: scores.areaPercent, weeping: scores.weeping,
-    })
-    .from(scores)
-    .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
-    .innerJoin(trials, eq(trials.id, scores.trialId))
-    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.specimenId, specimenId), eq(scores.isRecord, true)));
-  // Days since the start of the inspection's actual time, the same convention as the comparison
-  // (lib/analysis/derive), so the score page and the Compare tab show the same interval.
-  const outcomes = rows.map((r) => {
-    const start = r.startedAt ?? new Date(r.plannedAt.getTime() - r.dayNumber * 86_400_000);
-    return { inspectedAt: dayOf(r.doneAt ?? r.plannedAt, start), rusted: isRusted(r), areaPercent: r.areaPercent };
-  });
-  return { interval: firstRustInterval(outcomes, 0), scoredInspections: rows.length };
 }

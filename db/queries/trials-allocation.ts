@@ -2,13 +2,14 @@ import "server-only";
 // Draft allocation of specimens to arms (seeded, optionally blocked by material class) and manual
 // swaps. Split from trials.ts to keep files short; the same lock rules apply (lockTrial).
 import { and, eq, inArray } from "drizzle-orm";
-import { allocateDetailed } from "@/lib/allocation";
+import { allocateByLabel } from "@/lib/allocation/allocate";
 import { AppError } from "@/lib/auth/errors";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { specimens, trialAllocations, trialArms, trials } from "../schema";
 import { assertAllowed, type Actor } from "./specimens";
-import { assertDraftWritable, lockTrial } from "./trials";
+import { assertWritable } from "@/lib/trials/lock";
+import { lockTrial } from "./trial-access";
 
 /** A fresh seed for the form: short, readable, and written down with the allocation. */
 export function newSeed() {
@@ -17,20 +18,13 @@ export function newSeed() {
   return `${words[bytes[0] % words.length]}-${words[bytes[1] % words.length]}-${(bytes[2] * 256 + bytes[3]) % 10000}`;
 }
 
-/** Arm keys for the allocation: the label, made unique with the chamber id if two chambers share a name. */
-export function armKeysOf(arms: { id: string; label: string; chamberId: string }[]) {
-  const seen = new Map<string, number>();
-  for (const a of arms) seen.set(a.label, (seen.get(a.label) ?? 0) + 1);
-  return new Map(arms.map((a) => [a.id, (seen.get(a.label) ?? 0) > 1 ? `${a.label} [${a.chamberId.slice(0, 8)}]` : a.label]));
-}
-
 export async function allocateTrial({ actor, trialId, specimenIds, seed, blockByMaterial }: {
   actor: Actor; trialId: string; specimenIds: string[]; seed: string; blockByMaterial: boolean;
 }) {
   assertAllowed(actor, "trials.write");
   return db.transaction(async (tx) => {
     const trial = await lockTrial(tx, actor.labId, trialId);
-    assertDraftWritable(trial);
+    assertWritable(trial, "draft");
     const unique = [...new Set(specimenIds)];
     const [arms, chosen] = await Promise.all([
       tx.select({ id: trialArms.id, label: trialArms.label, chamberId: trialArms.chamberId }).from(trialArms).where(eq(trialArms.trialId, trialId)),
@@ -45,17 +39,8 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
     }
     // Keyed by the printed labels, not database ids, so anyone holding the allocation table and the
     // seed can recompute it with lib/allocation (labels are unique per lab and per trial).
-    const armKeys = armKeysOf(arms);
-    const armByKey = new Map(arms.map((a) => [armKeys.get(a.id)!, a.id]));
-    const specimenByLabel = new Map(chosen.map((c) => [c.label, c.id]));
-    const byLabel = allocateDetailed({
-      specimens: chosen.map((c) => ({ id: c.label, materialClass: c.materialClass })), arms: [...armByKey.keys()].map((id) => ({ id })),
-      seed, blockBy: blockByMaterial ? "materialClass" : null, replicatesPerArm: trial.replicatesPerArm,
-    });
-    const result = {
-      assignments: byLabel.assignments.map((a) => ({ specimenId: specimenByLabel.get(a.specimenId)!, armId: armByKey.get(a.armId)! })),
-      unallocated: byLabel.unallocated.map((l) => specimenByLabel.get(l)!),
-    };
+    const result = allocateByLabel({ specimens: chosen, arms, seed, blockBy: blockByMaterial ? "materialClass" : null, replicatesPerArm: trial.replicatesPerArm });
+    const { byLabel } = result;
     const classOf = new Map(chosen.map((c) => [c.id, c.materialClass]));
     const previous = await tx.delete(trialAllocations).where(eq(trialAllocations.trialId, trialId)).returning();
     const rows = [
@@ -80,7 +65,7 @@ export async function swapAllocation({ actor, trialId, specimenA, specimenB, rea
   assertAllowed(actor, "trials.write");
   return db.transaction(async (tx) => {
     const trial = await lockTrial(tx, actor.labId, trialId);
-    assertDraftWritable(trial);
+    assertWritable(trial, "draft");
     const rows = await tx.select().from(trialAllocations)
       .where(and(eq(trialAllocations.trialId, trialId), inArray(trialAllocations.specimenId, [specimenA, specimenB])));
     const a = rows.find((r) => r.specimenId === specimenA);

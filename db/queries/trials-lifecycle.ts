@@ -8,7 +8,8 @@ import { recordAudit } from "../audit";
 import { db } from "../client";
 import { inspections, placements, specimens, trialAllocations, trialArms, trialNotes, trials } from "../schema";
 import { assertAllowed, type Actor } from "./specimens";
-import { assertDraftWritable, assertRunningWritable, lockTrial, lockedError } from "./trials";
+import { assertWritable, lockedError } from "@/lib/trials/lock";
+import { lockTrial } from "./trial-access";
 
 const DAY = 86_400_000;
 export const MAX_START_AHEAD_DAYS = 30;
@@ -25,7 +26,7 @@ export async function startTrial({ actor, trialId, startAt = new Date() }: { act
   if (startAt.getTime() < now - MAX_START_BACK_DAYS * DAY) throw new AppError("invalid", `The start can be at most ${MAX_START_BACK_DAYS} days back.`, { startAt: [`At most ${MAX_START_BACK_DAYS} days back.`] });
   return db.transaction(async (tx) => {
     const trial = await lockTrial(tx, actor.labId, trialId);
-    assertDraftWritable(trial);
+    assertWritable(trial, "draft");
     const alloc = await tx.select({ specimenId: trialAllocations.specimenId, armId: trialAllocations.armId, chamberId: trialArms.chamberId, treatmentId: trialArms.treatmentId })
       .from(trialAllocations).innerJoin(trialArms, eq(trialArms.id, trialAllocations.armId))
       .where(and(eq(trialAllocations.trialId, trialId), isNotNull(trialAllocations.armId)));
@@ -98,7 +99,7 @@ export async function moveSpecimen({ actor, trialId, specimenId, armId, at = new
   if (at.getTime() > Date.now() + 3_600_000) throw new AppError("invalid", "A move cannot be recorded in the future.", { at: ["Use the time the specimen was moved."] });
   return db.transaction(async (tx) => {
     const trial = await lockTrial(tx, actor.labId, trialId);
-    assertRunningWritable(trial);
+    assertWritable(trial, "running");
     const [open] = await tx.select().from(placements)
       .where(and(eq(placements.trialId, trialId), eq(placements.specimenId, specimenId), isNull(placements.toAt))).for("update");
     if (!open) throw new AppError("invalid", "That specimen is not currently placed in this trial.", { specimenId: ["Choose a specimen placed in this trial."] });

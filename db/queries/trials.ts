@@ -2,52 +2,17 @@ import "server-only";
 import { and, asc, count, desc, eq, ilike, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { can, type Role } from "@/lib/auth/permissions";
-import { formatDate } from "@/lib/format";
+import { assertWritable } from "@/lib/trials/lock";
 import type { TrialDesign } from "@/lib/validation/trials";
 import { recordAudit } from "../audit";
-import { db, type DbOrTx, type Tx } from "../client";
+import { db, type Tx } from "../client";
 import {
   chambers, inspections, memberships, placements, specimens, treatments, trialAllocations, trialArms, trialMembers, trialNotes, trials, users,
 } from "../schema";
-import { assertAllowed, isUuid, type Actor } from "./specimens";
+import { assertAllowed, type Actor } from "./specimens";
+import { lockTrial, type Trial } from "./trial-access";
 
-export type Trial = typeof trials.$inferSelect;
-
-// ---- the lock: every write on a trial goes through these checks, whoever calls ----
-
-export function lockedError(t: Pick<Trial, "concludedAt">) {
-  const when = t.concludedAt ? ` on ${formatDate(t.concludedAt)}` : "";
-  return new AppError("locked", `This trial was concluded${when} and its record is locked. Only notes can be added.`);
-}
-
-/** Load a trial of the lab for update (row lock) inside a transaction; another lab's trial is "not found". */
-export async function lockTrial(tx: Tx, labId: string, trialId: string): Promise<Trial> {
-  if (!isUuid(trialId)) throw new AppError("not-found", "No such trial in this lab.");
-  const [t] = await tx.select().from(trials).where(and(eq(trials.labId, labId), eq(trials.id, trialId))).for("update");
-  if (!t) throw new AppError("not-found", "No such trial in this lab.");
-  return t;
-}
-
-/**
- * For other features writing trial data (photos, scores): refuses a concluded trial. Call it inside
- * the write's transaction so a conclusion cannot slip in between the check and the write.
- */
-export async function assertTrialOpen({ tx, labId, trialId }: { tx: DbOrTx; labId: string; trialId: string }): Promise<Trial> {
-  if (!isUuid(trialId)) throw new AppError("not-found", "No such trial in this lab.");
-  const [t] = await tx.select().from(trials).where(and(eq(trials.labId, labId), eq(trials.id, trialId))).for("share");
-  if (!t) throw new AppError("not-found", "No such trial in this lab.");
-  if (t.status === "concluded") throw lockedError(t);
-  return t;
-}
-
-export function assertWritable(t: Trial, need?: "draft" | "running") {
-  if (t.status === "concluded") throw lockedError(t);
-  if (need === "draft" && t.status !== "draft") throw new AppError("conflict", "The design and allocation are fixed once a trial is running. Move specimens or add notes instead.");
-  if (need === "running" && t.status !== "running") throw new AppError("conflict", "This needs a running trial; start it first.");
-}
-
-export const assertDraftWritable = (t: Trial) => assertWritable(t, "draft");
-export const assertRunningWritable = (t: Trial) => assertWritable(t, "running");
+export type { Trial };
 
 // ---- reads ----
 
@@ -60,24 +25,16 @@ export async function listTrials({ labId, status, q, page = 1, pageSize = 25 }: 
     db.select({
       id: trials.id, title: trials.title, status: trials.status, question: trials.question, replicatesPerArm: trials.replicatesPerArm,
       startedAt: trials.startedAt, concludedAt: trials.concludedAt, createdAt: trials.createdAt,
-      arms: sql<number>`(select count(*)::int from ${trialArms} where ${trialArms.trialId} = ${trials.id})`,
-      specimens: sql<number>`(select count(*)::int from ${trialAllocations} where ${trialAllocations.trialId} = ${trials.id} and ${trialAllocations.armId} is not null)`,
+      // Qualified by hand: inside a select list Drizzle writes bare column names, which the subquery
+      // would resolve against its own table. A started trial counts its placed specimens, a draft its allocation.
+      arms: sql<number>`(select count(*)::int from trial_arms a where a.trial_id = "trials"."id")`,
+      specimens: sql<number>`(case when "trials"."status" = 'draft'
+        then (select count(*)::int from trial_allocations x where x.trial_id = "trials"."id" and x.arm_id is not null)
+        else (select count(distinct p.specimen_id)::int from placements p where p.trial_id = "trials"."id") end)`,
     }).from(trials).where(w).orderBy(desc(trials.createdAt)).limit(pageSize).offset((page - 1) * pageSize),
     db.select({ total: count() }).from(trials).where(w),
   ]);
   return { rows, total, page, pageSize };
-}
-
-export async function getTrial({ labId, trialId }: { labId: string; trialId: string }) {
-  if (!isUuid(trialId)) return null;
-  const [t] = await db.select().from(trials).where(and(eq(trials.labId, labId), eq(trials.id, trialId))).limit(1);
-  return t ?? null;
-}
-
-export async function requireTrial(args: { labId: string; trialId: string }) {
-  const t = await getTrial(args);
-  if (!t) throw new AppError("not-found", "No such trial in this lab.");
-  return t;
 }
 
 export async function listArms({ labId, trialId }: { labId: string; trialId: string }) {
@@ -96,13 +53,6 @@ export async function listTrialMembers({ labId, trialId }: { labId: string; tria
     .from(trialMembers).innerJoin(users, eq(users.id, trialMembers.userId))
     .where(and(eq(trialMembers.labId, labId), eq(trialMembers.trialId, trialId)))
     .orderBy(asc(users.name));
-}
-
-/** True when the viewer scores this trial blind: pages then hide which treatment each specimen got. */
-export async function viewerIsBlind({ labId, trialId, userId }: { labId: string; trialId: string; userId: string }) {
-  const [row] = await db.select({ blind: trialMembers.blind }).from(trialMembers)
-    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.trialId, trialId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
-  return !!row;
 }
 
 export async function listChamberChoices({ labId }: { labId: string }) {
@@ -292,22 +242,6 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "trial", entityId: trialId, action: "update", summary: `Trial ${what || "team"} changed`, before: { ...before, members: beforeMembers }, after: { ...after, members: afterMembers } });
     return after;
   });
-}
-
-/**
- * For a viewer who scores this trial blind: drop which arm (chamber × treatment) each specimen is in.
- * Pages and the API both use this, so blinding does not depend on which screen is open.
- */
-export function blindRows<T extends Record<string, unknown>>(rows: T[], blind: boolean): T[] {
-  if (!blind) return rows;
-  return rows.map((r) => ({ ...r, armId: null, armLabel: null, chamberName: null, treatmentName: null, blinded: true }));
-}
-
-/** Trials this user scores blind (for pages that list several trials, like a specimen's history). */
-export async function blindTrialIds({ labId, userId }: { labId: string; userId: string }) {
-  const rows = await db.select({ trialId: trialMembers.trialId }).from(trialMembers)
-    .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true)));
-  return new Set(rows.map((r) => r.trialId));
 }
 
 export async function hasAllocation({ labId, trialId }: { labId: string; trialId: string }) {

@@ -9,6 +9,9 @@ export const auditEvents = pgTable("audit_events", {
   at: timestamp("at", { withTimezone: true }).notNull().defaultNow(),
   entity: text("entity").notNull(),
   entityId: text("entity_id").notNull(),
+  // The trial an event belongs to, if any: the audit trail hides other people's events of a trial
+  // from its blind scorers until it is concluded (lib/trials/access).
+  trialId: uuid("trial_id"),
   action: auditActionEnum("action").notNull(),
   summary: text("summary"),
   before: jsonb("before"),
@@ -17,4 +20,5 @@ export const auditEvents = pgTable("audit_events", {
   index("audit_lab_at_idx").on(t.labId, t.at),
   index("audit_lab_entity_idx").on(t.labId, t.entity, t.entityId),
   index("audit_lab_user_idx").on(t.labId, t.userId, t.at),
+  index("audit_lab_trial_idx").on(t.labId, t.trialId),
 ]);

@@ -3,6 +3,8 @@
 // Rules (shown to researchers, so keep them plain):
 // - The result depends only on the seed and on the sets of specimen and arm ids, not on their
 //   input order: specimens are sorted by id, arms by id, and blocks by key before any random draw.
+//   The product passes printed labels as the ids (allocateByLabel), never database ids, so the
+//   same seed and the same lists give the same allocation on every installation.
 // - Blocked: inside each block the specimens are shuffled and dealt one by one around a cycle of
 //   the arms. The cycle starts with the arms that hold the fewest specimens so far (ties broken at
 //   random), so each arm's count inside a block differs by at most 1 and, because leftovers always
@@ -147,4 +149,43 @@ function assertUnique(ids: readonly string[], what: string): void {
 /** Code-unit order, not locale order, so every machine sorts the same way. */
 function compareIds(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
+}
+
+export type LabelledSpecimen = { id: string; label: string; materialClass: string };
+export type LabelledArm = { id: string; label: string; chamberId: string };
+
+/** Arm keys for the allocation: the label, made unique with the chamber id if two chambers share a name. */
+export function armKeysOf(arms: readonly LabelledArm[]): Map<string, string> {
+  const seen = new Map<string, number>();
+  for (const a of arms) seen.set(a.label, (seen.get(a.label) ?? 0) + 1);
+  return new Map(arms.map((a) => [a.id, (seen.get(a.label) ?? 0) > 1 ? `${a.label} [${a.chamberId.slice(0, 8)}]` : a.label]));
+}
+
+/**
+ * The allocation keyed by the printed labels, not database ids (which differ per installation), so
+ * anyone holding the seed, the specimen labels and the arm labels can re-derive it with
+ * allocateDetailed. Used by the allocation form and the demo seed alike. Returns database ids and
+ * the label form.
+ */
+export function allocateByLabel(input: {
+  specimens: readonly LabelledSpecimen[];
+  arms: readonly LabelledArm[];
+  seed: string | number;
+  blockBy?: "materialClass" | null;
+  replicatesPerArm?: number | null;
+}): AllocationResult & { byLabel: AllocationResult } {
+  const armKeys = armKeysOf(input.arms);
+  const armByKey = new Map(input.arms.map((a) => [armKeys.get(a.id)!, a.id]));
+  const specimenByLabel = new Map(input.specimens.map((s) => [s.label, s.id]));
+  if (specimenByLabel.size !== input.specimens.length) throw new RangeError("specimen labels must be unique");
+  const byLabel = allocateDetailed({
+    specimens: input.specimens.map((s) => ({ id: s.label, materialClass: s.materialClass })),
+    arms: [...armByKey.keys()].map((id) => ({ id })),
+    seed: input.seed, blockBy: input.blockBy, replicatesPerArm: input.replicatesPerArm,
+  });
+  return {
+    assignments: byLabel.assignments.map((a) => ({ specimenId: specimenByLabel.get(a.specimenId)!, armId: armByKey.get(a.armId)! })),
+    unallocated: byLabel.unallocated.map((l) => specimenByLabel.get(l)!),
+    byLabel,
+  };
 }

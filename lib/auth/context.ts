@@ -26,12 +26,3 @@ export async function requireLab(identity: SessionIdentity, permission: Permissi
   }
   return { userId: identity.userId, labId: identity.labId, role: m.role, labName: m.labName };
 }
-
-/** For Server Components: the context or null when signed out / not a member. */
-export async function getLabContext(permission: Permission = "lab.read"): Promise<LabContext | null> {
-  try {
-    return await requireLab(await currentIdentity(), permission);
-  } catch {
-    return null;
-  }
-}

@@ -2,7 +2,8 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it, vi } from "vitest";
 import { readSessionIdentity } from "@/lib/auth/session";
 import { closeDb } from "@/db/client";
-import { getAnalysisTrial, getTrialAnalysis, loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { getTrialAnalysis, loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { getTrial } from "@/db/queries/trial-access";
 import { GET as getAnalysis } from "@/app/api/trials/[trialId]/analysis/route";
 import { createTestLab, type TestLab } from "../support/db";
 import { buildHandTrial, type HandTrial } from "./analysis-fixtures";
@@ -34,7 +35,7 @@ function call(trialId: string, query = "") {
 
 describe("outcomes from scores of record", () => {
   it("rust first seen at the 3rd inspection gives (day of 2nd, day of 3rd]; never rusted is right-censored at the last clean inspection", async () => {
-    const trial = (await getAnalysisTrial({ labId: lab.labId, trialId: hand.trialId }))!;
+    const trial = await getTrial({ labId: lab.labId, trialId: hand.trialId });
     const { outcomes, doneInspections } = await loadSpecimenOutcomes({ labId: lab.labId, trial });
     const by = new Map(outcomes.map((o) => [o.specimenId, o]));
     expect(doneInspections).toBe(4);
@@ -80,8 +81,8 @@ describe("outcomes from scores of record", () => {
   });
 
   it("another lab's trial is not found", async () => {
-    expect(await getAnalysisTrial({ labId: other.labId, trialId: hand.trialId })).toBeNull();
-    expect(await getTrialAnalysis({ labId: other.labId, trialId: hand.trialId, groupBy: "treatment" })).toBeNull();
+    await expect(getTrial({ labId: other.labId, trialId: hand.trialId })).rejects.toMatchObject({ code: "not-found" });
+    await expect(getTrialAnalysis({ labId: other.labId, trialId: hand.trialId, groupBy: "treatment" })).rejects.toMatchObject({ code: "not-found" });
   });
 });
 

@@ -1,7 +1,10 @@
 // First rust is derived from the scores of record each time (never stored), so a correction moves it.
+// The score page and the comparison share the one derivation (loadSpecimenOutcomes → lib/analysis/derive).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { closeDb, db } from "@/db/client";
-import { firstRustForSpecimen, saveScore } from "@/db/queries/scores";
+import { closeDb } from "@/db/client";
+import { loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { getTrial } from "@/db/queries/trial-access";
+import { saveScore } from "@/db/queries/scores";
 import { saveScoreSchema } from "@/lib/validation/scores";
 import { createTestLab, type TestLab } from "../support/db";
 import { createScoringTrial, type ScoringTrial } from "./scoring-fixtures";
@@ -22,14 +25,19 @@ async function score(day: number, over: Record<string, string> = {}, specimen = 
   });
   return saveScore({ labId: lab.labId, userId: lab.users.technician.id }, data);
 }
-const firstRust = (specimen = 0) => firstRustForSpecimen(db, { labId: lab.labId, trialId: t.trialId, specimenId: t.specimenIds[specimen] });
+async function firstRust(specimen = 0) {
+  const trial = await getTrial({ labId: lab.labId, trialId: t.trialId });
+  const { outcomes } = await loadSpecimenOutcomes({ labId: lab.labId, trial, specimenId: t.specimenIds[specimen] });
+  expect(outcomes).toHaveLength(1); // one placement
+  return { interval: outcomes[0].interval, scoredInspections: outcomes[0].observations.length };
+}
 
 describe("first-rust interval", () => {
   it("is (previous inspection, first rusted inspection] and moves when a score is corrected", async () => {
     expect((await firstRust()).interval).toBeNull();
     await score(0);
     await score(7);
-    expect((await firstRust()).interval).toEqual({ lower: 7, upper: Infinity });
+    expect((await firstRust()).interval).toEqual({ lower: 7, upper: null });
     await score(14, { spotCount: "2", areaPercent: "0.2", astmLetter: "S" });
     await score(28, { spotCount: "5", areaPercent: "1.5", astmLetter: "S" });
     expect(await firstRust()).toEqual({ interval: { lower: 7, upper: 14 }, scoredInspections: 4 });

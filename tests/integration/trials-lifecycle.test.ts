@@ -4,7 +4,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { getTrial } from "@/db/queries/trials";
+import { getTrial } from "@/db/queries/trial-access";
 import { listInspections } from "@/db/queries/inspections";
 import {
   addNoteAction, allocateAction, concludeTrialAction, createTrialAction, moveSpecimenAction, startTrialAction, swapAction,
@@ -207,7 +207,7 @@ describe("tenant isolation", () => {
   it("another lab's trial, inspection and chambers are not found from lab B", async () => {
     const trialId = await running();
     const [insp] = await db.select().from(s.inspections).where(eq(s.inspections.trialId, trialId)).limit(1);
-    expect(await getTrial({ labId: b.labId, trialId })).toBeNull();
+    await expect(getTrial({ labId: b.labId, trialId })).rejects.toMatchObject({ code: "not-found" });
     const results = await Promise.all([
       updateTechniciansAction.withIdentity(b.as("lead"), { trialId, "technicianIds[]": [] }),
       addNoteAction.withIdentity(b.as("lead"), { trialId, body: "from another lab" }),

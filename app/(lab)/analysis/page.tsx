@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listTrialsForAnalysis } from "@/db/queries/analysis";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { EmptyState } from "@/components/ui/empty-state";
 import { formatDate } from "@/lib/format";
@@ -11,8 +10,7 @@ export const metadata = { title: "Analysis" };
 const STATUS_LABELS = { draft: "Draft", running: "Running", concluded: "Concluded" } as const;
 
 export default async function AnalysisPage() {
-  const ctx = await getLabContext("analysis.read");
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/analysis");
   const trials = await listTrialsForAnalysis({ labId: ctx.labId });
   return (
     <div className="space-y-6">

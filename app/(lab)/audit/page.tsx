@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listAuditEntities, listAuditEvents } from "@/db/queries/audit";
 import { listMembers } from "@/db/queries/memberships";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { EmptyState } from "@/components/ui/empty-state";
 
@@ -15,14 +14,13 @@ function Json({ value, label }: { value: unknown; label: string }) {
 }
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext("audit.read");
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/audit");
   const sp = await searchParams;
   const entity = sp.entity || undefined;
   const userId = sp.user && /^[0-9a-f-]{36}$/.test(sp.user) ? sp.user : undefined;
   const before = sp.before && /^\d+$/.test(sp.before) ? Number(sp.before) : undefined;
   const [events, entities, members] = await Promise.all([
-    listAuditEvents({ labId: ctx.labId, entity, userId, before, limit: 50 }),
+    listAuditEvents({ labId: ctx.labId, viewerId: ctx.userId, entity, userId, before, limit: 50 }),
     listAuditEntities({ labId: ctx.labId }),
     listMembers({ labId: ctx.labId }),
   ]);

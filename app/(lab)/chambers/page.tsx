@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { CHAMBER_SORTS, listChambers, type ChamberSort } from "@/db/queries/chambers";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { DESICCANTS, type DesiccantKind } from "@/lib/humidity/desiccant";
 import { CHAMBER_KINDS } from "@/lib/humidity/hazards";
@@ -14,8 +13,7 @@ export const metadata = { title: "Chambers" };
 const PAGE_SIZE = 20;
 
 export default async function ChambersPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers");
   const sp = await searchParams;
   const sort: ChamberSort = (CHAMBER_SORTS as readonly string[]).includes(sp.sort ?? "") ? (sp.sort as ChamberSort) : "name";
   const dir = sp.dir === "desc" ? "desc" : "asc";

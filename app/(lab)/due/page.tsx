@@ -1,12 +1,10 @@
-import { redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { DueList } from "@/components/due/due-list";
 
 export const metadata = { title: "Due inspections" };
 
 export default async function DuePage() {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/due");
   return (
     <div className="space-y-4">
       <h1 className="text-2xl font-semibold">Due inspections</h1>

@@ -1,5 +1,5 @@
-import { notFound, redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { notFound } from "next/navigation";
+import { labPage } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { listMessages } from "@/lib/mail-store";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -14,8 +14,7 @@ function Linked({ text }: { text: string }) {
 
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<{ to?: string }> }) {
   if (process.env.DEMO_MODE !== "1") notFound();
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/mailbox");
   const { to } = await searchParams;
   const messages = await listMessages(process.env.MAIL_DIR ?? ".data/mail", { to: to || undefined, limit: 100 });
   return (

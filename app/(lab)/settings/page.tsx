@@ -1,10 +1,9 @@
-import { redirect } from "next/navigation";
 import { eq } from "drizzle-orm";
 import { db } from "@/db/client";
 import { users } from "@/db/schema";
 import { listInvitations } from "@/db/queries/accounts";
 import { listMembers } from "@/db/queries/memberships";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can, ROLE_LABELS } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { InviteForm, PasswordForm, ReminderForm, RoleForm } from "@/components/settings/settings-forms";
@@ -12,8 +11,7 @@ import { InviteForm, PasswordForm, ReminderForm, RoleForm } from "@/components/s
 export const metadata = { title: "Lab settings" };
 
 export default async function SettingsPage() {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/settings");
   const manage = can(ctx.role, "members.manage");
   const [members, invites, me] = await Promise.all([
     listMembers({ labId: ctx.labId }),

@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listSpecimens } from "@/db/queries/specimens";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, specimenListSchema } from "@/lib/validation/specimens";
 import { SpecimenTable } from "@/components/specimens/specimen-table";
@@ -11,8 +10,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata = { title: "Specimens" };
 
 export default async function SpecimensPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/specimens");
   const raw = await searchParams;
   const params = specimenListSchema.parse(raw);
   const renderedQuery = new URLSearchParams(Object.entries(raw).filter((e): e is [string, string] => typeof e[1] === "string")).toString();

@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listTreatments } from "@/db/queries/treatments";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { TREATMENT_KIND_LABELS, TREATMENT_KINDS, treatmentListSchema } from "@/lib/validation/treatments";
 import { TreatmentTable } from "@/components/treatments/treatment-table";
@@ -10,8 +9,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata = { title: "Treatments" };
 
 export default async function TreatmentsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/treatments");
   const params = treatmentListSchema.parse(await searchParams);
   const { rows, total } = await listTreatments({ labId: ctx.labId, ...params });
   const write = can(ctx.role, "treatments.write");

@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listTrials } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { TRIAL_STATUSES, trialListSchema } from "@/lib/validation/trials";
 import { TrialTable } from "@/components/trials/trial-table";
@@ -10,8 +9,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata = { title: "Trials" };
 
 export default async function TrialsPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/trials");
   const params = trialListSchema.parse(await searchParams);
   const { rows, total } = await listTrials({ labId: ctx.labId, ...params });
   const write = can(ctx.role, "trials.write");

@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { desiccantStatus, getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
 import { getChamberSeries, listReadingImports, listRecentReadings } from "@/db/queries/readings";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { DESICCANTS, type DesiccantKind } from "@/lib/humidity/desiccant";
@@ -21,8 +20,7 @@ export const metadata = { title: "Chamber" };
 const PERIOD_LABELS = { "7d": "7 days", "30d": "30 days", all: "All" } as const;
 
 export default async function ChamberPage({ params, searchParams }: { params: Promise<{ chamberId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers/[chamberId]");
   const [{ chamberId }, sp] = await Promise.all([params, searchParams]);
   const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const period = parsePeriod(sp.period);

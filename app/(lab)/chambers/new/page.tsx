@@ -1,6 +1,5 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ChamberForm } from "@/components/chambers/chamber-form";
 import { createChamberAction } from "../actions";
@@ -8,8 +7,7 @@ import { createChamberAction } from "../actions";
 export const metadata = { title: "New chamber" };
 
 export default async function NewChamberPage() {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers/new");
   const allowed = can(ctx.role, "chambers.write");
   return (
     <div className="space-y-4">

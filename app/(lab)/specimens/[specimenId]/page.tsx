@@ -1,8 +1,9 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getSpecimen, listSpecimenPlacements } from "@/db/queries/specimens";
-import { blindTrialIds } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { blindTrialIds } from "@/db/queries/trial-access";
+import { BLIND_HIDDEN, hideArmsOfTrials } from "@/lib/trials/access";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime, formatNumber } from "@/lib/format";
 import { MATERIAL_CLASS_LABELS } from "@/lib/validation/specimens";
@@ -21,11 +22,11 @@ function Fact({ term, children }: { term: string; children: React.ReactNode }) {
 
 export default async function SpecimenPage({ params }: { params: Promise<{ specimenId: string }> }) {
   const { specimenId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/specimens/[specimenId]");
   const specimen = await getSpecimen({ labId: ctx.labId, specimenId });
   if (!specimen) notFound();
-  const [placements, blindIn] = await Promise.all([listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId })]);
+  const [rawPlacements, blindIn] = await Promise.all([listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId })]);
+  const placements = hideArmsOfTrials(rawPlacements, blindIn);
   return (
     <div className="space-y-6">
       <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>
@@ -63,8 +64,8 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
                 {placements.map((p) => (
                   <tr key={p.id}>
                     <td><Link className="link" href={`/trials/${p.trialId}`}>{p.trialTitle}</Link> <span className="text-xs muted">({p.trialStatus})</span></td>
-                    {blindIn.has(p.trialId) ? (
-                      <td colSpan={2} className="muted">hidden: you score this trial blind</td>
+                    {p.blinded ? (
+                      <td colSpan={2} className="muted">{BLIND_HIDDEN}</td>
                     ) : (<><td>{p.chamberName}</td><td>{p.treatmentName}</td></>)}
                     <td className="whitespace-nowrap">{p.fromAt ? formatDateTime(p.fromAt) : "—"}</td>
                     <td className="whitespace-nowrap">{p.toAt ? formatDateTime(p.toAt) : <span className="font-medium">current</span>}</td>

@@ -1,13 +1,11 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { SpecimenImport } from "@/components/specimens/specimen-import";
 
 export const metadata = { title: "Import specimens" };
 
 export default async function ImportSpecimensPage() {
-  const ctx = await getLabContext("specimens.write");
-  if (!ctx) redirect("/specimens");
+  await labPage("/specimens/import");
   return (
     <div className="space-y-4 max-w-5xl">
       <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>

@@ -1,13 +1,11 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { SpecimenForm } from "@/components/specimens/specimen-form";
 
 export const metadata = { title: "Add specimen" };
 
 export default async function NewSpecimenPage() {
-  const ctx = await getLabContext("specimens.write");
-  if (!ctx) redirect("/specimens");
+  await labPage("/specimens/new");
   return (
     <div className="space-y-4">
       <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>

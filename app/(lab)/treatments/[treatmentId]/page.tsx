@@ -1,7 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getTreatment, listTreatmentTrials } from "@/db/queries/treatments";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { TREATMENT_KIND_LABELS } from "@/lib/validation/treatments";
 import { TreatmentForm } from "@/components/treatments/treatment-form";
@@ -10,8 +10,7 @@ export const metadata = { title: "Treatment" };
 
 export default async function TreatmentPage({ params }: { params: Promise<{ treatmentId: string }> }) {
   const { treatmentId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/treatments/[treatmentId]");
   const t = await getTreatment({ labId: ctx.labId, treatmentId });
   if (!t) notFound();
   const trials = await listTreatmentTrials({ labId: ctx.labId, treatmentId });

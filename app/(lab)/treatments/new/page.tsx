@@ -1,13 +1,11 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { TreatmentForm } from "@/components/treatments/treatment-form";
 
 export const metadata = { title: "Add treatment" };
 
 export default async function NewTreatmentPage() {
-  const ctx = await getLabContext("treatments.write");
-  if (!ctx) redirect("/treatments");
+  await labPage("/treatments/new");
   return (
     <div className="space-y-4">
       <p className="text-sm"><Link className="link" href="/treatments">Treatments</Link> /</p>

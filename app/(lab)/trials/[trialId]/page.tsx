@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { listTrialInspections } from "@/db/queries/inspections";
-import { getTrial, hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrialNotes } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrialNotes } from "@/db/queries/trials";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule";
@@ -22,10 +21,7 @@ function planText(plan: InspectionPlan) {
 
 export default async function TrialOverviewPage({ params }: { params: Promise<{ trialId: string }> }) {
   const { trialId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
-  const trial = await getTrial({ labId: ctx.labId, trialId });
-  if (!trial) notFound();
+  const { ctx, trial, access } = await trialPage("/trials/[trialId]", trialId);
   const [arms, members, notes, inspections, allocated, people] = await Promise.all([
     listArms({ labId: ctx.labId, trialId }), listTrialMembers({ labId: ctx.labId, trialId }), listTrialNotes({ labId: ctx.labId, trialId }),
     listTrialInspections({ labId: ctx.labId, trialId }), hasAllocation({ labId: ctx.labId, trialId }), listPeopleChoices({ labId: ctx.labId }),
@@ -50,7 +46,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
         <div><dt className="text-xs muted">Primary outcome</dt><dd>{PRIMARY_OUTCOMES[trial.primaryOutcome as PrimaryOutcome] ?? trial.primaryOutcome}</dd></div>
         {trial.hypothesis && <div className="md:col-span-3"><dt className="text-xs muted">Hypothesis</dt><dd className="whitespace-pre-wrap">{trial.hypothesis}</dd></div>}
         <div><dt className="text-xs muted">Arms</dt><dd>{arms.length} (chambers × treatments) × {trial.replicatesPerArm} replicate{trial.replicatesPerArm === 1 ? "" : "s"}</dd></div>
-        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated || trial.allocationSeed ? <>seed <span className="font-mono">{trial.allocationSeed}</span>{trial.blockByMaterial ? ", blocked by material class" : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
+        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated || trial.allocationSeed ? <>{access.blind ? "seed hidden from blind scorers" : <>seed <span className="font-mono">{trial.allocationSeed}</span></>}{trial.blockByMaterial ? ", blocked by material class" : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
         <div><dt className="text-xs muted">Inspection plan</dt><dd>{planText(trial.schedulePlan)}</dd></div>
         {trial.status !== "draft" && <div><dt className="text-xs muted">Inspections</dt><dd>{done} of {inspections.length} done{next ? <> · next: <Link className="link" href={`${base}/inspections/${next.id}`}>day {next.dayNumber}, {formatDateTime(next.plannedAt)}</Link> ({next.status})</> : ""}</dd></div>}
       </dl>

@@ -1,8 +1,7 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { listTreatments } from "@/db/queries/treatments";
 import { listChamberChoices, listPeopleChoices } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { TrialForm } from "@/components/trials/trial-form";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -10,8 +9,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata = { title: "Design a trial" };
 
 export default async function NewTrialPage() {
-  const ctx = await getLabContext("trials.write");
-  if (!ctx) redirect("/trials");
+  const ctx = await labPage("/trials/new");
   const [chambers, treatments, people] = await Promise.all([
     listChamberChoices({ labId: ctx.labId }), listTreatments({ labId: ctx.labId, pageSize: 500 }), listPeopleChoices({ labId: ctx.labId }),
   ]);

@@ -4,19 +4,20 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { listSpecimensAt, recordInspection, requireInspection, rescheduleInspection } from "@/db/queries/inspections";
-import { blindRows, viewerIsBlind } from "@/db/queries/trials";
+import { getTrialAccess } from "@/db/queries/trial-access";
 import { labRoute, readJson } from "@/lib/auth/route";
+import { hideArms } from "@/lib/trials/access";
 import { recordInspectionSchema, rescheduleSchema } from "@/lib/validation/trials";
 
 type P = { inspectionId: string };
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { inspectionId }) => {
   const insp = await requireInspection({ labId: ctx.labId, inspectionId });
-  const [specimens, blind] = await Promise.all([
+  const [specimens, { access }] = await Promise.all([
     listSpecimensAt({ labId: ctx.labId, trialId: insp.trialId, at: insp.doneAt ?? insp.plannedAt }),
-    viewerIsBlind({ labId: ctx.labId, trialId: insp.trialId, userId: ctx.userId }),
+    getTrialAccess({ labId: ctx.labId, trialId: insp.trialId, userId: ctx.userId }),
   ]);
-  return NextResponse.json({ ...insp, specimens: blindRows(specimens, blind) });
+  return NextResponse.json({ ...insp, specimens: hideArms(specimens, access.blind) });
 });
 
 const patch = z.discriminatedUnion("action", [

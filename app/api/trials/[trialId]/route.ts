@@ -2,20 +2,23 @@
 // PATCH /api/trials/[trialId] — change the design (draft only). A body with only team fields
 // (technicianIds, photoProtocol; scorers, scoreRule, primaryScorerId need a lead) also works while running.
 import { NextResponse } from "next/server";
-import { blindRows, listAllocation, listArms, listTrialMembers, listTrialNotes, requireTrial, updateTrialDesign, updateTrialTeam, viewerIsBlind } from "@/db/queries/trials";
+import { getTrialAccess } from "@/db/queries/trial-access";
+import { listAllocation, listArms, listTrialMembers, listTrialNotes, updateTrialDesign, updateTrialTeam } from "@/db/queries/trials";
 import { labRoute, readJson } from "@/lib/auth/route";
+import { hideArms } from "@/lib/trials/access";
 import { trialPatchSchema } from "@/lib/validation/trials";
 
 type P = { trialId: string };
 const TEAM_KEYS = new Set(["technicianIds", "photoProtocol", "scorers", "scoreRule", "primaryScorerId"]);
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
-  const trial = await requireTrial({ labId: ctx.labId, trialId });
-  const [arms, members, allocation, notes, blind] = await Promise.all([
+  const { trial, access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  const [arms, members, allocation, notes] = await Promise.all([
     listArms({ labId: ctx.labId, trialId }), listTrialMembers({ labId: ctx.labId, trialId }), listAllocation({ labId: ctx.labId, trialId }),
-    listTrialNotes({ labId: ctx.labId, trialId }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId }),
+    listTrialNotes({ labId: ctx.labId, trialId }),
   ]);
-  return NextResponse.json({ ...trial, arms, members, allocation: blindRows(allocation, blind), notes, viewerBlind: blind });
+  const seen = access.blind ? { ...trial, allocationSeed: null } : trial;
+  return NextResponse.json({ ...seen, arms, members, allocation: hideArms(allocation, access.blind), notes, viewerBlind: access.blind, access });
 });
 
 export const PATCH = labRoute<P>("trials.write", async (ctx, req, { trialId }) => {

@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { getChamber } from "@/db/queries/chambers";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ChamberForm, type ChamberFormValues } from "@/components/chambers/chamber-form";
 import { ArchiveForm } from "@/components/chambers/archive-form";
@@ -13,8 +12,7 @@ export const metadata = { title: "Edit chamber" };
 const str = (v: number | string | null) => (v == null ? "" : String(v));
 
 export default async function EditChamberPage({ params }: { params: Promise<{ chamberId: string }> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers/[chamberId]/edit");
   const { chamberId } = await params;
   const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const initial: ChamberFormValues = {

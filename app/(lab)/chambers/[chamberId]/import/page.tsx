@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { getChamber, listChamberInstruments } from "@/db/queries/chambers";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { CsvImport } from "@/components/chambers/csv-import";
 import { orNotFound } from "@/lib/auth/not-found";
@@ -9,8 +8,7 @@ import { orNotFound } from "@/lib/auth/not-found";
 export const metadata = { title: "Import logger CSV" };
 
 export default async function ImportPage({ params }: { params: Promise<{ chamberId: string }> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers/[chamberId]/import");
   const { chamberId } = await params;
   const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const instruments = await listChamberInstruments({ labId: ctx.labId, chamberId });

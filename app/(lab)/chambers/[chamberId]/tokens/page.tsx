@@ -1,7 +1,6 @@
 import Link from "next/link";
-import { redirect } from "next/navigation";
 import { getChamber, listChamberTokens } from "@/db/queries/chambers";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { appUrl } from "@/lib/mail/send";
 import { formatDateTime } from "@/lib/format";
@@ -13,8 +12,7 @@ import { orNotFound } from "@/lib/auth/not-found";
 export const metadata = { title: "Logger tokens" };
 
 export default async function TokensPage({ params }: { params: Promise<{ chamberId: string }> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/chambers/[chamberId]/tokens");
   const { chamberId } = await params;
   const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   if (!can(ctx.role, "chambers.tokens")) {

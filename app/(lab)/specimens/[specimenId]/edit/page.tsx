@@ -1,15 +1,14 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getSpecimen } from "@/db/queries/specimens";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { SpecimenForm } from "@/components/specimens/specimen-form";
 
 export const metadata = { title: "Edit specimen" };
 
 export default async function EditSpecimenPage({ params }: { params: Promise<{ specimenId: string }> }) {
   const { specimenId } = await params;
-  const ctx = await getLabContext("specimens.write");
-  if (!ctx) redirect(`/specimens/${specimenId}`);
+  const ctx = await labPage("/specimens/[specimenId]/edit");
   const specimen = await getSpecimen({ labId: ctx.labId, specimenId });
   if (!specimen) notFound();
   return (

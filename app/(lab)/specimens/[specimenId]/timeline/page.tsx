@@ -1,7 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getSpecimenTimeline, representativePhoto, type TimelineTrial } from "@/db/queries/photo-timeline";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { formatDate, formatDateTime } from "@/lib/format";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PhotoCard } from "@/components/photos/photo-card";
@@ -22,8 +22,7 @@ function compareEntries(t: TimelineTrial, label: string): CompareEntry[] {
 
 export default async function SpecimenTimelinePage({ params }: { params: Promise<{ specimenId: string }> }) {
   const { specimenId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/specimens/[specimenId]/timeline");
   const data = await getSpecimenTimeline({ labId: ctx.labId, specimenId, userId: ctx.userId, role: ctx.role });
   if (!data) notFound();
   const { specimen } = data;

@@ -1,15 +1,9 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
-import { db } from "@/db/client";
-import { scorerAssignment } from "@/db/queries/scores";
 import { ASTM_CATEGORIES, scorerAgreement, type PairAgreement } from "@/db/queries/scores-agreement";
-import { getTrialForLab } from "@/db/queries/scores-read";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { describeKappa } from "@/lib/stats/outcomes";
 import { BlandAltmanLazy } from "@/components/scoring/bland-altman-lazy";
 import { EmptyState } from "@/components/ui/empty-state";
-import { orNotFound } from "@/lib/auth/not-found";
-import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Agreement between scorers" };
 
@@ -32,13 +26,10 @@ function interpretation(p: PairAgreement): string[] {
 }
 
 export default async function AgreementPage({ params }: { params: Promise<{ trialId: string }> }) {
-  const ctx = await getLabContext("analysis.read");
-  if (!ctx) redirect("/sign-in");
   const { trialId } = await params;
-  if (!isUuid(trialId)) notFound();
-  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
-  const blind = (await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind && trial.status !== "concluded";
-  const data = blind ? null : await scorerAgreement({ labId: ctx.labId, trialId });
+  // A results page: a blind scorer gets the 403 page until the trial is concluded.
+  const { ctx } = await trialPage("/trials/[trialId]/agreement", trialId);
+  const data = await scorerAgreement({ labId: ctx.labId, trialId });
 
   return (
     <div className="space-y-6">
@@ -48,9 +39,7 @@ export default async function AgreementPage({ params }: { params: Promise<{ tria
         (grades 0–10 as {ASTM_CATEGORIES} ordered categories; linear and quadratic weights credit near misses) and Bland–Altman
         limits of agreement on rusted area %. The kappa wording follows the bands of Landis &amp; Koch (1977).
       </p>
-      {blind ? (
-        <p className="panel p-3 text-sm" role="note">You score this trial blind, so agreement figures stay hidden from you until the trial is concluded.</p>
-      ) : !data || data.scorers.length < 2 ? (
+      {!data || data.scorers.length < 2 ? (
         <EmptyState text={`Agreement needs scores from at least two scorers on the same photos; ${data?.scorers.length ? `only ${data.scorers[0].name} has scored so far` : "nobody has scored yet"}. Assign a second (blind) scorer on the scoring page.`}
           action={{ href: `/trials/${trialId}/scoring`, label: "Go to the scoring page" }} />
       ) : data.pairs.length === 0 ? (

@@ -1,9 +1,9 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { listSpecimenChoices } from "@/db/queries/specimens";
 import { newSeed } from "@/db/queries/trials-allocation";
-import { blindRows, getTrial, listAllocation, listArms, listTrialPlacements, viewerIsBlind } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { listAllocation, listArms, listTrialPlacements } from "@/db/queries/trials";
+import { trialPage } from "@/lib/auth/page";
+import { hideArms } from "@/lib/trials/access";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { MATERIAL_CLASS_LABELS, type MaterialClass } from "@/lib/validation/specimens";
@@ -21,23 +21,21 @@ const PRINT_CSS = `@media print { body > div > header, .no-print { display: none
 
 export default async function AllocationPage({ params }: { params: Promise<{ trialId: string }> }) {
   const { trialId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
-  const trial = await getTrial({ labId: ctx.labId, trialId });
-  if (!trial) notFound();
+  const { ctx, trial, access } = await trialPage("/trials/[trialId]/allocation", trialId);
+  const blind = access.blind;
   const draft = trial.status === "draft";
   const design = can(ctx.role, "trials.write");
-  const [rawRows, arms, blind, placements, choices] = await Promise.all([
-    listAllocation({ labId: ctx.labId, trialId }), listArms({ labId: ctx.labId, trialId }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId }),
+  const [rawRows, arms, placements, choices] = await Promise.all([
+    listAllocation({ labId: ctx.labId, trialId }), listArms({ labId: ctx.labId, trialId }),
     trial.status === "draft" ? Promise.resolve([]) : listTrialPlacements({ labId: ctx.labId, trialId }),
     draft && design ? listSpecimenChoices({ labId: ctx.labId }) : Promise.resolve([]),
   ]);
-  // Blind viewers get the rows in label order: the arm order alone would reveal the groups.
-  const rows = blind ? blindRows(rawRows, true).sort((a, b) => a.label.localeCompare(b.label)) : rawRows;
+  // Blind viewers get the rows without arms, in label order (the arm order alone would reveal the groups).
+  const rows = hideArms(rawRows, blind);
   const assignedIds = new Set(rawRows.filter((r) => r.armId).map((r) => r.specimenId));
   const assigned = rows.filter((r) => assignedIds.has(r.specimenId));
   const leftOver = rawRows.filter((r) => !r.armId);
-  const placed = blindRows(placements, blind);
+  const placed = hideArms(placements, blind);
   const openPlacements = placements.filter((p) => !p.toAt);
   const needed = arms.length * trial.replicatesPerArm;
 
@@ -48,7 +46,7 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
         <h1 className="text-2xl font-semibold mr-auto">Allocation</h1>
         {rows.length > 0 && <PrintButton />}
       </div>
-      {blind && <p className="text-sm rounded-md px-3 py-2 bg-iron-100 text-iron-800">You score this trial blind, so the arms of the specimens are hidden here.</p>}
+      {blind && <p className="text-sm rounded-md px-3 py-2 bg-iron-100 text-iron-800">You score this trial blind, so the arms of the specimens, the seed and who swapped what are hidden here until the trial is concluded.</p>}
 
       {draft && design && (
         <section className="panel p-4 space-y-3 no-print" aria-labelledby="alloc-form-h">
@@ -67,7 +65,7 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
         ) : (
           <>
             <p className="text-sm">
-              Seed <span className="font-mono">{trial.allocationSeed}</span> · {trial.blockByMaterial ? "blocked by material class" : "not blocked"} · {arms.length} arms × {trial.replicatesPerArm} replicates · printed {formatDateTime(new Date())}
+              {blind ? "Seed hidden while you score blind" : <>Seed <span className="font-mono">{trial.allocationSeed}</span></>} · {trial.blockByMaterial ? "blocked by material class" : "not blocked"} · {arms.length} arms × {trial.replicatesPerArm} replicates · printed {formatDateTime(new Date())}
             </p>
             <p className="text-xs muted">Reproducible: the allocation depends only on the seed, the specimen labels and the arm labels below (lib/allocation, specimens and arms sorted by label before any random draw).</p>
             <table className="data">

@@ -1,4 +1,4 @@
-import { loadAnalysisPage, type AnalysisPageProps } from "@/lib/analysis/page";
+import { analysisPage, type AnalysisPageProps } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
 import { CompareControls, ExportLinks } from "@/components/analysis/compare-controls";
@@ -11,7 +11,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 export const metadata = { title: "Compare outcomes" };
 
 export default async function ComparePage(props: AnalysisPageProps) {
-  const { q, analysis, trial, c } = await loadAnalysisPage(props);
+  const { q, analysis, trial, c } = await analysisPage("/trials/[trialId]/compare", props);
   const base = `/trials/${trial.id}/compare`;
 
   return (

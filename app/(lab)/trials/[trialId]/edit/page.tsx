@@ -1,7 +1,7 @@
-import { notFound, redirect } from "next/navigation";
+import { redirect } from "next/navigation";
 import { listTreatments } from "@/db/queries/treatments";
-import { getTrial, hasAllocation, listArms, listChamberChoices, listPeopleChoices, listTrialMembers } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { hasAllocation, listArms, listChamberChoices, listPeopleChoices, listTrialMembers } from "@/db/queries/trials";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { TrialForm } from "@/components/trials/trial-form";
 
@@ -9,10 +9,7 @@ export const metadata = { title: "Edit trial design" };
 
 export default async function EditTrialPage({ params }: { params: Promise<{ trialId: string }> }) {
   const { trialId } = await params;
-  const ctx = await getLabContext("trials.write");
-  if (!ctx) redirect(`/trials/${trialId}`);
-  const trial = await getTrial({ labId: ctx.labId, trialId });
-  if (!trial) notFound();
+  const { ctx, trial } = await trialPage("/trials/[trialId]/edit", trialId);
   if (trial.status !== "draft") redirect(`/trials/${trialId}`);
   const [chambers, treatments, people, arms, members, allocated] = await Promise.all([
     listChamberChoices({ labId: ctx.labId }), listTreatments({ labId: ctx.labId, pageSize: 500 }), listPeopleChoices({ labId: ctx.labId }),

@@ -1,7 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getTrialGrid, representativePhoto, type GridCell } from "@/db/queries/photo-timeline";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDate } from "@/lib/format";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -21,8 +21,7 @@ function groupCells(cells: GridCell[], byArm: boolean): [string, GridCell[]][] {
 export default async function TrialGridPage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const { trialId } = await params;
   const sp = await searchParams;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const { ctx } = await trialPage("/trials/[trialId]/grid", trialId);
   const grid = await getTrialGrid({ labId: ctx.labId, trialId, inspectionId: sp.inspection, userId: ctx.userId, role: ctx.role });
   if (!grid) notFound();
   const { trial, inspection, cells } = grid;

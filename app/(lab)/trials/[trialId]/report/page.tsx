@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { loadAnalysisPage, type AnalysisPageProps } from "@/lib/analysis/page";
+import { analysisPage, type AnalysisPageProps } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
 import { ExportLinks, hrefFor } from "@/components/analysis/compare-controls";
@@ -28,7 +28,7 @@ const PRINT_CSS = `
 }`;
 
 export default async function ReportPage(props: AnalysisPageProps) {
-  const { ctx, q, analysis, trial, c } = await loadAnalysisPage(props);
+  const { ctx, q, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const generated = new Date();
 
   return (

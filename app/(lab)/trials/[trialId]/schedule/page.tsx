@@ -1,8 +1,6 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { listTrialInspections, OVERDUE_GRACE_HOURS } from "@/db/queries/inspections";
-import { getTrial } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { buildSchedule, planDays, STATUS_RULE_TEXT } from "@/lib/schedule";
@@ -13,10 +11,7 @@ export const metadata = { title: "Inspection schedule" };
 
 export default async function SchedulePage({ params }: { params: Promise<{ trialId: string }> }) {
   const { trialId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
-  const trial = await getTrial({ labId: ctx.labId, trialId });
-  if (!trial) notFound();
+  const { ctx, trial } = await trialPage("/trials/[trialId]/schedule", trialId);
   const base = `/trials/${trial.id}`;
 
   if (trial.status === "draft") {

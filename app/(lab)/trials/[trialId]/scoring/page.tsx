@@ -1,29 +1,22 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
 import { listMembers } from "@/db/queries/memberships";
 import { listTrialScorers } from "@/db/queries/scores-agreement";
-import { getTrialForLab } from "@/db/queries/scores-read";
 import { listScoringQueue } from "@/db/queries/scores-queue";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { queueQuerySchema } from "@/lib/validation/scores";
 import { AssignScorerForm, ScoreRuleForm, ScorerRow } from "@/components/scoring/assign-scorers";
 import { EmptyState } from "@/components/ui/empty-state";
-import { orNotFound } from "@/lib/auth/not-found";
-import { isUuid } from "@/lib/ids";
 
 export const metadata = { title: "Scoring queue" };
 
 
 export default async function ScoringQueuePage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
   const { trialId } = await params;
-  if (!isUuid(trialId)) notFound();
+  const { ctx, trial } = await trialPage("/trials/[trialId]/scoring", trialId);
   const sp = await searchParams;
   const q = queueQuerySchema.safeParse({ trialId, page: sp.page, show: sp.show });
   const { page, show } = q.success ? q.data : { page: 1, show: "todo" as const };
-  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
   const canScore = can(ctx.role, "scores.write");
   const lead = can(ctx.role, "scorers.assign");
   const [queue, scorers, members] = await Promise.all([

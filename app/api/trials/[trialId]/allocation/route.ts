@@ -1,10 +1,12 @@
-// GET /api/trials/[trialId]/allocation — the allocation table with seed (blinded for blind scorers).
+// GET /api/trials/[trialId]/allocation — the allocation table with seed (label order, no arms or seed for blind scorers).
 // POST /api/trials/[trialId]/allocation — allocate or re-roll while draft: {specimenIds, seed?, blockByMaterial?}.
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { allocateTrial, newSeed } from "@/db/queries/trials-allocation";
-import { blindRows, listAllocation, requireTrial, viewerIsBlind } from "@/db/queries/trials";
+import { getTrialAccess } from "@/db/queries/trial-access";
+import { listAllocation } from "@/db/queries/trials";
 import { labRoute, readJson } from "@/lib/auth/route";
+import { hideArms } from "@/lib/trials/access";
 
 type P = { trialId: string };
 const body = z.object({
@@ -14,9 +16,10 @@ const body = z.object({
 });
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
-  const trial = await requireTrial({ labId: ctx.labId, trialId });
-  const [rows, blind] = await Promise.all([listAllocation({ labId: ctx.labId, trialId }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId })]);
-  return NextResponse.json({ seed: trial.allocationSeed, blockByMaterial: trial.blockByMaterial, replicatesPerArm: trial.replicatesPerArm, items: blindRows(rows, blind) });
+  const { trial, access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  const items = hideArms(await listAllocation({ labId: ctx.labId, trialId }), access.blind);
+  // A blind scorer gets label order and no seed: with the seed and the lists anyone can re-derive the arms.
+  return NextResponse.json({ seed: access.blind ? null : trial.allocationSeed, blockByMaterial: trial.blockByMaterial, replicatesPerArm: trial.replicatesPerArm, items });
 });
 
 export const POST = labRoute<P>("trials.write", async (ctx, req, { trialId }) => {

@@ -3,16 +3,18 @@
 import { NextResponse } from "next/server";
 import { getTrialAnalysis } from "@/db/queries/analysis";
 import { analysisQuery } from "@/lib/analysis/params";
-import { AppError } from "@/lib/auth/errors";
+import { getTrialAccess } from "@/db/queries/trial-access";
 import { labRoute } from "@/lib/auth/route";
+import { assertResultsVisible } from "@/lib/trials/access";
 import { outcomeRows } from "@/lib/export/outcome-rows";
 
 export const dynamic = "force-dynamic";
 
 export const GET = labRoute<{ trialId: string }>("analysis.read", async (ctx, req, { trialId }) => {
   const { groupBy, method } = analysisQuery(new URL(req.url).searchParams);
+  const { access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  assertResultsVisible(access);
   const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy, method });
-  if (!analysis) throw new AppError("not-found", "No such trial in this lab.");
   const { trial } = analysis;
   return NextResponse.json(
     {

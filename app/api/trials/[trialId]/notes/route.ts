@@ -3,14 +3,15 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { addTrialNote } from "@/db/queries/trials-lifecycle";
-import { listTrialNotes, requireTrial } from "@/db/queries/trials";
+import { getTrial } from "@/db/queries/trial-access";
+import { listTrialNotes } from "@/db/queries/trials";
 import { labRoute, readJson } from "@/lib/auth/route";
 import { noteSchema } from "@/lib/validation/trials";
 
 type P = { trialId: string };
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
-  await requireTrial({ labId: ctx.labId, trialId });
+  await getTrial({ labId: ctx.labId, trialId });
   return NextResponse.json({ items: await listTrialNotes({ labId: ctx.labId, trialId }) });
 });
 

@@ -4,16 +4,17 @@
 import { NextResponse } from "next/server";
 import { z } from "zod";
 import { moveSpecimen } from "@/db/queries/trials-lifecycle";
-import { blindRows, listTrialPlacements, requireTrial, viewerIsBlind } from "@/db/queries/trials";
+import { getTrialAccess } from "@/db/queries/trial-access";
+import { listTrialPlacements } from "@/db/queries/trials";
 import { labRoute, readJson } from "@/lib/auth/route";
+import { hideArms } from "@/lib/trials/access";
 import { moveSchema } from "@/lib/validation/trials";
 
 type P = { trialId: string };
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
-  await requireTrial({ labId: ctx.labId, trialId });
-  const [rows, blind] = await Promise.all([listTrialPlacements({ labId: ctx.labId, trialId }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId })]);
-  return NextResponse.json({ items: blindRows(rows, blind) });
+  const { access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  return NextResponse.json({ items: hideArms(await listTrialPlacements({ labId: ctx.labId, trialId }), access.blind) });
 });
 
 export const POST = labRoute<P>("trials.write", async (ctx, req, { trialId }) => {

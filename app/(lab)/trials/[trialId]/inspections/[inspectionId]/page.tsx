@@ -1,8 +1,8 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getInspection, listSpecimensAt } from "@/db/queries/inspections";
-import { blindRows, getTrial, viewerIsBlind } from "@/db/queries/trials";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
+import { hideArms } from "@/lib/trials/access";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { MATERIAL_CLASS_LABELS, type MaterialClass } from "@/lib/validation/specimens";
@@ -14,19 +14,18 @@ export const metadata = { title: "Inspection" };
 
 export default async function InspectionPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
   const { trialId, inspectionId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
-  const [trial, insp] = await Promise.all([getTrial({ labId: ctx.labId, trialId }), getInspection({ labId: ctx.labId, inspectionId })]);
-  if (!trial || !insp || insp.trialId !== trial.id) notFound();
+  const { ctx, trial, access } = await trialPage("/trials/[trialId]/inspections/[inspectionId]", trialId);
+  const insp = await getInspection({ labId: ctx.labId, inspectionId });
+  if (!insp || insp.trialId !== trial.id) notFound();
   const at = insp.doneAt ?? insp.plannedAt;
-  const [specimens, blind] = await Promise.all([listSpecimensAt({ labId: ctx.labId, trialId, at }), viewerIsBlind({ labId: ctx.labId, trialId, userId: ctx.userId })]);
-  const shown = blind ? blindRows(specimens, true) : specimens;
+  const blind = access.blind;
+  const shown = hideArms(await listSpecimensAt({ labId: ctx.labId, trialId, at }), blind);
   const base = `/trials/${trial.id}/inspections/${insp.id}`;
   const running = trial.status === "running";
 
   return (
     <div className="space-y-6">
-      <p className="text-sm"><Link className="link" href={`/trials/${trial.id}/schedule`}>Schedule</Link> /</p>
+      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trial.id}/schedule`}>Schedule</Link> › Day {insp.dayNumber}</nav>
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-2xl font-semibold mr-auto">Inspection day {insp.dayNumber}</h1>
         <Link className="btn" href={`${base}/photos`}>Photos for this inspection</Link>

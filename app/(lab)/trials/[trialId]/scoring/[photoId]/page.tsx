@@ -1,10 +1,8 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
-import { db } from "@/db/client";
-import { scorerAssignment } from "@/db/queries/scores";
-import { getLabPhoto, getTrialForLab } from "@/db/queries/scores-read";
+import { getLabPhoto } from "@/db/queries/scores-read";
 import { getBlindPhoto } from "@/db/queries/scores-queue";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
 import { ScoreLine } from "@/components/scoring/score-summary";
@@ -16,18 +14,15 @@ export const metadata = { title: "Blind scoring" };
 
 
 export default async function BlindScorePage({ params }: { params: Promise<{ trialId: string; photoId: string }> }) {
-  const ctx = await getLabContext("scores.write");
-  if (!ctx) redirect("/sign-in");
   const { trialId, photoId } = await params;
-  if (!isUuid(trialId) || !isUuid(photoId)) notFound();
-  const assignment = await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId });
-  if (!assignment?.blind) {
+  const { ctx, trial, access } = await trialPage("/trials/[trialId]/scoring/[photoId]", trialId);
+  if (!isUuid(photoId)) notFound();
+  if (access.scorerRole !== "blind") {
     // An open scorer gets the labelled score page for the same photo.
     const photo = await getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound);
     if (!photo.inspectionId) notFound();
     redirect(`/trials/${trialId}/inspections/${photo.inspectionId}/score/${photo.specimenId}?photo=${photo.id}`);
   }
-  const trial = await getTrialForLab({ labId: ctx.labId, trialId }).catch(orNotFound);
   const view = await getBlindPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, photoId }).catch(orNotFound);
   const canScore = can(ctx.role, "scores.write") && trial.status !== "concluded";
 

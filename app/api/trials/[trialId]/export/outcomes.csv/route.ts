@@ -1,8 +1,9 @@
 // GET /api/trials/[trialId]/export/outcomes.csv — one row per specimen placement: first-rust interval
 // in days since the trial start, censoring, final rusted area. Same columns as the data package's.
-import { getAnalysisTrial, loadSpecimenOutcomes } from "@/db/queries/analysis";
-import { AppError } from "@/lib/auth/errors";
+import { loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { getTrialAccess } from "@/db/queries/trial-access";
 import { labRoute } from "@/lib/auth/route";
+import { assertResultsVisible } from "@/lib/trials/access";
 import { toPackageName } from "@/lib/export/datapackage";
 import { outcomeRows } from "@/lib/export/outcome-rows";
 import { tableToCsv } from "@/lib/export/table-schema";
@@ -11,8 +12,8 @@ import { OUTCOME_TABLE } from "@/lib/export/trial-tables";
 export const dynamic = "force-dynamic";
 
 export const GET = labRoute<{ trialId: string }>("export.read", async (ctx, _req, { trialId }) => {
-  const trial = await getAnalysisTrial({ labId: ctx.labId, trialId });
-  if (!trial) throw new AppError("not-found", "No such trial in this lab.");
+  const { trial, access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  assertResultsVisible(access);
   const { outcomes } = await loadSpecimenOutcomes({ labId: ctx.labId, trial });
   const csv = tableToCsv(OUTCOME_TABLE, outcomeRows(outcomes));
   return new Response(csv, {

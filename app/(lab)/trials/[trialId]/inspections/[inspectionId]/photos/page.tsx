@@ -1,7 +1,7 @@
 import Link from "next/link";
-import { notFound, redirect } from "next/navigation";
+import { notFound } from "next/navigation";
 import { getInspectionForPhotos, listInspectionPhotos, placedSpecimens, referenceTime } from "@/db/queries/photos";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { readPhotoConfig } from "@/lib/photos/config";
@@ -16,9 +16,8 @@ export const metadata = { title: "Inspection photos" };
 
 export default async function InspectionPhotosPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
   const { trialId, inspectionId } = await params;
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
-  const target = isUuid(trialId) && isUuid(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
+  const { ctx } = await trialPage("/trials/[trialId]/inspections/[inspectionId]/photos", trialId);
+  const target = isUuid(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
   if (!target) notFound();
   const { inspection, trial } = target;
   const ref = referenceTime(inspection);

@@ -1,9 +1,7 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
-import { scorerAssignment } from "@/db/queries/scores";
 import { listInspectionScoring } from "@/db/queries/scores-read";
-import { db } from "@/db/client";
-import { getLabContext } from "@/lib/auth/context";
+import { trialPage } from "@/lib/auth/page";
 import { EmptyState } from "@/components/ui/empty-state";
 import { astmText } from "@/components/scoring/score-summary";
 import { orNotFound } from "@/lib/auth/not-found";
@@ -13,12 +11,11 @@ export const metadata = { title: "Scoring at an inspection" };
 
 
 export default async function InspectionScoringPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
   const { trialId, inspectionId } = await params;
-  if (!isUuid(trialId) || !isUuid(inspectionId)) notFound();
-  // Blind scorers must not see this list (it names specimens); their way in is the shuffled queue.
-  if ((await scorerAssignment(db, { labId: ctx.labId, trialId, userId: ctx.userId }))?.blind) redirect(`/trials/${trialId}/scoring`);
+  const { ctx, access } = await trialPage("/trials/[trialId]/inspections/[inspectionId]/score", trialId);
+  if (!isUuid(inspectionId)) notFound();
+  // Blind scorers must not see this list (it names specimens and arms); their way in is the shuffled queue.
+  if (access.blind) redirect(`/trials/${trialId}/scoring`);
   const data = await listInspectionScoring({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId })
     .catch(orNotFound);
   const { trial, inspection, rows } = data;

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
 import { getScorePage } from "@/db/queries/scores-read";
-import { getLabContext } from "@/lib/auth/context";
+import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { ConsensusForm } from "@/components/scoring/consensus-form";
@@ -17,15 +17,14 @@ export const metadata = { title: "Score a specimen" };
 type Params = { trialId: string; inspectionId: string; specimenId: string };
 
 export default async function ScorePage({ params, searchParams }: { params: Promise<Params>; searchParams: Promise<{ photo?: string }> }) {
-  const ctx = await getLabContext();
-  if (!ctx) redirect("/sign-in");
+  const ctx = await labPage("/trials/[trialId]/inspections/[inspectionId]/score/[specimenId]");
   const { trialId, inspectionId, specimenId } = await params;
   const { photo: photoParam } = await searchParams;
   if (![trialId, inspectionId, specimenId].every(isUuid)) notFound();
   const data = await getScorePage({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId, photoId: photoParam && isUuid(photoParam) ? photoParam : undefined })
     .catch(orNotFound);
   // A blind scorer of this trial scores from the shuffled queue, where nothing names the specimen.
-  if (data.assignment?.blind) redirect(data.photo ? `/trials/${trialId}/scoring/${data.photo.id}` : `/trials/${trialId}/scoring`);
+  if (data.access.blind) redirect(data.photo ? `/trials/${trialId}/scoring/${data.photo.id}` : `/trials/${trialId}/scoring`);
 
   const { trial, inspection, specimen, placement, mine, record, previous } = data;
   const concluded = trial.status === "concluded";
@@ -43,10 +42,10 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
       </nav>
       <div className="flex flex-wrap items-baseline gap-x-4 gap-y-1">
         <h1 className="text-2xl font-semibold">Score {specimen.label} · day {inspection.dayNumber}</h1>
-        <p className="text-sm muted">{placement.treatment} · {placement.chamber} · {specimen.materialClass.replace("-", " ")}
+        <p className="text-sm muted">{placement ? `${placement.treatment} · ${placement.chamber} · ` : ""}{specimen.materialClass.replace("-", " ")}
           {inspection.doneAt ? ` · inspected ${formatDateTime(inspection.doneAt)}` : ` · planned ${formatDateTime(inspection.plannedAt)}`}</p>
       </div>
-      <FirstRustNote firstRust={data.firstRust} />
+      {data.firstRust && <FirstRustNote outcomes={data.firstRust} inspectionDone={!!inspection.doneAt} />}
       {concluded && <p role="note" className="rounded-md bg-iron-100 dark:bg-iron-800 px-3 py-2 text-sm">This trial is concluded: its scores are locked and shown read-only.</p>}
 
       {shown && (

@@ -1,0 +1,88 @@
+// What a viewer may see of a trial: the one view rule. Pages, route handlers, exports, the audit
+// trail and home activity all ask it, so blinding does not depend on which screen is open.
+// A blind scorer of a trial that is not concluded sees no arm (chamber, treatment) next to any
+// specimen or photo, no result (comparison, report, exports) and no other scorer's score. When the
+// trial is concluded the record is unblinded for everyone.
+import { AppError } from "@/lib/auth/errors";
+
+export type TrialStatus = "draft" | "running" | "concluded";
+/** primary: the primary scorer; open: a scorer who sees treatments; blind: scores without them. */
+export type ScorerRole = "primary" | "open" | "blind";
+
+export type TrialAccess = {
+  trialId: string;
+  status: TrialStatus;
+  /** Concluded: the record is locked; only notes may be added. */
+  locked: boolean;
+  /** The viewer's scorer assignment on this trial; null when not a scorer. */
+  scorerRole: ScorerRole | null;
+  /** True while the viewer scores blind and the trial is not concluded. */
+  blind: boolean;
+};
+
+export const BLIND_HIDDEN = "hidden: you score this trial blind";
+export const RESULTS_HIDDEN = "The comparison, report and exports of this trial are hidden from blind scorers until the trial is concluded.";
+
+export function scorerRoleOf(assignment: { blind: boolean } | null, isPrimary: boolean): ScorerRole | null {
+  if (!assignment) return null;
+  if (assignment.blind) return "blind";
+  return isPrimary ? "primary" : "open";
+}
+
+export function trialAccess(
+  trial: { id: string; status: TrialStatus; primaryScorerId: string | null },
+  viewer: { userId: string; assignment: { blind: boolean } | null },
+): TrialAccess {
+  const scorerRole = scorerRoleOf(viewer.assignment, trial.primaryScorerId === viewer.userId);
+  const locked = trial.status === "concluded";
+  return { trialId: trial.id, status: trial.status, locked, scorerRole, blind: scorerRole === "blind" && !locked };
+}
+
+/** Results (comparison, report, analysis JSON, outcome CSV, data package, agreement) need this. */
+export function assertResultsVisible(access: Pick<TrialAccess, "blind">) {
+  if (access.blind) throw new AppError("forbidden", RESULTS_HIDDEN);
+}
+
+type ArmFields = { armId?: unknown; armLabel?: unknown; chamberId?: unknown; chamberName?: unknown; treatmentId?: unknown; treatmentName?: unknown; treatmentKind?: unknown; swapReason?: unknown; reason?: unknown };
+
+/**
+ * Rows that pair specimens with arms, as a blind viewer may see them: every arm field emptied (a
+ * swap or move reason names arms, the first placement's names the seed) and the rows in
+ * specimen-label order (the arm order alone would reveal the groups).
+ */
+export function hideArms<T extends ArmFields & { label: string }>(rows: readonly T[], blind: boolean): T[] {
+  if (!blind) return rows.slice();
+  return rows.map(withoutArm).sort((a, b) => (a.label < b.label ? -1 : a.label > b.label ? 1 : 0));
+}
+
+function withoutArm<T extends ArmFields>(r: T): T {
+  return { ...r, armId: null, armLabel: null, chamberId: null, chamberName: null, treatmentId: null, treatmentName: null, treatmentKind: null, swapReason: null, reason: BLIND_HIDDEN, blinded: true };
+}
+
+/** Rows of several trials (a specimen's placement history): arms hidden in the trials the viewer scores blind. */
+export function hideArmsOfTrials<T extends ArmFields & { trialId: string }>(rows: readonly T[], blindTrialIds: ReadonlySet<string>): (T & { blinded?: boolean })[] {
+  return rows.map((r) => (blindTrialIds.has(r.trialId) ? withoutArm(r) : r));
+}
+
+/**
+ * A photo look-up as a blind scorer may see it: the image and its technical record, but nothing that
+ * names the specimen (label, original file name) or ties it to an inspection day.
+ */
+export function photoForBlindViewer<T extends { specimenLabel?: string; filename: string; specimenId: string; inspectionId: string | null }>(view: T) {
+  return {
+    ...view, specimenId: null, specimenLabel: null, filename: BLIND_HIDDEN, inspectionId: null,
+    capturedAtRaw: null, capturedOffset: null, capturedAt: null, check: null, uploadedAt: null, uploadedBy: null, blinded: true,
+  };
+}
+
+export type AuditEventView = { userId: string | null; trialId: string | null; summary: string | null; before: unknown; after: unknown };
+
+/**
+ * An audit event as the viewer may read it: events of a trial the viewer scores blind, made by
+ * someone else (allocation, swaps, moves, uploads, other scorers' scores), keep who and when but
+ * not what.
+ */
+export function auditEventForViewer<T extends AuditEventView>(event: T, viewer: { userId: string; blindTrialIds: ReadonlySet<string> }): T & { hidden: boolean } {
+  const hidden = !!event.trialId && viewer.blindTrialIds.has(event.trialId) && event.userId !== viewer.userId;
+  return hidden ? { ...event, summary: BLIND_HIDDEN, before: null, after: null, hidden } : { ...event, hidden };
+}
