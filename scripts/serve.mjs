@@ -54,6 +54,8 @@ if (cluster.isPrimary) {
   const gate = readinessGate({ databaseUrl: process.env.DATABASE_URL });
   const server = http.createServer(async (req, res) => {
     if (await gate.refuse(req, res)) return;
+    // The 403 page (app/(lab)/forbidden.tsx) names the roles a page needs; it learns the page from this.
+    req.headers["x-rustline-path"] = (req.url ?? "/").split("?")[0];
     await handle(req, res);
   });
   server.listen(port);

@@ -3,7 +3,8 @@
 // this map and the folders under app/(lab) list the same pages, so no page goes without a check.
 // `results`: the page shows a trial's results or other scorers' scores, hidden from blind scorers
 // until the trial is concluded (lib/trials/access).
-import type { Permission } from "./permissions";
+import { RESULTS_HIDDEN } from "@/lib/trials/access";
+import { PERMISSIONS, ROLES, type Permission } from "./permissions";
 
 export type PageRule = { permission: Permission; results?: true };
 
@@ -52,6 +53,15 @@ export type TrialPageRoute = Extract<PageRoute, `/trials/[trialId]${string}`>;
 
 export function pageRule(route: PageRoute): PageRule {
   return PAGE_ROUTES[route];
+}
+
+/** What the 403 page says for a path: the roles that may open it, or that results wait for the conclusion. */
+export function forbiddenText(pathname: string): string {
+  const route = matchPageRoute(pathname);
+  const rule: PageRule | null = route ? PAGE_ROUTES[route] : null;
+  const roles = rule ? (PERMISSIONS[rule.permission] as readonly string[]) : [];
+  if (rule?.results && roles.length === ROLES.length) return `${RESULTS_HIDDEN} You can go on scoring from the trial's Scoring tab.`;
+  return `This page needs the ${roles.length ? roles.join(" or ") : "right"} role in this lab. Your role does not include it; a lab lead can change roles in Lab settings.`;
 }
 
 /** The route pattern a concrete path belongs to ("/trials/1f…/compare" → "/trials/[trialId]/compare"). */

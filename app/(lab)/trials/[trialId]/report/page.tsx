@@ -47,6 +47,11 @@ export default async function ReportPage(props: AnalysisPageProps) {
           Status {trial.status}. {analysis.startAt ? `Day 0: ${formatDateTime(analysis.startAt)}.` : "Not started."}{" "}
           {analysis.doneInspections} inspections done; {analysis.recordScores} scores of record. Grouped by {c?.groupByLabel.toLowerCase() ?? "treatment"}.
         </p>
+        <p className="text-sm">
+          {trial.status === "concluded" && trial.concludedAt
+            ? `Scoring ended when the trial was concluded on ${formatDateTime(trial.concludedAt)}; the record was locked and unblinded for every scorer then.`
+            : "The trial is still open: scores may change, and blind scorers do not see this report until it is concluded."}
+        </p>
       </header>
 
       {!c ? (
