@@ -12,7 +12,7 @@ import { listInspectionPhotos, photoDetails, photoFileUrl } from "@/db/queries/p
 import * as s from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { labPrefix } from "@/storage/keys";
-import { deleteKeys, listKeys } from "@/storage/presign";
+import { deleteKeys, listKeys } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { browserPut, cameraJpeg, createPhotoFixture, type PhotoFixture } from "./photos-fixtures";
 
