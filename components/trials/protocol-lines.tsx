@@ -3,11 +3,11 @@
 import { useState } from "react";
 import { DEFAULT_PHOTO_PROTOCOL } from "@/lib/validation/trials";
 
-export function ProtocolLines({ initial, error }: { initial?: string[]; error?: string[] }) {
+export function ProtocolLines({ initial, error, disabled }: { initial?: string[]; error?: string[]; disabled?: boolean }) {
   const [lines, setLines] = useState<string[]>(initial && initial.length ? initial : DEFAULT_PHOTO_PROTOCOL);
   const set = (i: number, v: string) => setLines((l) => l.map((x, j) => (j === i ? v : x)));
   return (
-    <fieldset className="space-y-2" aria-describedby={error ? "protocol-err" : "protocol-hint"}>
+    <fieldset className="space-y-2" disabled={disabled} aria-describedby={error ? "protocol-err" : "protocol-hint"}>
       <legend className="text-sm font-medium">Photo protocol checklist</legend>
       <p id="protocol-hint" className="text-xs muted">The defaults are common practice for comparable corrosion photos; edit them to your set-up. Photographers see this list at every inspection.</p>
       <ol className="space-y-2">

@@ -1,7 +1,10 @@
 "use client";
 // Technicians (who get the reminders) and, for a lead, scorers with a blind flag each, the
-// score-of-record rule and the primary scorer.
+// score-of-record rule and the primary scorer. Who may be picked and who may change a field come from
+// lib/trials/team; a disabled fieldset is not submitted, so the server sees no change to it.
 import { useState } from "react";
+import type { Role } from "@/lib/auth/permissions";
+import { canServeAs } from "@/lib/trials/team";
 import { SCORE_RULES } from "@/lib/validation/trials";
 
 export type Person = { userId: string; name: string; role: string };
@@ -11,10 +14,10 @@ function Err({ id, error }: { id: string; error?: string[] }) {
   return error ? <p id={id} role="alert" className="text-sm text-rust-600">{error.join(" ")}</p> : null;
 }
 
-export function TechnicianFields({ people, initial, error }: { people: Person[]; initial: string[]; error?: string[] }) {
-  const staff = people.filter((p) => p.role !== "observer");
+export function TechnicianFields({ people, initial, error, disabled }: { people: Person[]; initial: string[]; error?: string[]; disabled?: boolean }) {
+  const staff = people.filter((p) => canServeAs("technicianIds", p.role as Role));
   return (
-    <fieldset className="space-y-2" aria-describedby={error ? "tech-err" : "tech-hint"}>
+    <fieldset className="space-y-2" disabled={disabled} aria-describedby={error ? "tech-err" : "tech-hint"}>
       <legend className="text-sm font-medium">Technicians</legend>
       <p id="tech-hint" className="text-xs muted">They do the inspections and get the e-mail reminders (the day before, and when overdue).</p>
       <div className="flex flex-wrap gap-x-5 gap-y-1">
@@ -32,7 +35,7 @@ export function TechnicianFields({ people, initial, error }: { people: Person[];
 export function ScorerFields({ people, initial, scoreRule, primaryScorerId, errors }: {
   people: Person[]; initial: ScorerPick[]; scoreRule: string; primaryScorerId: string | null; errors?: Record<string, string[] | undefined>;
 }) {
-  const staff = people.filter((p) => p.role !== "observer");
+  const staff = people.filter((p) => canServeAs("scorers", p.role as Role));
   const [picked, setPicked] = useState<Record<string, boolean>>(Object.fromEntries(initial.map((s) => [s.userId, true])));
   const [rule, setRule] = useState(scoreRule);
   const chosen = staff.filter((p) => picked[p.userId]);
@@ -67,7 +70,7 @@ export function ScorerFields({ people, initial, scoreRule, primaryScorerId, erro
           <select id="f-primaryScorerId" name="primaryScorerId" className="field max-w-sm" defaultValue={primaryScorerId ?? ""} key={chosen.map((c) => c.userId).join()}
             aria-invalid={errors?.primaryScorerId ? true : undefined} aria-describedby={errors?.primaryScorerId ? "primary-err" : undefined}>
             <option value="">— choose one of the scorers —</option>
-            {chosen.map((p) => <option key={p.userId} value={p.userId}>{p.name}</option>)}
+            {chosen.filter((p) => canServeAs("primaryScorerId", p.role as Role)).map((p) => <option key={p.userId} value={p.userId}>{p.name}</option>)}
           </select>
           <Err id="primary-err" error={errors?.primaryScorerId} />
         </div>

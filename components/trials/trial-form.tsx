@@ -6,6 +6,7 @@ import { useRouter } from "next/navigation";
 import { createTrialAction, updateTrialAction } from "@/app/(lab)/trials/actions";
 import { Field, FormMessage, SelectField, TextArea } from "@/components/ui/form";
 import type { InspectionPlan } from "@/lib/schedule/plans";
+import type { TeamFieldName } from "@/lib/trials/team";
 import { PRIMARY_OUTCOMES } from "@/lib/validation/trials";
 import { PlanFields } from "./plan-fields";
 import { ProtocolLines } from "./protocol-lines";
@@ -41,8 +42,9 @@ function Picker({ legend, name, items, selected, onChange, error, render }: {
   );
 }
 
-export function TrialForm({ chambers, treatments, people, canAssignScorers, trial }: {
-  chambers: ChamberChoice[]; treatments: TreatmentChoice[]; people: Person[]; canAssignScorers: boolean; trial?: TrialFormValues;
+/** `team`: per team field, whether the viewer's role may change it (teamRights from lib/trials/team). */
+export function TrialForm({ chambers, treatments, people, team, trial }: {
+  chambers: ChamberChoice[]; treatments: TreatmentChoice[]; people: Person[]; team: Record<TeamFieldName, boolean>; trial?: TrialFormValues;
 }) {
   const [state, dispatch, pending] = useActionState(trial ? updateTrialAction : createTrialAction, undefined);
   const [, startTransition] = useTransition();
@@ -103,8 +105,8 @@ export function TrialForm({ chambers, treatments, people, canAssignScorers, tria
 
       <section className="panel p-4 space-y-4" aria-labelledby="team-h">
         <h2 id="team-h" className="font-semibold">Team</h2>
-        <TechnicianFields people={people} initial={trial?.technicianIds ?? []} error={e.technicianIds} />
-        {canAssignScorers ? (
+        <TechnicianFields people={people} initial={trial?.technicianIds ?? []} error={e.technicianIds} disabled={!team.technicianIds} />
+        {team.scorers && team.scoreRule && team.primaryScorerId ? (
           <ScorerFields people={people} initial={trial?.scorers ?? []} scoreRule={trial?.scoreRule ?? "primary-scorer"} primaryScorerId={trial?.primaryScorerId ?? null} errors={e} />
         ) : (
           <p className="text-sm muted">Scorers, their blind flag and the score-of-record rule are assigned by a lab lead on the trial page.</p>
@@ -113,7 +115,7 @@ export function TrialForm({ chambers, treatments, people, canAssignScorers, tria
 
       <section className="panel p-4 space-y-4" aria-labelledby="photo-h">
         <h2 id="photo-h" className="font-semibold">Photos and schedule</h2>
-        <ProtocolLines initial={trial?.photoProtocol} error={e.photoProtocol} />
+        <ProtocolLines initial={trial?.photoProtocol} error={e.photoProtocol} disabled={!team.photoProtocol} />
         <PlanFields initial={trial?.plan} error={e.plan} />
       </section>
 

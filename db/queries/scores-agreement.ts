@@ -6,8 +6,9 @@ import { blandAltman, cohensKappa, type BlandAltmanResult } from "@/lib/stats/ag
 import { assertWritable } from "@/lib/trials/lock";
 import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
-import { memberships, scores, trialMembers, trials, users } from "../schema";
+import { scores, trialMembers, trials, users } from "../schema";
 import { applyRecordRuleToTrial, type ScoreActor } from "./scores";
+import { assertTeamPeople } from "./team";
 import { lockTrial } from "./trial-access";
 
 /** ASTM D610 grades 0…10 are the kappa categories (11 of them, equally spaced for the weights). */
@@ -32,10 +33,7 @@ async function trialOfLab(tx: Tx, labId: string, trialId: string) {
 export async function assignScorer(actor: ScoreActor, input: { trialId: string; userId: string; blind: boolean }) {
   return db.transaction(async (tx) => {
     await trialOfLab(tx, actor.labId, input.trialId);
-    const [member] = await tx.select({ role: memberships.role }).from(memberships)
-      .where(and(eq(memberships.labId, actor.labId), eq(memberships.userId, input.userId)));
-    if (!member) throw new AppError("not-found", "That person is not a member of this lab.", { userId: ["Not a member of this lab."] });
-    if (member.role === "observer") throw new AppError("invalid", "Observers cannot score.", { userId: ["Observers cannot score; change their role first."] });
+    await assertTeamPeople(tx, actor.labId, { scorers: [{ userId: input.userId }] }, { scorers: "userId" });
     const key = and(eq(trialMembers.trialId, input.trialId), eq(trialMembers.userId, input.userId), eq(trialMembers.role, "scorer"));
     const [before] = await tx.select().from(trialMembers).where(key);
     if (before) await tx.update(trialMembers).set({ blind: input.blind }).where(key);
@@ -63,10 +61,7 @@ export async function removeScorer(actor: ScoreActor, input: { trialId: string; 
 export async function setScoreRule(actor: ScoreActor, input: { trialId: string; scoreRule: "primary-scorer" | "consensus"; primaryScorerId?: string }) {
   return db.transaction(async (tx) => {
     const before = await trialOfLab(tx, actor.labId, input.trialId);
-    if (input.primaryScorerId) {
-      const [m] = await tx.select({ userId: memberships.userId }).from(memberships).where(and(eq(memberships.labId, actor.labId), eq(memberships.userId, input.primaryScorerId)));
-      if (!m) throw new AppError("not-found", "That person is not a member of this lab.", { primaryScorerId: ["Not a member of this lab."] });
-    }
+    await assertTeamPeople(tx, actor.labId, { primaryScorerId: input.primaryScorerId });
     const [trial] = await tx.update(trials)
       .set({ scoreRule: input.scoreRule, primaryScorerId: input.primaryScorerId ?? before.primaryScorerId, updatedAt: new Date() })
       .where(eq(trials.id, before.id)).returning();

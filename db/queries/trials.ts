@@ -1,8 +1,8 @@
 import "server-only";
 import { and, asc, count, desc, eq, ilike, inArray, isNull, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
-import { can, type Role } from "@/lib/auth/permissions";
 import { assertWritable } from "@/lib/trials/lock";
+import { assertTeamChange } from "@/lib/trials/team";
 import type { TrialDesign } from "@/lib/validation/trials";
 import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
@@ -10,6 +10,7 @@ import {
   chambers, inspections, memberships, placements, specimens, treatments, trialAllocations, trialArms, trialMembers, trialNotes, trials, users,
 } from "../schema";
 import { assertAllowed, type Actor } from "./specimens";
+import { assertPrimaryIsScorer, assertTeamPeople } from "./team";
 import { lockTrial, type Trial } from "./trial-access";
 
 export type { Trial };
@@ -110,17 +111,6 @@ async function checkIds(tx: Tx, labId: string, d: Pick<TrialDesign, "chamberIds"
   return { chamberName: new Map(cs.map((c) => [c.id, c.name])), treatmentName: new Map(ts.map((t) => [t.id, t.name])) };
 }
 
-/** People must be lab members whose role may do the job (record inspections / write scores). */
-async function checkPeople(tx: Tx, labId: string, ids: string[], field: string, permission: "inspections.record" | "scores.write") {
-  if (!ids.length) return;
-  const rows = await tx.select({ userId: memberships.userId, role: memberships.role }).from(memberships)
-    .where(and(eq(memberships.labId, labId), inArray(memberships.userId, ids)));
-  const ok = new Set(rows.filter((r) => can(r.role as Role, permission)).map((r) => r.userId));
-  if (ids.some((id) => !ok.has(id))) {
-    throw new AppError("invalid", "Only lab members who may record inspections and scores can be assigned (not observers).", { [field]: ["Choose lab members with a technician, researcher or lead role."] });
-  }
-}
-
 async function writeMembers(tx: Tx, labId: string, trialId: string, role: "technician" | "scorer", rows: { userId: string; blind?: boolean }[]) {
   await tx.delete(trialMembers).where(and(eq(trialMembers.trialId, trialId), eq(trialMembers.role, role)));
   const unique = [...new Map(rows.map((r) => [r.userId, r])).values()];
@@ -158,18 +148,11 @@ function designValues(d: Partial<TrialDesign>) {
   return v;
 }
 
-function assertScorerRight(actor: Actor, d: Partial<TrialDesign>) {
-  if ((d.scorers !== undefined || d.scoreRule !== undefined || d.primaryScorerId !== undefined) && !can(actor.role, "scorers.assign")) {
-    throw new AppError("forbidden", "Only a lab lead assigns scorers and the score-of-record rule.", { scorers: ["Only a lab lead assigns scorers."] });
-  }
-}
-
 export async function createTrial({ actor, input }: { actor: Actor; input: TrialDesign }) {
   assertAllowed(actor, "trials.write");
-  assertScorerRight(actor, input);
+  assertTeamChange(actor.role, input);
   return db.transaction(async (tx) => {
-    await checkPeople(tx, actor.labId, input.technicianIds, "technicianIds", "inspections.record");
-    if (input.scorers) await checkPeople(tx, actor.labId, input.scorers.map((s) => s.userId), "scorers", "scores.write");
+    await assertTeamPeople(tx, actor.labId, input);
     const [t] = await tx.insert(trials).values({
       labId: actor.labId, createdBy: actor.userId, title: input.title, question: input.question, schedulePlan: input.plan,
       ...designValues(input),
@@ -185,12 +168,12 @@ export async function createTrial({ actor, input }: { actor: Actor; input: Trial
 /** Draft only. Changing arms or replicates discards the allocation, which no longer fits. */
 export async function updateTrialDesign({ actor, trialId, input }: { actor: Actor; trialId: string; input: Partial<TrialDesign> }) {
   assertAllowed(actor, "trials.write");
-  assertScorerRight(actor, input);
+  assertTeamChange(actor.role, input);
   return db.transaction(async (tx) => {
     const before = await lockTrial(tx, actor.labId, trialId);
     assertWritable(before, "draft");
-    if (input.technicianIds) await checkPeople(tx, actor.labId, input.technicianIds, "technicianIds", "inspections.record");
-    if (input.scorers) await checkPeople(tx, actor.labId, input.scorers.map((s) => s.userId), "scorers", "scores.write");
+    await assertTeamPeople(tx, actor.labId, input);
+    if (input.primaryScorerId && input.scorers === undefined) await assertPrimaryIsScorer(tx, trialId, input.primaryScorerId);
     let allocationCleared = false;
     if (input.chamberIds || input.treatmentIds || (input.replicatesPerArm !== undefined && input.replicatesPerArm !== before.replicatesPerArm)) {
       const arms = await tx.select().from(trialArms).where(eq(trialArms.trialId, trialId));
@@ -218,7 +201,8 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
   actor: Actor; trialId: string; technicianIds?: string[]; scorers?: { userId: string; blind: boolean }[];
   scoreRule?: Trial["scoreRule"]; primaryScorerId?: string | null; photoProtocol?: string[];
 }) {
-  assertAllowed(actor, scorers !== undefined || scoreRule !== undefined ? "scorers.assign" : "trials.write");
+  assertAllowed(actor, "trials.write");
+  assertTeamChange(actor.role, { technicianIds, scorers, scoreRule, primaryScorerId, photoProtocol });
   return db.transaction(async (tx) => {
     const before = await lockTrial(tx, actor.labId, trialId);
     assertWritable(before);
@@ -226,19 +210,15 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
     if ((scorers !== undefined || scoreRule !== undefined || primaryScorerId !== undefined) && before.status !== "draft") {
       throw new AppError("conflict", "Once a trial runs, scorers and the score-of-record rule are changed on its Scoring tab (which re-derives the scores of record).");
     }
+    await assertTeamPeople(tx, actor.labId, { technicianIds, scorers, primaryScorerId });
+    if (primaryScorerId && scorers === undefined) await assertPrimaryIsScorer(tx, trialId, primaryScorerId);
     const beforeMembers = await tx.select().from(trialMembers).where(eq(trialMembers.trialId, trialId));
-    if (technicianIds) {
-      await checkPeople(tx, actor.labId, technicianIds, "technicianIds", "inspections.record");
-      await writeMembers(tx, actor.labId, trialId, "technician", technicianIds.map((userId) => ({ userId })));
-    }
-    if (scorers) {
-      await checkPeople(tx, actor.labId, scorers.map((s) => s.userId), "scorers", "scores.write");
-      await writeMembers(tx, actor.labId, trialId, "scorer", scorers);
-    }
+    if (technicianIds) await writeMembers(tx, actor.labId, trialId, "technician", technicianIds.map((userId) => ({ userId })));
+    if (scorers) await writeMembers(tx, actor.labId, trialId, "scorer", scorers);
     const patch = designValues({ scoreRule, primaryScorerId, photoProtocol });
     const [after] = await tx.update(trials).set({ ...patch, updatedAt: new Date() }).where(eq(trials.id, trialId)).returning();
     const afterMembers = await tx.select().from(trialMembers).where(eq(trialMembers.trialId, trialId));
-    const what = [technicianIds && "technicians", scorers && "scorers", photoProtocol && "photo protocol"].filter(Boolean).join(", ");
+    const what = [technicianIds && "technicians", scorers && "scorers", scoreRule && "score rule", primaryScorerId !== undefined && "primary scorer", photoProtocol && "photo protocol"].filter(Boolean).join(", ");
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "trial", entityId: trialId, action: "update", summary: `Trial ${what || "team"} changed`, before: { ...before, members: beforeMembers }, after: { ...after, members: afterMembers } });
     return after;
   });

@@ -5,6 +5,7 @@ import { allocateTrial, swapAllocation } from "@/db/queries/trials-allocation";
 import { addTrialNote, concludeTrial, moveSpecimen, startTrial } from "@/db/queries/trials-lifecycle";
 import { createTrial, updateTrialDesign, updateTrialTeam } from "@/db/queries/trials";
 import { labAction, revalidate } from "@/lib/auth/action";
+import { TEAM_FIELDS } from "@/lib/trials/team";
 import {
   allocationSchema, concludeSchema, moveSchema, noteSchema, protocolSchema, scorersSchema, startSchema, swapSchema, techniciansSchema,
   trialEditFormSchema, trialFormSchema,
@@ -64,19 +65,19 @@ export const moveSpecimenAction = labAction("trials.write", moveSchema, async (c
   return { message: r.opened ? "Specimen moved; the old placement is closed." : "Specimen taken out of the trial." };
 });
 
-export const updateScorersAction = labAction("scorers.assign", scorersSchema, async (ctx, d) => {
+export const updateScorersAction = labAction(TEAM_FIELDS.scorers.change, scorersSchema, async (ctx, d) => {
   await updateTrialTeam({ actor: ctx, trialId: d.trialId, scorers: d.scorers, scoreRule: d.scoreRule, primaryScorerId: d.primaryScorerId });
   refresh(d.trialId);
   return { message: "Scorers saved." };
 });
 
-export const updateTechniciansAction = labAction("trials.write", techniciansSchema, async (ctx, d) => {
+export const updateTechniciansAction = labAction(TEAM_FIELDS.technicianIds.change, techniciansSchema, async (ctx, d) => {
   await updateTrialTeam({ actor: ctx, trialId: d.trialId, technicianIds: d.technicianIds });
   refresh(d.trialId);
   return { message: "Technicians saved. They get the inspection reminders." };
 });
 
-export const updateProtocolAction = labAction("trials.write", protocolSchema, async (ctx, d) => {
+export const updateProtocolAction = labAction(TEAM_FIELDS.photoProtocol.change, protocolSchema, async (ctx, d) => {
   await updateTrialTeam({ actor: ctx, trialId: d.trialId, photoProtocol: d.photoProtocol });
   refresh(d.trialId);
   return { message: "Photo protocol saved." };

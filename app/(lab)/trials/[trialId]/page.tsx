@@ -3,6 +3,7 @@ import { listTrialInspections } from "@/db/queries/inspections";
 import { hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrialNotes } from "@/db/queries/trials";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
+import { teamRights } from "@/lib/trials/team";
 import { formatDateTime } from "@/lib/format";
 import { GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule/plans";
 import { PRIMARY_OUTCOMES, SCORE_RULES, type PrimaryOutcome } from "@/lib/validation/trials";
@@ -28,6 +29,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
   ]);
   const open = trial.status !== "concluded";
   const design = can(ctx.role, "trials.write");
+  const team = teamRights(ctx.role);
   const technicians = members.filter((m) => m.role === "technician");
   const scorers = members.filter((m) => m.role === "scorer");
   const primary = scorers.find((s) => s.userId === trial.primaryScorerId);
@@ -72,9 +74,9 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
           <p className="text-sm"><span className="muted">Technicians (get reminders): </span>{technicians.map((t) => t.name).join(", ") || <span className="text-rust-700">none yet — nobody gets reminders</span>}</p>
           <p className="text-sm"><span className="muted">Scorers: </span>{scorers.map((s) => `${s.name}${s.blind ? " (blind)" : ""}`).join(", ") || "none yet"}</p>
           <p className="text-sm"><span className="muted">Score of record: </span>{SCORE_RULES[trial.scoreRule]}{trial.scoreRule === "primary-scorer" ? ` — ${primary?.name ?? "not chosen yet"}` : ""}</p>
-          {open && design && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Change technicians</summary><div className="pt-3"><TechniciansForm trialId={trial.id} people={people} initial={technicians.map((t) => t.userId)} /></div></details>}
+          {open && team.technicianIds && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Change technicians</summary><div className="pt-3"><TechniciansForm trialId={trial.id} people={people} initial={technicians.map((t) => t.userId)} /></div></details>}
           {trial.status !== "draft" && <p className="text-sm"><Link className="link" href={`${base}/scoring`}>Scorers and the score-of-record rule are managed on the Scoring tab</Link></p>}
-          {trial.status === "draft" && can(ctx.role, "scorers.assign") && (
+          {trial.status === "draft" && team.scorers && (
             <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Assign scorers</summary><div className="pt-3">
               <ScorersForm trialId={trial.id} people={people} initial={scorers.map((s) => ({ userId: s.userId, blind: s.blind }))} scoreRule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} />
             </div></details>
@@ -83,7 +85,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
         <section className="panel p-4 space-y-3" aria-labelledby="protocol-h">
           <h2 id="protocol-h" className="font-semibold">Photo protocol</h2>
           {trial.photoProtocol.length === 0 ? <p className="text-sm muted">No checklist.</p> : <ol className="list-decimal pl-5 text-sm space-y-1">{trial.photoProtocol.map((l, i) => <li key={i}>{l}</li>)}</ol>}
-          {open && design && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Edit the checklist</summary><div className="pt-3"><ProtocolForm trialId={trial.id} initial={trial.photoProtocol} /></div></details>}
+          {open && team.photoProtocol && <details><summary className="cursor-pointer text-sm underline underline-offset-2 text-[var(--accent)]">Edit the checklist</summary><div className="pt-3"><ProtocolForm trialId={trial.id} initial={trial.photoProtocol} /></div></details>}
         </section>
       </div>
 

@@ -2,7 +2,7 @@ import Link from "next/link";
 import { listTreatments } from "@/db/queries/treatments";
 import { listChamberChoices, listPeopleChoices } from "@/db/queries/trials";
 import { labPage } from "@/lib/auth/page";
-import { can } from "@/lib/auth/permissions";
+import { teamRights } from "@/lib/trials/team";
 import { TrialForm } from "@/components/trials/trial-form";
 import { EmptyState } from "@/components/ui/empty-state";
 
@@ -22,7 +22,7 @@ export default async function NewTrialPage() {
         <EmptyState text={`A trial needs at least one chamber and one treatment. ${chambers.length === 0 ? "Set up a chamber first." : "Add a treatment (an untreated control counts) first."}`}
           action={chambers.length === 0 ? { href: "/chambers", label: "Go to chambers" } : { href: "/treatments/new", label: "Add a treatment" }} />
       ) : (
-        <TrialForm chambers={chambers} treatments={treatments.rows} people={people} canAssignScorers={can(ctx.role, "scorers.assign")} />
+        <TrialForm chambers={chambers} treatments={treatments.rows} people={people} team={teamRights(ctx.role)} />
       )}
     </div>
   );

@@ -1,15 +1,15 @@
 // GET /api/trials/[trialId] — the trial with arms, team, allocation (blinded for blind scorers) and notes.
 // PATCH /api/trials/[trialId] — change the design (draft only). A body with only team fields
-// (technicianIds, photoProtocol; scorers, scoreRule, primaryScorerId need a lead) also works while running.
+// (lib/trials/team: who may change each, who may be named) also works while running.
 import { NextResponse } from "next/server";
 import { getTrialAccess } from "@/db/queries/trial-access";
 import { listAllocation, listArms, listTrialMembers, listTrialNotes, updateTrialDesign, updateTrialTeam } from "@/db/queries/trials";
 import { labRoute, readJson } from "@/lib/auth/route";
 import { hideArms } from "@/lib/trials/access";
+import { isTeamField } from "@/lib/trials/team";
 import { trialPatchSchema } from "@/lib/validation/trials";
 
 type P = { trialId: string };
-const TEAM_KEYS = new Set(["technicianIds", "photoProtocol", "scorers", "scoreRule", "primaryScorerId"]);
 
 export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
   const { trial, access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
@@ -24,7 +24,7 @@ export const GET = labRoute<P>("lab.read", async (ctx, _req, { trialId }) => {
 export const PATCH = labRoute<P>("trials.write", async (ctx, req, { trialId }) => {
   const input = await readJson(req, trialPatchSchema);
   const keys = Object.keys(input).filter((k) => input[k as keyof typeof input] !== undefined);
-  if (keys.length > 0 && keys.every((k) => TEAM_KEYS.has(k))) {
+  if (keys.length > 0 && keys.every(isTeamField)) {
     return NextResponse.json(await updateTrialTeam({ actor: ctx, trialId, ...input }));
   }
   const r = await updateTrialDesign({ actor: ctx, trialId, input });

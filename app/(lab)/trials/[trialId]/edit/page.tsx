@@ -2,7 +2,7 @@ import { redirect } from "next/navigation";
 import { listTreatments } from "@/db/queries/treatments";
 import { hasAllocation, listArms, listChamberChoices, listPeopleChoices, listTrialMembers } from "@/db/queries/trials";
 import { trialPage } from "@/lib/auth/page";
-import { can } from "@/lib/auth/permissions";
+import { teamRights } from "@/lib/trials/team";
 import { TrialForm } from "@/components/trials/trial-form";
 
 export const metadata = { title: "Edit trial design" };
@@ -18,7 +18,7 @@ export default async function EditTrialPage({ params }: { params: Promise<{ tria
   return (
     <div className="space-y-4">
       <h1 className="text-2xl font-semibold">Edit the design</h1>
-      <TrialForm chambers={chambers} treatments={treatments.rows} people={people} canAssignScorers={can(ctx.role, "scorers.assign")} trial={{
+      <TrialForm chambers={chambers} treatments={treatments.rows} people={people} team={teamRights(ctx.role)} trial={{
         id: trial.id, title: trial.title, question: trial.question, hypothesis: trial.hypothesis, primaryOutcome: trial.primaryOutcome,
         replicatesPerArm: trial.replicatesPerArm, chamberIds: [...new Set(arms.map((a) => a.chamberId))], treatmentIds: [...new Set(arms.map((a) => a.treatmentId))],
         technicianIds: members.filter((m) => m.role === "technician").map((m) => m.userId),

@@ -4,6 +4,7 @@ import { listTrialScorers } from "@/db/queries/scores-agreement";
 import { listScoringQueue } from "@/db/queries/scores-queue";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
+import { canServeAs, teamRights } from "@/lib/trials/team";
 import { queueQuerySchema } from "@/lib/validation/scores";
 import { AssignScorerForm, ScoreRuleForm, ScorerRow } from "@/components/scoring/assign-scorers";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -18,13 +19,13 @@ export default async function ScoringQueuePage({ params, searchParams }: { param
   const q = queueQuerySchema.safeParse({ trialId, page: sp.page, show: sp.show });
   const { page, show } = q.success ? q.data : { page: 1, show: "todo" as const };
   const canScore = can(ctx.role, "scores.write");
-  const lead = can(ctx.role, "scorers.assign");
+  const lead = teamRights(ctx.role).scorers;
   const [queue, scorers, members] = await Promise.all([
     canScore ? listScoringQueue({ labId: ctx.labId, userId: ctx.userId, trialId, page, show }) : Promise.resolve(null),
     lead ? listTrialScorers({ labId: ctx.labId, trialId }) : Promise.resolve([]),
     lead ? listMembers({ labId: ctx.labId }) : Promise.resolve([]),
   ]);
-  const staff = members.filter((m) => m.role !== "observer");
+  const staff = members.filter((m) => canServeAs("scorers", m.role));
   const qs = (extra: Record<string, string | number>) => `?${new URLSearchParams({ show, page: String(page), ...Object.fromEntries(Object.entries(extra).map(([k, v]) => [k, String(v)])) })}`;
 
   return (
