@@ -1,13 +1,15 @@
 // The one wrapper for server actions: session → lab membership → permission → zod parse → handler.
 import { revalidatePath } from "next/cache";
 import { z } from "zod";
-import { AppError, toAppError } from "./errors";
+import { AppError, toAppError, type ErrorCode } from "./errors";
 import { currentIdentity, requireLab, type LabContext, type SessionIdentity } from "./context";
 import type { Permission } from "./permissions";
 
 export type FieldErrors = Record<string, string[] | undefined>;
 export type ActionState<T = unknown> = {
   ok?: boolean;
+  /** On failure, the same code a route handler maps to its HTTP status (lib/auth/errors). */
+  code?: ErrorCode;
   message?: string;
   errors?: FieldErrors;
   values?: Record<string, string>;
@@ -49,6 +51,7 @@ export async function runLabAction<S extends z.ZodType, T>(
     if (!parsed.success) {
       return {
         ok: false,
+        code: "invalid",
         message: "Please correct the highlighted fields. Nothing was saved.",
         errors: z.flattenError(parsed.error).fieldErrors as FieldErrors,
         values: echoValues(input),
@@ -63,7 +66,7 @@ export async function runLabAction<S extends z.ZodType, T>(
       throw err;
     }
     const e = toAppError(err);
-    return { ok: false, message: e.message, errors: e.fieldErrors, values: echoValues(input) };
+    return { ok: false, code: e.code, message: e.message, errors: e.fieldErrors, values: echoValues(input) };
   }
 }
 

@@ -1,5 +1,6 @@
 // Page permissions, generated from the route tree: every page under app/(lab) names its pattern in
-// lib/auth/page-routes (checked against the folders on disk and the page's own source), answers 403
+// lib/auth/page-routes (checked against the folders on disk, the page's own source and the hand-written
+// page → permission and role tables of tests/support/expected-access), answers 403
 // with a page naming the roles it needs to a role without the permission, lets allowed roles in,
 // sends signed-out visitors to sign-in, and answers 404 for another lab's ids.
 import crypto from "node:crypto";
@@ -8,7 +9,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { PAGE_ROUTES, matchPageRoute, type PageRoute } from "@/lib/auth/page-routes";
-import { PERMISSIONS, ROLES, type Role } from "@/lib/auth/permissions";
+import { ROLES, type Role } from "@/lib/auth/permissions";
+import { expectedRoles, PAGE_PERMISSIONS } from "../support/expected-access";
 import { createTestLab, type TestLab } from "../support/db";
 import { anonymous, signedInClient, type Client } from "../support/http";
 import { fillRoute, listLabPages } from "../support/pages";
@@ -50,6 +52,11 @@ describe("the page map", () => {
     }
   });
 
+  it("each page needs the permission written by hand for it, so a changed page permission fails here", () => {
+    const inCode = Object.fromEntries(Object.entries(PAGE_ROUTES).map(([route, rule]) => [route, rule.permission]));
+    expect(inCode).toEqual(PAGE_PERMISSIONS);
+  });
+
   it("matches concrete paths to their pattern, literal segments first", () => {
     expect(matchPageRoute("/trials/new")).toBe("/trials/new");
     expect(matchPageRoute(`/trials/${crypto.randomUUID()}/compare`)).toBe("/trials/[trialId]/compare");
@@ -59,7 +66,7 @@ describe("the page map", () => {
 });
 
 function allowed(route: PageRoute, role: Role) {
-  return (PERMISSIONS[PAGE_ROUTES[route].permission] as readonly Role[]).includes(role);
+  return expectedRoles(PAGE_PERMISSIONS[route]).includes(role);
 }
 
 describe("every page × role", () => {
@@ -74,7 +81,7 @@ describe("every page × role", () => {
           expect({ url, role, ok: res.status === 200 || (res.status >= 300 && res.status < 400) }).toEqual({ url, role, ok: true });
         } else {
           expect({ url, role, status: res.status }).toEqual({ url, role, status: 403 });
-          const names = (PERMISSIONS[PAGE_ROUTES[route].permission] as readonly string[]).join(" or ");
+          const names = expectedRoles(PAGE_PERMISSIONS[route]).join(" or ");
           expect(body).toContain(`This page needs the ${names} role`);
         }
       }

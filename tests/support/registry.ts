@@ -1,8 +1,11 @@
 // Every server action and route handler of the app, found on disk and imported, with the permission
 // each declares (labAction / labRoute attach it). The authorization matrix and the fuzz tests walk this.
+// Server actions are every export of a module whose first statement is "use server", wherever it sits
+// (not only app/**/actions.ts); a "use server" inside a function body is an inline action that the
+// wrapper cannot see, listed by inlineServerActions() so a test can refuse it.
 import fs from "node:fs";
 import path from "node:path";
-import { PERMISSIONS, ROLES, type Permission, type Role } from "@/lib/auth/permissions";
+import { ROLES, type Permission, type Role } from "@/lib/auth/permissions";
 import { repoRoot } from "./s3";
 
 export type ActionEntry = { file: string; name: string; permission: Permission | null; fn: unknown };
@@ -18,9 +21,27 @@ function walk(dir: string, out: string[] = []) {
 }
 
 const appDir = path.join(repoRoot, "app");
+const SOURCE_DIRS = ["app", "components", "lib", "db", "storage"];
+const DIRECTIVE = /^\s*(?:(?:\/\/[^\n]*|\/\*[\s\S]*?\*\/)\s*)*["']use server["']/;
+
+function sourceFiles() {
+  return SOURCE_DIRS.flatMap((d) => (fs.existsSync(path.join(repoRoot, d)) ? walk(path.join(repoRoot, d)) : []))
+    .filter((f) => /\.(ts|tsx|js|mjs)$/.test(f) && !f.includes(`${path.sep}node_modules${path.sep}`)).sort();
+}
+
+/** Files whose first statement is the "use server" directive: every export is a server action. */
+export function serverActionFiles(): string[] {
+  return sourceFiles().filter((f) => DIRECTIVE.test(fs.readFileSync(f, "utf8")));
+}
+
+/** Files with a "use server" directive that is not their first statement (inline server actions). */
+export function inlineServerActions(): string[] {
+  return sourceFiles().filter((f) => /^\s*["']use server["'];?\s*$/m.test(fs.readFileSync(f, "utf8").replace(DIRECTIVE, "")))
+    .map((f) => path.relative(repoRoot, f));
+}
 
 export async function listActions(): Promise<ActionEntry[]> {
-  const files = walk(appDir).filter((f) => /[/\\]actions\.ts$/.test(f)).sort();
+  const files = serverActionFiles();
   const out: ActionEntry[] = [];
   for (const f of files) {
     const mod = (await import(f)) as Record<string, unknown>;
@@ -33,7 +54,7 @@ export async function listActions(): Promise<ActionEntry[]> {
   return out;
 }
 
-const METHODS = ["GET", "POST", "PUT", "PATCH", "DELETE"];
+export const METHODS = ["GET", "HEAD", "OPTIONS", "POST", "PUT", "PATCH", "DELETE"];
 
 export async function listRoutes(): Promise<RouteEntry[]> {
   const files = walk(path.join(appDir, "api")).filter((f) => /[/\\]route\.ts$/.test(f)).sort();
@@ -50,14 +71,13 @@ export async function listRoutes(): Promise<RouteEntry[]> {
   return out;
 }
 
-export function allowedRoles(permission: Permission): Role[] {
-  return ROLES.filter((r) => (PERMISSIONS[permission] as readonly Role[]).includes(r));
-}
-
-/** The Markdown table printed in DEVELOPERS.md. */
-export function matrixMarkdown(actions: ActionEntry[], routes: RouteEntry[], publicRoutes: Record<string, string>): string {
+/**
+ * The Markdown table printed in DEVELOPERS.md; `rolesFor` is the test's own hand-written role table,
+ * which the test has checked against the code.
+ */
+export function matrixMarkdown(actions: ActionEntry[], routes: RouteEntry[], publicRoutes: Record<string, string>, rolesFor: (p: Permission) => readonly Role[]): string {
   const head = `| entry point | permission | ${ROLES.join(" | ")} | signed out |\n|---|---|${ROLES.map(() => "---").join("|")}|---|`;
-  const cell = (p: Permission | null, r: Role) => (p ? (allowedRoles(p).includes(r) ? "✓" : "refused") : "");
+  const cell = (p: Permission | null, r: Role) => (p ? (rolesFor(p).includes(r) ? "✓" : "refused") : "");
   const rows: string[] = [];
   for (const a of actions) {
     if (!a.permission) continue;
