@@ -50,7 +50,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   // ---- server actions ----
   [`${CHAMBER}#addReadingAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, takenAt: "2026-01-05T10:00", ...at, rhPercent: "50" }) },
   [`${CHAMBER}#addDesiccantEventAction`]: { permission: "desiccant.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, kind: "checked", at: "2026-01-05T10:00", ...at }) },
-  [`${CHAMBER}#addHygrometerCheckAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, instrument: "FOREIGN logger", saltId: "NaCl", tempC: "20", readingRhPercent: "76", checkedAt: "2026-01-05T10:00", ...at, apply: "1" }) },
+  [`${CHAMBER}#addHygrometerCheckAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, instrument: "outsider logger", saltId: "NaCl", tempC: "20", readingRhPercent: "76", checkedAt: "2026-01-05T10:00", ...at, apply: "1" }) },
   [`${CHAMBER}#setCheckAppliedAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, checkId: f.checkId, applied: "1" }) },
   [`${CHAMBER}#createTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, label: "outsider's logger" }) },
   [`${CHAMBER}#revokeTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, tokenId: f.tokenId }) },
@@ -92,7 +92,8 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   "PATCH /api/inspections/[inspectionId]": { permission: "inspections.record", empty: 422, foreign: () => ({ action: "done", notes: "" }) },
   "GET /api/inspections": { permission: "lab.read", empty: 200 },
   "GET /api/marks": { permission: "scores.write", empty: 422 },
-  "GET /api/photos/[photoId]/file": { permission: "lab.read", empty: 307 },
+  // A redirect to a short-lived signed URL of the preview.
+  "GET /api/photos/[photoId]/file": { permission: "lab.read", empty: 302 },
   "GET /api/photos/[photoId]": { permission: "lab.read", empty: 200 },
   "POST /api/photos/finalize": { permission: "photos.upload", empty: 422 },
   "POST /api/photos/presign": { permission: "photos.upload", empty: 422, foreign: (f) => ({ inspectionId: f.inspectionId, specimenId: f.specimenId, filename: "x.jpg", contentType: "image/jpeg", sizeBytes: 1000 }) },

@@ -43,7 +43,11 @@ async function fixture(lab: TestLab, tag: string): Promise<Fixture> {
   ]).returning();
   const [trial] = await db.insert(s.trials).values({ labId: lab.labId, title: `${tag} trial`, question: "Who may touch this trial?", schedulePlan: { kind: "custom", days: [0] } }).returning();
   const [inspection] = await db.insert(s.inspections).values({ labId: lab.labId, trialId: trial.id, dayNumber: 0, plannedAt: new Date("2026-01-05T09:00:00Z") }).returning();
-  const [photo] = await db.insert(s.photos).values({ labId: lab.labId, trialId: trial.id, inspectionId: inspection.id, specimenId: specimen.id, objectKey: `labs/${lab.labId}/photos/x/${crypto.randomUUID()}.jpg`, filename: `${tag}-1.jpg`, contentType: "image/jpeg", sizeBytes: 1, status: "ready" }).returning();
+  const key = `labs/${lab.labId}/photos/x/${crypto.randomUUID()}`;
+  const [photo] = await db.insert(s.photos).values({
+    labId: lab.labId, trialId: trial.id, inspectionId: inspection.id, specimenId: specimen.id, objectKey: `${key}.jpg`, filename: `${tag}-1.jpg`,
+    contentType: "image/jpeg", sizeBytes: 1, status: "ready", derivatives: { thumb: `${key}-thumb.webp`, display: `${key}-display.webp` },
+  }).returning();
   const [token] = await db.insert(s.chamberTokens).values({ labId: lab.labId, chamberId: chamber.id, label: `${tag} logger`, tokenHash: crypto.randomBytes(32).toString("hex") }).returning();
   const [check] = await db.insert(s.hygrometerChecks).values({ labId: lab.labId, chamberId: chamber.id, instrument: `${tag} logger`, saltId: "NaCl", tempC: 20, readingRhPercent: 76, referenceRhPercent: 75.5, offsetRhPercent: 0.5, checkedAt: new Date("2026-01-05T09:00:00Z") }).returning();
   return {
