@@ -8,7 +8,9 @@ import http from "node:http";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { dataDir } from "./lib/env.mjs";
 import { readinessGate } from "./lib/readiness.mjs";
+import { resolveSecret } from "./lib/secret.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const port = Number(process.env.PORT ?? 3000);
@@ -18,6 +20,13 @@ const workers = Number.isFinite(requested) && requested > 0 ? requested : Math.m
 process.env.NODE_ENV ??= "production";
 
 if (cluster.isPrimary) {
+  // The workers inherit the secret: refused unless DEMO_MODE=1 when missing or weak, made once in demo mode.
+  try {
+    process.env.NEXTAUTH_SECRET = resolveSecret(process.env, dataDir);
+  } catch (err) {
+    console.error(`[serve] ${err instanceof Error ? err.message : err}`);
+    process.exit(1);
+  }
   let stopping = false;
   const recentDeaths = [];
   const stop = (signal) => {
