@@ -97,8 +97,9 @@ describe("sign-up", () => {
     }, { timeout: 20_000 }).toBe(true);
     await page.goto(link!);
     await page.getByRole("button", { name: "Create the lab" }).click();
-    await page.getByRole("heading", { name: "Quarry Hill store" }).waitFor({ timeout: 20_000 });
-    await expect(page.getByText("No trial is running.").isVisible()).resolves.toBe(true);
+    await page.waitForURL((u) => u.pathname === "/", { timeout: 20_000 });
+    await page.getByRole("heading", { name: "Quarry Hill store", exact: true }).waitFor({ timeout: 20_000 });
+    await page.getByText("No trial is running.").waitFor({ timeout: 20_000 });
     await context.close();
   });
 });

@@ -93,10 +93,10 @@ describe("what ships", () => {
   });
 
   it("a process that builds an S3 client prints no Node-version notice from the SDK", () => {
-    const code = 'const m = await import("./storage/client.ts"); m.createS3Client(m.readStorageConfig()); await new Promise((r) => setTimeout(r, 200));';
+    const code = 'const m = require("./storage/client.ts"); m.createS3Client(m.readStorageConfig()); setTimeout(() => {}, 200);';
     const env = { ...process.env };
     delete env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED;
-    const r = spawnSync(process.execPath, ["--import", "tsx", "--input-type=module", "-e", code], { cwd: repoRoot, env, encoding: "utf8", timeout: 60_000 });
+    const r = spawnSync(process.execPath, ["--import", "tsx", "-e", code], { cwd: repoRoot, env, encoding: "utf8", timeout: 60_000 });
     expect(r.status).toBe(0);
     expect(r.stderr).not.toMatch(/NodeVersionSupportWarning/);
   });
