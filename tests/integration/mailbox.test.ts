@@ -97,5 +97,4 @@ describe("demo mailbox", () => {
       await server.stop();
     }
   }, 90_000);
-
 });
