@@ -2,7 +2,7 @@
 import type { NextAuthOptions } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
 import { getMembership, listUserLabs } from "@/db/queries/memberships";
-import { appOrigin, safeCallbackPath } from "./callback-url";
+import { safeCallbackPath } from "./callback-url";
 import { checkCredentials } from "./credentials";
 import { decode, encode } from "./jwt";
 import { CLIENT_ADDRESS_HEADER } from "./throttle";
@@ -35,7 +35,7 @@ export const authOptions: NextAuthOptions = {
   callbacks: {
     // Only paths of this app after signing in or out (lib/auth/callback-url).
     async redirect({ url, baseUrl }) {
-      return `${new URL(baseUrl).origin}${safeCallbackPath(url, appOrigin())}`;
+      return `${new URL(baseUrl).origin}${safeCallbackPath(url, baseUrl)}`;
     },
     async jwt({ token, user, trigger, session }) {
       if (user) {
