@@ -1,6 +1,6 @@
 // A trial from scratch in the browser: import specimens, design (2 demo chambers × 2 treatments, 1
 // replicate, fixed schedule), allocate, start with the first inspection tomorrow, see it on the due
-// page, then send the day-before reminder and read it in the demo mailbox (as the lab's lead).
+// page, then send the day-before reminder and read it in the demo mailbox.
 import crypto from "node:crypto";
 import { and, eq } from "drizzle-orm";
 import type { Browser, Page } from "playwright-core";
@@ -117,8 +117,8 @@ describe("trials in the browser", () => {
     }
     const subject = `Inspection tomorrow: ${title}, day 0`;
     // The demo mailbox is for the lab's leads.
-    const leadContext = await browser.newContext();
-    const lead = await leadContext.newPage();
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const lead = await context.newPage();
     await signIn(lead, "lead@tarrow.example");
     await expect.poll(async () => {
       await lead.goto(`${APP_URL}/mailbox?to=technician@tarrow.example`);
@@ -127,6 +127,6 @@ describe("trials in the browser", () => {
     await lead.getByText(subject).first().click();
     // Whoever sent it (this test or the worker), the mail links to the inspection page.
     await lead.locator(`a[href$="/trials/${trialId}/inspections/${first.id}"]`).first().waitFor();
-    await leadContext.close();
+    await context.close();
   }, 90_000);
 });

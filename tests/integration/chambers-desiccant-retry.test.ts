@@ -4,7 +4,8 @@ import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
 import { eq } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import { desiccantReminders } from "@/db/schema";
-import { addDesiccantEvent, createChamber, desiccantStatus } from "@/db/queries/chambers";
+import { addDesiccantEvent, createChamber } from "@/db/queries/chambers";
+import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { chamberSchema } from "@/lib/validation/chambers";
 import { createTestLab, type TestLab } from "../support/db";
 
