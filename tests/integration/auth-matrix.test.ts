@@ -16,7 +16,9 @@ import { repoRoot } from "../support/s3";
 
 // Entry points that are not lab-scoped, and what protects them instead.
 const PUBLIC_ACTIONS: Record<string, string> = {
-  signUp: "public: creates a new lab",
+  signUp: "public: mails a link that creates a new lab (or a note that the address has an account)",
+  confirmSignUp: "public: needs a sealed sign-up link from that mail",
+  signInWithPassword: "public: e-mail and password, throttled per account and per client address",
   acceptInvite: "public: needs a valid single-use invitation token",
 };
 const PUBLIC_ROUTES: Record<string, string> = {
