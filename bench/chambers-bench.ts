@@ -12,7 +12,8 @@ import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { percentiles } from "./support";
 import { createChamber, getChamber } from "@/db/queries/chambers";
-import { getChamberSeries, importReadingsFromCsv, insertReadings, type NewReading } from "@/db/queries/readings";
+import { importReadingsFromCsv, insertReadings, type NewReading } from "@/db/queries/readings";
+import { getChamberSeries } from "@/db/queries/readings-series";
 import { chamberSchema, csvImportOptionsSchema, type Period } from "@/lib/validation/chambers";
 
 export type ChartFigures = { period: Period; runsMs: number[]; p50Ms: number; p95Ms: number; readings: number; points: number; excursions: number };

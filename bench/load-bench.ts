@@ -6,7 +6,7 @@
 import { and, eq, like } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { DUE_PAGE_SIZE } from "@/lib/schedule";
+import { DUE_PAGE_SIZE } from "@/lib/schedule/status";
 import { signedInClient, APP_URL } from "../tests/support/http";
 import { loadRun } from "./support";
 

@@ -14,7 +14,8 @@ import { and, eq, isNotNull } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { photoKey } from "@/storage/keys";
-import { deleteKeys, presignPut, putObject } from "@/storage/presign";
+import { presignPut } from "@/storage/presign";
+import { deleteKeys, putObject } from "@/storage/objects";
 
 export type PhotosBenchResult = {
   photos: number;

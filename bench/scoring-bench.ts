@@ -2,7 +2,7 @@
 // Run: npx tsx bench/scoring-bench.ts [--noise]   — target: median under 1000 ms.
 // Timing covers the estimate only, not rendering the synthetic image.
 import { pathToFileURL } from "node:url";
-import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline } from "@/lib/demo-images";
+import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
 import { estimateRustFraction } from "@/lib/scoring/rust-estimate";
 
 export type ScoringBenchResult = {

@@ -1,6 +1,7 @@
 // Time-to-first-rust statistics at trial scale: KM + Turnbull + log-rank for 10,000 specimens.
 // Run directly with `npx tsx bench/stats-bench.ts`; a bench runner can import runStatsBench().
-import { kaplanMeier, logRank, rightEndpointKm, turnbull, type IntervalObservation } from "../lib/stats/survival";
+import { kaplanMeier, logRank } from "@/lib/stats/survival";
+import { rightEndpointKm, turnbull, type IntervalObservation } from "@/lib/stats/turnbull";
 import { mulberry32 } from "@/lib/allocation/prng"; // seeded, so runs are repeatable
 
 const SPECIMENS = 10_000;

@@ -6,11 +6,11 @@
 import { createHash } from "node:crypto";
 import { and, asc, eq, isNotNull } from "drizzle-orm";
 import sharp from "sharp";
-import { renderSpecimenFace, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images";
+import { renderSpecimenFace, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images/specimen-face";
 import { createSpotPlanner, type SpotPlanner } from "@/lib/photos/demo-spots";
 import { extractPhotoExif } from "@/lib/photos/exif";
 import { photoKey } from "@/storage/keys";
-import { putObject } from "@/storage/presign";
+import { putObject } from "@/storage/objects";
 import { recordAudit } from "./audit";
 import { db } from "./client";
 import { makeDerivatives, storeDerivatives } from "./jobs/photos";

@@ -4,7 +4,7 @@ import { allocateByLabel } from "@/lib/allocation/allocate";
 import { createRng, randomNormal } from "@/lib/allocation/prng";
 import { hashPassword } from "@/lib/auth/password";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
-import { planDays } from "@/lib/schedule";
+import { planDays } from "@/lib/schedule/plans";
 import {
   DEMO_PASSWORD, demoAreaPercent, demoChambers, demoCourse, demoLab, demoReading, demoSpecimens, demoTrial, demoTreatments, demoUsers,
 } from "@/experiments/demo-lab";

@@ -6,9 +6,6 @@ import { GetObjectCommand, PutObjectCommand } from "@aws-sdk/client-s3";
 import { getSignedUrl } from "@aws-sdk/s3-request-presigner";
 import { getStorage } from "./client";
 
-export { deleteKeys, deleteObject, getObjectBytes, getObjectRange, headObject, listKeys, putObject } from "./objects";
-export type { ObjectInfo } from "./objects";
-
 const MAX_EXPIRES_S = 7 * 24 * 3600; // SigV4 presigned URLs live at most a week
 
 function checkExpiry(expiresInS: number): void {

@@ -1,5 +1,5 @@
 // Rust growth: rusted area over time per group, median with the interquartile band, and its table.
-import type { ComparisonResult } from "@/lib/analysis/compare";
+import type { ComparisonResult } from "@/lib/analysis/result";
 import { areaSpec } from "./chart-specs";
 import { fmtDay, fmtPercent } from "./format";
 import { VegaChart } from "./vega-chart";

@@ -1,6 +1,6 @@
 // vega-lite specs for the comparison charts, built on the server from the analysis result.
 import type { VisualizationSpec } from "vega-embed";
-import type { CurveMethod, GroupResult } from "@/lib/analysis/compare";
+import type { CurveMethod, GroupResult } from "@/lib/analysis/result";
 
 // Our own categorical palette: verdigris, rust and iron first, then tones that stay apart in print.
 const PALETTE = [

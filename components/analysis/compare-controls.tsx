@@ -1,7 +1,7 @@
 // The comparison's choices as plain links: each view has its own URL, works without script, and can
 // be bookmarked or sent to a colleague.
 import Link from "next/link";
-import { CURVE_METHODS, type CurveMethod } from "@/lib/analysis/compare";
+import { CURVE_METHODS, type CurveMethod } from "@/lib/analysis/result";
 import { GROUPING_LABELS, GROUPINGS } from "@/lib/analysis/groups";
 import { OUTCOME_LABELS, OUTCOMES, type AnalysisQuery } from "@/lib/analysis/params";
 

@@ -1,7 +1,8 @@
 // Final state: rusted / not rusted per group by the last scored inspection, with Fisher's exact test,
 // and the final rusted area with Kruskal–Wallis.
-import type { ComparisonResult } from "@/lib/analysis/compare";
-import { fmtPercent, fmtStat, formatPValue } from "./format";
+import type { ComparisonResult } from "@/lib/analysis/result";
+import { formatPValue } from "@/lib/stats/summary";
+import { fmtPercent, fmtStat } from "./format";
 
 export function FinalSection({ c }: { c: ComparisonResult }) {
   const t = c.finalStateTest;

@@ -1,5 +1,4 @@
 // Display helpers for the comparison pages (days since start, percentages, p-values).
-export { formatPValue } from "@/lib/stats/outcomes";
 
 export function fmtDay(day: number | null | undefined): string {
   if (day == null || !Number.isFinite(day)) return "—";

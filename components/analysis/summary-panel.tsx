@@ -1,5 +1,5 @@
 // The result in plain words, then the caveats a reader must weigh before acting on it.
-import type { ComparisonResult } from "@/lib/analysis/compare";
+import type { ComparisonResult } from "@/lib/analysis/result";
 
 export function SummaryPanel({ c }: { c: ComparisonResult }) {
   return (

@@ -1,7 +1,8 @@
 // Time to first rust: rust-free curves with censoring marks, numbers at risk, medians and log-rank tests.
-import type { ComparisonResult } from "@/lib/analysis/compare";
+import type { ComparisonResult } from "@/lib/analysis/result";
 import { survivalSpec } from "./chart-specs";
-import { fmtDay, fmtStat, formatPValue, pCell } from "./format";
+import { formatPValue } from "@/lib/stats/summary";
+import { fmtDay, fmtStat, pCell } from "./format";
 import { VegaChart } from "./vega-chart";
 
 export function SurvivalSection({ c, expand = false }: { c: ComparisonResult; expand?: boolean }) {

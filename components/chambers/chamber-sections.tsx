@@ -1,6 +1,7 @@
 // Server-rendered sections of the chamber page: desiccant upkeep, hygrometer checks, recent
 // readings and imports. Forms inside are client components; permissions decide whether they show.
-import type { Chamber, DesiccantEvent, DesiccantStatus, HygrometerCheck } from "@/db/queries/chambers";
+import type { Chamber, DesiccantEvent, HygrometerCheck } from "@/db/queries/chambers";
+import type { DesiccantStatus } from "@/lib/humidity/desiccant-status";
 import { formatDate, formatDateTime, formatNumber } from "@/lib/format";
 import { REMIND_DAYS_BEFORE } from "@/lib/validation/chambers";
 import { EmptyState } from "@/components/ui/empty-state";
@@ -9,7 +10,7 @@ import { ApplyOffsetToggle, DesiccantEventForm, HygrometerCheckForm, ReadingForm
 
 const dateOrDash = (d: Date | null) => (d ? (d.getTime() - Date.now() > 3650 * 86_400_000 ? "over 10 years away" : formatDate(d)) : "—");
 
-export function DesiccantSection({ chamber, status, events, canWrite }: { chamber: Chamber; status: DesiccantStatus; events: DesiccantEvent[]; canWrite: boolean }) {
+export function DesiccantSection({ chamber, status, events, canWrite }: { chamber: Chamber; status: DesiccantStatus<DesiccantEvent>; events: DesiccantEvent[]; canWrite: boolean }) {
   return (
     <section className="panel p-4 space-y-4" aria-labelledby="desiccant-h">
       <h2 id="desiccant-h" className="font-semibold">Desiccant upkeep</h2>

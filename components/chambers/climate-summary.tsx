@@ -1,6 +1,6 @@
 // How well the chamber held its band over the chosen period (lib/climate/band-stats on the
 // corrected readings): time in band, mean, worst excursion, settling after the last disturbance.
-import type { ChamberSeries } from "@/db/queries/readings";
+import type { ChamberSeries } from "@/db/queries/readings-series";
 import { formatDateTime, formatNumber } from "@/lib/format";
 
 export function formatMinutes(min: number): string {

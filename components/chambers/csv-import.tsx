@@ -4,7 +4,8 @@
 // again (the check that counts) and stores everything in one transaction — or nothing.
 import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
-import { importCsv, previewCsv, type CsvImportError } from "@/lib/climate/csv-import";
+import { importCsv, type CsvImportError } from "@/lib/climate/csv-import";
+import { previewCsv } from "@/lib/climate/csv-preview";
 import { CsvMappingFields, type MappingState } from "./csv-mapping-fields";
 import { useBrowserZone } from "./form-controls";
 

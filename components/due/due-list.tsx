@@ -4,7 +4,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import Link from "next/link";
 import { formatDateTime } from "@/lib/format";
-import { DUE_PAGE_SIZE, STATUS_RULE_TEXT } from "@/lib/schedule";
+import { DUE_PAGE_SIZE, STATUS_RULE_TEXT } from "@/lib/schedule/status";
 
 type Item = { id: string; trialId: string; trialTitle: string; dayNumber: number; plannedAt: string; status: "due" | "overdue" | "upcoming" | "done"; rescheduleReason: string | null };
 type Answer = { items: Item[]; total: number; totalCapped: boolean; now: string; graceHours: number };

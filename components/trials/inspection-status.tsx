@@ -1,5 +1,5 @@
 // Inspection status as a word with a small mark; rust colour only for "overdue", as a warning.
-import type { InspectionStatus } from "@/lib/schedule";
+import type { InspectionStatus } from "@/lib/schedule/status";
 
 const STYLE: Record<InspectionStatus, string> = {
   done: "text-iron-600",

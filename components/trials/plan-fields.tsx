@@ -2,7 +2,7 @@
 // The inspection plan: fixed interval, geometric (rule shown) or a custom day list, with a preview of
 // the dates if the trial started today at 09:00 UTC (the real dates follow the start).
 import { useMemo, useState } from "react";
-import { buildSchedule, GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule";
+import { buildSchedule, GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule/plans";
 import { parseDayList } from "@/lib/validation/trials";
 import { formatDate } from "@/lib/format";
 

@@ -5,7 +5,7 @@ import { useActionState, useEffect, useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { createTrialAction, updateTrialAction } from "@/app/(lab)/trials/actions";
 import { Field, FormMessage, SelectField, TextArea } from "@/components/ui/form";
-import type { InspectionPlan } from "@/lib/schedule";
+import type { InspectionPlan } from "@/lib/schedule/plans";
 import { PRIMARY_OUTCOMES } from "@/lib/validation/trials";
 import { PlanFields } from "./plan-fields";
 import { ProtocolLines } from "./protocol-lines";

@@ -8,7 +8,7 @@ import { formatDate } from "@/lib/format";
 import { appUrl, sendMail } from "@/lib/mail/send";
 import { REMIND_DAYS_BEFORE } from "@/lib/validation/chambers";
 import { db } from "../client";
-import { desiccantStatus } from "../queries/chambers";
+import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { chambers, desiccantEvents, desiccantReminders, memberships, users } from "../schema";
 
 export const MAX_SEND_ATTEMPTS = 25;

@@ -6,7 +6,7 @@ import type PgBoss from "pg-boss";
 import sharp from "sharp";
 import { PHOTO_TYPES, isPhotoContentType, readPhotoConfig } from "@/lib/photos/config";
 import { derivativeKey } from "@/storage/keys";
-import { deleteKeys, getObjectBytes, headObject, listKeys, putObject } from "@/storage/presign";
+import { deleteKeys, getObjectBytes, headObject, listKeys, putObject } from "@/storage/objects";
 import { db } from "../client";
 import { photos } from "../schema";
 import { getBoss, QUEUES } from "./queue";

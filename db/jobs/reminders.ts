@@ -5,10 +5,10 @@
 import { and, eq, gt, isNull, lt, sql } from "drizzle-orm";
 import { appUrl, sendMail } from "@/lib/mail/send";
 import { formatDateTime } from "@/lib/format";
+import { OVERDUE_GRACE_HOURS } from "@/lib/schedule/status";
 import { db } from "../client";
 import { inspections, memberships, reminderLog, trialMembers, trials, users } from "../schema";
 
-export const OVERDUE_GRACE_HOURS = 6;
 export type ReminderKind = "day-before" | "overdue";
 export type ReminderJob = { inspectionId: string; userId: string; kind: ReminderKind };
 

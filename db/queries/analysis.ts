@@ -1,6 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, gte, inArray, isNotNull, lte, or, sql } from "drizzle-orm";
-import { compareGroups, scorerAgreement, type ComparisonResult, type CurveMethod, type GradePair } from "@/lib/analysis/compare";
+import { compareGroups, scorerAgreement, type GradePair } from "@/lib/analysis/compare";
+import type { ComparisonResult, CurveMethod } from "@/lib/analysis/result";
 import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
 import type { Grouping } from "@/lib/analysis/groups";
 import { outcomeRows } from "@/lib/export/outcome-rows";

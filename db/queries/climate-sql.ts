@@ -1,7 +1,7 @@
 import "server-only";
 import type pg from "pg";
 import { getPool } from "../client";
-import { HOUR_MS, type BlockRow, type Row } from "./readings-reduce";
+import { HOUR_MS, type BlockRow, type Row } from "@/lib/climate/readings-reduce";
 
 // The chamber chart's reads, on one connection in one read-only snapshot so the hourly summaries
 // and the readings fetched to complete them describe the same data even while a logger posts.

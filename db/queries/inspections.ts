@@ -2,16 +2,14 @@ import "server-only";
 import { and, asc, desc, eq, gt, isNotNull, isNull, lt, lte, or, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { formatDateTime } from "@/lib/format";
-import { inspectionStatus } from "@/lib/schedule";
+import { inspectionStatus, OVERDUE_GRACE_HOURS } from "@/lib/schedule/status";
 import { recordAudit } from "../audit";
 import { db } from "../client";
-import { OVERDUE_GRACE_HOURS } from "../jobs/reminders";
 import { chambers, inspections, placements, reminderLog, specimens, treatments, trials, users } from "../schema";
 import { assertAllowed, isUuid, type Actor } from "./specimens";
 import { assertWritable } from "@/lib/trials/lock";
 import { lockTrial } from "./trial-access";
 
-export { OVERDUE_GRACE_HOURS };
 export type InspectionFilter = "open" | "done" | "overdue" | "all";
 export const COUNT_CAP = 1_000;
 

@@ -7,6 +7,7 @@ import { db } from "@/db/client";
 import { inspections, photos, placements, scores, specimens, trialArms, trials } from "@/db/schema";
 import type { Role } from "@/lib/auth/permissions";
 import { referenceTime, toPhotoView, type PhotoView, type RecordScore } from "./photos";
+import { photoInListForViewer } from "@/lib/trials/access";
 import { blindTrialIds } from "./trial-access";
 
 type InspectionRow = typeof inspections.$inferSelect;
@@ -59,7 +60,7 @@ export async function getSpecimenTimeline({ labId, specimenId, userId, role }: {
     const entries = all
       .map((i) => ({
         inspection: lite(i),
-        photos: photoRows.filter((p) => p.inspectionId === i.id).map((p) => toPhotoView(p, { role, reference: referenceTime(i) })),
+        photos: photoRows.filter((p) => p.inspectionId === i.id).map((p) => photoInListForViewer(toPhotoView(p, { role, reference: referenceTime(i) }), { blind: isBlind })),
         score: isBlind ? null : scoreBy.get(i.id) ?? null,
       }))
       .filter((e) => e.inspection.doneAt || e.photos.length);
@@ -98,7 +99,7 @@ export async function getTrialGrid({ labId, trialId, inspectionId, userId, role 
     .map((p) => ({
       specimen: { id: p.id, label: p.label, materialClass: p.materialClass },
       armLabel: isBlind ? null : p.armLabel,
-      photos: photoRows.filter((r) => r.specimenId === p.id).map((r) => toPhotoView(r, { role, reference: ref })),
+      photos: photoRows.filter((r) => r.specimenId === p.id).map((r) => photoInListForViewer(toPhotoView(r, { role, reference: ref }), { blind: isBlind })),
       score: scoreBy.get(p.id) ?? null,
     }))
     .sort((a, b) => a.specimen.label.localeCompare(b.specimen.label, undefined, { numeric: true }));

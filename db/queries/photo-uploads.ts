@@ -21,7 +21,8 @@ import { describeSniffed, sniffImageType } from "@/lib/photos/magic";
 import type { PresignRequest } from "@/lib/photos/schemas";
 import { signUploadToken, verifyUploadToken, type UploadClaim } from "@/lib/photos/upload-token";
 import { keyBelongsToLab, photoKey } from "@/storage/keys";
-import { deleteObject, getObjectRange, headObject, presignPut, type PresignedUpload } from "@/storage/presign";
+import { presignPut, type PresignedUpload } from "@/storage/presign";
+import { deleteObject, getObjectRange, headObject } from "@/storage/objects";
 import { getInspectionForPhotos, isSpecimenPlaced, referenceTime } from "./photos";
 import { lockTrial } from "./trial-access";
 

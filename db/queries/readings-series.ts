@@ -8,9 +8,8 @@ import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, t
 import {
   applyOffsets, blockFacts, BucketPicker, COARSE_MS, gapLimitMinutes, groupBlocks, HOUR_MS, noteBlockOffsets, OffsetsUsed, OffsetTimeline, RunFolder,
   type BlockFacts, type BlockRow, type Candidate, type OffsetInUse, type Range, type Row,
-} from "./readings-reduce";
+} from "@/lib/climate/readings-reduce";
 
-export type { OffsetInUse } from "./readings-reduce";
 export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
 
 const DAY_MS = 86_400_000;

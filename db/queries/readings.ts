@@ -155,4 +155,3 @@ export async function postReadingsWithToken({ token, chamberId, body }: { token:
 // ——— Chart and analysis ———
 // In readings-series.ts (hourly summaries + the hours that leave the band); re-exported so the
 // chamber page and its components keep importing from here.
-export { getChamberSeries, type ChamberSeries, type OffsetInUse, type SeriesPoint } from "./readings-series";

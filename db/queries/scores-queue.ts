@@ -6,7 +6,8 @@ import { hashSeed } from "@/lib/allocation/prng";
 import { AppError } from "@/lib/auth/errors";
 import { db } from "../client";
 import { chambers, inspections, photos, placements, scores, specimens, treatments } from "../schema";
-import { marksOnPhoto, photoUrl, type PhotoForScoring } from "./scores-read";
+import { photoUrl } from "@/storage/photo-urls";
+import { marksOnPhoto, type PhotoForScoring } from "./scores-read";
 import { getTrial, scorerAssignment } from "./trial-access";
 
 export const QUEUE_PAGE_SIZE = 24;

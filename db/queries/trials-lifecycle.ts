@@ -3,7 +3,7 @@ import "server-only";
 import { and, eq, inArray, isNotNull, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { formatDateTime } from "@/lib/format";
-import { buildSchedule, planDays } from "@/lib/schedule";
+import { buildSchedule, planDays } from "@/lib/schedule/plans";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { inspections, placements, specimens, trialAllocations, trialArms, trialNotes, trials } from "../schema";

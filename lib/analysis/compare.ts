@@ -1,56 +1,17 @@
 // A full comparison of groups of specimens: curves, medians, tests, growth and final state, plus
 // the plain-language summary. Pure: the caller loads outcomes (db/queries/analysis.ts).
 import { cohensKappa } from "@/lib/stats/agreement";
-import { areaOverTime, quantileType7, summarizeComparison, type AreaPoint } from "@/lib/stats/outcomes";
+import { areaOverTime, quantileType7 } from "@/lib/stats/outcomes";
+import { summarizeComparison } from "@/lib/stats/summary";
 import { chiSquareUpperTail } from "@/lib/stats/distributions";
-import { logRank, rightEndpointKm, type IntervalObservation } from "@/lib/stats/survival";
-import { fisherExact, kruskalWallis, pairwiseLogRank, type KruskalWallisResult, type PairwiseLogRank } from "@/lib/stats/tests";
-import { kmSummary, numbersAtRisk, turnbullSummary, type KmSummary, type TurnbullSummary } from "./curves";
+import { logRank } from "@/lib/stats/survival";
+import { rightEndpointKm, type IntervalObservation } from "@/lib/stats/turnbull";
+import { fisherExact, kruskalWallis, pairwiseLogRank } from "@/lib/stats/tests";
+import { kmSummary, numbersAtRisk, turnbullSummary } from "./curves";
 import type { SpecimenOutcome } from "./derive";
 import { GROUPING_LABELS, groupOutcomes, type Grouping } from "./groups";
 import { extraSentences } from "./sentences";
-
-export const CURVE_METHODS = ["turnbull", "km"] as const;
-export type CurveMethod = (typeof CURVE_METHODS)[number];
-
-export interface GroupResult {
-  key: string;
-  label: string;
-  /** Specimens with at least one scored inspection (the ones analysed). */
-  n: number;
-  unscored: number;
-  events: number;
-  censored: number;
-  turnbull: TurnbullSummary;
-  km: KmSummary;
-  area: AreaPoint[];
-  final: { rusted: number; notRusted: number; medianAreaPercent: number | null };
-}
-
-export interface AgreementResult {
-  pairs: number;
-  /** Unweighted Cohen's kappa on ASTM D610 grades; null when undefined (one grade used by both). */
-  kappa: number | null;
-  kappaQuadratic: number | null;
-}
-
-export interface ComparisonResult {
-  groupBy: Grouping;
-  groupByLabel: string;
-  method: CurveMethod;
-  groups: GroupResult[];
-  atRisk: { times: number[]; counts: number[][] };
-  logRank: { chiSquare: number; df: number; pValue: number } | null;
-  pairwise: (PairwiseLogRank & { events: number })[];
-  /** Rusted vs not rusted by group: Fisher's exact test, or Pearson's χ² when the table is too large to enumerate. */
-  finalStateTest: FinalStateTest | null;
-  kruskal: KruskalWallisResult | null;
-  agreement: AgreementResult | null;
-  totals: { placements: number; scored: number; rusted: number; inspectionDays: number[] };
-  /** Plain-language result, in reading order; `notes` are the caveats that follow it. */
-  summary: string[];
-  notes: string[];
-}
+import { type AgreementResult, type ComparisonResult, type CurveMethod, type FinalStateTest, type GroupResult } from "./result";
 
 export function intervalsOf(members: readonly SpecimenOutcome[]): IntervalObservation[] {
   return members
@@ -77,10 +38,6 @@ export function scorerAgreement(pairs: readonly GradePair[]): AgreementResult | 
     kappaQuadratic: finite(cohensKappa(a, b, { categories: 11, weights: "quadratic" })),
   };
 }
-
-export type FinalStateTest =
-  | { method: "fisher"; pValue: number }
-  | { method: "chi-square"; pValue: number; chiSquare: number; df: number };
 
 // Every table of a bench-top trial enumerates well within this (~20 ms); a large trial split into
 // many arms would not, and there Pearson's χ² approximation is sound anyway (large counts).

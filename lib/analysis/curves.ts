@@ -1,9 +1,8 @@
 // Rust-free fraction curves for charts and tables: Turnbull (interval data) and right-endpoint
 // Kaplan–Meier with Greenwood log limits, censoring marks, medians and numbers at risk.
-import {
-  kaplanMeier, medianFromTurnbull, rightEndpointKm, survivalCurveFromTurnbull, turnbullFit,
-  type IntervalObservation, type SurvivalObservation,
-} from "@/lib/stats/survival";
+import type { SurvivalObservation } from "@/lib/stats/observations";
+import { kaplanMeier } from "@/lib/stats/survival";
+import { medianFromTurnbull, rightEndpointKm, survivalCurveFromTurnbull, turnbullFit, type IntervalObservation } from "@/lib/stats/turnbull";
 
 export interface CurvePoint {
   time: number;

@@ -1,7 +1,7 @@
 // The comparison's choices as URL search parameters, shared by the pages and the JSON endpoint.
 import { z } from "zod";
 import { AppError } from "@/lib/auth/errors";
-import { CURVE_METHODS } from "./compare";
+import { CURVE_METHODS } from "./result";
 import { GROUPINGS } from "./groups";
 
 export const OUTCOMES = ["first-rust", "area", "final"] as const;

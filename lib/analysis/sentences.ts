@@ -1,6 +1,6 @@
 // Caveats and secondary results that follow the plain-language summary of time to first rust.
-import { describeKappa, formatPValue } from "@/lib/stats/outcomes";
-import type { ComparisonResult } from "./compare";
+import { describeKappa, formatPValue } from "@/lib/stats/summary";
+import type { ComparisonResult } from "./result";
 
 export const STANDING_NOTE =
   "These results guide storage decisions; they do not replace a conservator's judgement of each specimen.";

@@ -3,20 +3,10 @@
 // first dates. The options cover those; previewCsv guesses them so the form starts pre-filled.
 // papaparse does the splitting (quotes, embedded delimiters); everything else is ours.
 
-import { detectDelimiter, eachRow, parseLoggerNumber, prepareText } from "@/lib/climate/csv-rows";
+import { detectDelimiter, eachRow, parseLoggerNumber, prepareText, type ColumnRef, type CsvColumnMapping } from "@/lib/climate/csv-rows";
 import { parseLocalTime, zoneResolver, type DateFormat } from "@/lib/climate/time-parse";
 
 export type CsvDelimiter = "auto" | "," | ";" | "\t";
-/** A header name (matched case-insensitively) or a 0-based column index. */
-export type ColumnRef = string | number;
-
-export interface CsvColumnMapping {
-  /** One column, or a [date, time] pair for loggers that split them. */
-  time: ColumnRef | readonly [ColumnRef, ColumnRef];
-  rhPercent: ColumnRef;
-  tempC?: ColumnRef | null;
-  dewPointC?: ColumnRef | null;
-}
 
 export interface CsvImportOptions {
   mapping: CsvColumnMapping;
@@ -185,5 +175,3 @@ function capitalise(s: string): string {
   return s.charAt(0).toUpperCase() + s.slice(1);
 }
 
-export { previewCsv, type CsvPreview } from "@/lib/climate/csv-preview";
-export { parseLoggerNumber } from "@/lib/climate/csv-rows";

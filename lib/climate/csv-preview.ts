@@ -2,8 +2,7 @@
 // is which and what unit and date format the file seems to use. Guesses only pre-fill the import
 // form; the user confirms them.
 
-import type { CsvColumnMapping } from "@/lib/climate/csv-import";
-import { detectDelimiter, eachRow, prepareText } from "@/lib/climate/csv-rows";
+import { detectDelimiter, eachRow, prepareText, type CsvColumnMapping } from "@/lib/climate/csv-rows";
 import { guessDateFormat, type DateFormat } from "@/lib/climate/time-parse";
 
 export interface CsvPreview {

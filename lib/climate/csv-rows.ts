@@ -3,6 +3,17 @@
 
 import Papa from "papaparse";
 
+/** A header name (matched case-insensitively) or a 0-based column index. */
+export type ColumnRef = string | number;
+
+export interface CsvColumnMapping {
+  /** One column, or a [date, time] pair for loggers that split them. */
+  time: ColumnRef | readonly [ColumnRef, ColumnRef];
+  rhPercent: ColumnRef;
+  tempC?: ColumnRef | null;
+  dewPointC?: ColumnRef | null;
+}
+
 const UNIT_SUFFIX = /\s*(%\s*rh|%|°\s*[cf]|deg\s*[cf])$/i;
 
 /** Number from a logger cell: accepts "21,5" (decimal comma) and a trailing unit ("45 %", "21 °C"). */

@@ -3,7 +3,7 @@
 // the painted area fraction of the face matches the score's area percent.
 import { createRng, randomBetween } from "@/lib/allocation/prng";
 import { polygonCrossings, type Point } from "@/lib/scoring/geometry";
-import { scatterRustSpots, type RustSpot } from "@/lib/demo-images";
+import { scatterRustSpots, type RustSpot } from "@/lib/demo-images/specimen-face";
 
 // Area (in "a" units, ≈ % of the face) at which each successive site starts to rust.
 const ONSET = [0, 0.03, 0.08, 0.2, 0.4, 0.8, 1.5, 3, 5, 8, 12, 18];

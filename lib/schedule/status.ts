@@ -14,6 +14,9 @@ export type InspectionStatus = "done" | "due" | "overdue" | "upcoming";
 export type InspectionTiming = { plannedAt: Date; doneAt?: Date | null };
 export type StatusOptions = { timeZone?: string };
 
+/** Hours past its planned time before a not-done inspection counts as overdue (the product's choice). */
+export const OVERDUE_GRACE_HOURS = 6;
+
 export const STATUS_RULE_TEXT =
   "Due: planned for today or tomorrow, or already past but still within the grace period. " +
   "Overdue: past the planned time by more than the grace period. Upcoming: planned after tomorrow.";

@@ -2,8 +2,6 @@
 // per specimen and rusted-area summaries per inspection day.
 import type { IntervalObservation } from "./turnbull";
 
-export { summarizeComparison, formatPValue, describeKappa } from "./summary";
-export type { ComparisonSummaryInput, ComparisonGroupSummary, PairwiseSummary } from "./summary";
 
 /** A day number (days on the caller's scale, e.g. trial day) or a Date. */
 export type DayValue = Date | number;

@@ -1,11 +1,8 @@
 // Right-censored survival: Kaplan–Meier with Greenwood/log limits and the k-group log-rank test,
-// both matching R survival's defaults. Interval-censored data live in turnbull.ts (re-exported).
+// both matching R survival's defaults. Interval-censored data live in turnbull.ts.
 import { chiSquareUpperTail, Z_975 } from "./distributions";
+import type { SurvivalObservation } from "./observations";
 
-export interface SurvivalObservation {
-  time: number;
-  event: boolean;
-}
 
 export interface KaplanMeierStep {
   time: number;
@@ -177,19 +174,3 @@ export function logRank(groups: readonly (readonly SurvivalObservation[])[]): Lo
   const pValue = rank > 0 ? chiSquareUpperTail(value, rank) : 1;
   return { chiSquare: value, df: rank, pValue, observed, expected };
 }
-
-export {
-  turnbull,
-  turnbullFit,
-  survivalCurveFromTurnbull,
-  medianFromTurnbull,
-  rightEndpointKm,
-} from "./turnbull";
-export type {
-  IntervalObservation,
-  TurnbullInterval,
-  TurnbullResult,
-  TurnbullFit,
-  TurnbullCurveStep,
-  TurnbullMedian,
-} from "./turnbull";

@@ -1,6 +1,7 @@
 // Hypothesis tests used when comparing treatments. Fisher and the rank tests live in their own
 // files; this module is the one place the product imports tests from.
-import { logRank, type SurvivalObservation } from "./survival";
+import type { SurvivalObservation } from "./observations";
+import { logRank } from "./survival";
 
 export {
   fisherExact,

@@ -1,6 +1,6 @@
 // Turnbull's NPMLE for interval-censored times: rust is only ever seen at an inspection, so each
 // specimen's first-rust time is known to lie in (last clean inspection, first rusted inspection].
-import type { SurvivalObservation } from "./survival";
+import type { SurvivalObservation } from "./observations";
 import { SelfConsistency } from "./turnbull-em";
 
 /** (lower, upper]; upper = Infinity when never seen to fail; lower = upper means an exact time. */

@@ -75,6 +75,15 @@ export function photoForBlindViewer<T extends { specimenLabel?: string; filename
   };
 }
 
+/**
+ * A photo in a blind scorer's list of an inspection's photos: the specimen stays (the scorer knows
+ * which specimen is which), the original file name and the uploader go, since names often carry jar
+ * or treatment codes.
+ */
+export function photoInListForViewer<T extends { filename: string; uploadedBy: string | null }>(view: T, access: Pick<TrialAccess, "blind">): T {
+  return access.blind ? { ...view, filename: BLIND_HIDDEN, uploadedBy: null } : view;
+}
+
 export type AuditEventView = { userId: string | null; trialId: string | null; summary: string | null; before: unknown; after: unknown };
 
 /**

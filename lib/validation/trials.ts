@@ -1,7 +1,7 @@
 // Trial design, allocation, status changes, placements and inspections: one schema per input, the
 // same for the HTML forms (through a small form-to-object step) and the JSON API.
 import { z } from "zod";
-import { planDays, type InspectionPlan } from "@/lib/schedule";
+import { planDays, type InspectionPlan } from "@/lib/schedule/plans";
 
 export const PRIMARY_OUTCOMES = {
   "time-to-first-rust": "Time to first rust",

@@ -8,7 +8,7 @@ import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { deleteKeys } from "@/storage/presign";
+import { deleteKeys } from "@/storage/objects";
 import { anonymous, signedInClient } from "../support/http";
 import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
 

@@ -116,12 +116,17 @@ describe("trials in the browser", () => {
       else await db.delete(s.reminderLog).where(and(eq(s.reminderLog.inspectionId, job.inspectionId), eq(s.reminderLog.userId, job.userId), eq(s.reminderLog.kind, job.kind)));
     }
     const subject = `Inspection tomorrow: ${title}, day 0`;
+    // The demo mailbox is for the lab's leads.
+    const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
+    const lead = await context.newPage();
+    await signIn(lead, "lead@tarrow.example");
     await expect.poll(async () => {
-      await page.goto(`${APP_URL}/mailbox?to=technician@tarrow.example`);
-      return page.getByText(subject).count();
+      await lead.goto(`${APP_URL}/mailbox?to=technician@tarrow.example`);
+      return lead.getByText(subject).count();
     }, { timeout: 30_000, interval: 1000 }).toBeGreaterThan(0);
-    await page.getByText(subject).first().click();
+    await lead.getByText(subject).first().click();
     // Whoever sent it (this test or the worker), the mail links to the inspection page.
-    await page.locator(`a[href$="/trials/${trialId}/inspections/${first.id}"]`).first().waitFor();
+    await lead.locator(`a[href$="/trials/${trialId}/inspections/${first.id}"]`).first().waitFor();
+    await context.close();
   }, 90_000);
 });

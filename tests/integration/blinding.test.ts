@@ -14,6 +14,7 @@ import { createTrial } from "@/db/queries/trials";
 import { allocateTrial } from "@/db/queries/trials-allocation";
 import { concludeTrial, moveSpecimen, startTrial } from "@/db/queries/trials-lifecycle";
 import { PAGE_ROUTES, type PageRoute } from "@/lib/auth/page-routes";
+import { can, type Permission, type Role } from "@/lib/auth/permissions";
 import { hashPassword } from "@/lib/auth/password";
 import { BLIND_HIDDEN, RESULTS_HIDDEN } from "@/lib/trials/access";
 import { saveScoreSchema } from "@/lib/validation/scores";
@@ -36,6 +37,8 @@ type Scene = {
   /** Texts only other scorers' work would show (their score summaries in the audit trail). */
   othersWork: string[];
   seed: string;
+  /** The blind scorer's role in the lab: pages and routes it lacks the permission for answer 403. */
+  role: Role;
 };
 
 const RESULT_ROUTES = new Set(["/api/trials/[trialId]/analysis", "/api/trials/[trialId]/export/outcomes.csv", "/api/trials/[trialId]/export/datapackage.zip"]);
@@ -51,34 +54,38 @@ async function armTokensOf(trialId: string) {
   return [...new Set(arms.flatMap((a) => [a.id, a.label, a.chamberId, a.chamber, a.treatmentId, a.treatment]))];
 }
 
-async function sceneOf(name: string, client: Client, trialId: string, othersWork: string[]): Promise<Scene> {
+async function sceneOf(name: string, client: Client, trialId: string, othersWork: string[], email: string): Promise<Scene> {
   const [trial] = await db.select().from(s.trials).where(eq(s.trials.id, trialId));
+  const [member] = await db.select({ role: s.memberships.role }).from(s.memberships).innerJoin(s.users, eq(s.users.id, s.memberships.userId))
+    .where(and(eq(s.users.email, email), eq(s.memberships.labId, trial.labId)));
   const specimens = await db.selectDistinct({ id: s.specimens.id, label: s.specimens.label }).from(s.placements)
     .innerJoin(s.specimens, eq(s.specimens.id, s.placements.specimenId)).where(eq(s.placements.trialId, trialId));
   const [insp] = await db.select().from(s.inspections).where(and(eq(s.inspections.trialId, trialId), isNotNull(s.inspections.doneAt))).orderBy(asc(s.inspections.plannedAt)).limit(1);
   const photos = await db.select({ id: s.photos.id }).from(s.photos).where(eq(s.photos.trialId, trialId)).limit(6);
-  return { name, client, trialId, specimens, photoIds: photos.map((p) => p.id), inspectionId: insp.id, armTokens: await armTokensOf(trialId), othersWork, seed: trial.allocationSeed ?? "" };
+  return { name, client, trialId, specimens, photoIds: photos.map((p) => p.id), inspectionId: insp.id, armTokens: await armTokensOf(trialId), othersWork, seed: trial.allocationSeed ?? "", role: member.role };
 }
 
 /** Every URL a blind scorer might open for this trial, from the route tree. */
 function urlsOf(scene: Scene) {
   const ids = { trialId: scene.trialId, inspectionId: scene.inspectionId, photoId: scene.photoIds[0], specimenId: scene.specimens[0].id };
   const pages = listLabPages().map((p) => p.route as PageRoute);
-  const out: { url: string; results: boolean }[] = [];
+  const out: { url: string; results: boolean; permission?: Permission }[] = [];
   for (const route of pages.filter((r) => r.startsWith("/trials/[trialId]"))) {
-    if (route.includes("[specimenId]")) for (const sp of scene.specimens) out.push({ url: fillRoute(route, { ...ids, specimenId: sp.id }), results: false });
-    else if (route.includes("[photoId]")) for (const photoId of scene.photoIds) out.push({ url: fillRoute(route, { ...ids, photoId }), results: false });
-    else out.push({ url: fillRoute(route, ids), results: "results" in PAGE_ROUTES[route] });
+    const permission: Permission = PAGE_ROUTES[route].permission;
+    if (route.includes("[specimenId]")) for (const sp of scene.specimens) out.push({ url: fillRoute(route, { ...ids, specimenId: sp.id }), results: false, permission });
+    else if (route.includes("[photoId]")) for (const photoId of scene.photoIds) out.push({ url: fillRoute(route, { ...ids, photoId }), results: false, permission });
+    else out.push({ url: fillRoute(route, ids), results: "results" in PAGE_ROUTES[route], permission });
   }
-  for (const route of pages.filter((r) => r.startsWith("/specimens/[specimenId]") && !r.endsWith("/edit"))) {
-    for (const sp of scene.specimens) out.push({ url: fillRoute(route, { specimenId: sp.id }), results: false });
+  for (const route of pages.filter((r) => r.startsWith("/specimens/[specimenId]"))) {
+    for (const sp of scene.specimens) out.push({ url: fillRoute(route, { specimenId: sp.id }), results: false, permission: PAGE_ROUTES[route].permission });
   }
   out.push({ url: "/", results: false }, { url: "/audit", results: false }, { url: `/audit?entity=trial`, results: false });
   for (const r of routes.filter((x) => x.method === "GET" && x.permission)) {
-    if (r.route.includes("[trialId]") || r.route.includes("[inspectionId]")) out.push({ url: fillRoute(r.route, ids), results: RESULT_ROUTES.has(r.route) });
-    else if (r.route.includes("[specimenId]")) for (const sp of scene.specimens) out.push({ url: fillRoute(r.route, { specimenId: sp.id }), results: false });
-    else if (r.route.includes("[photoId]")) for (const photoId of scene.photoIds) out.push({ url: fillRoute(r.route, { photoId }) + (r.route.endsWith("/file") ? "?format=json" : ""), results: false });
-    else if (!r.route.includes("[")) out.push({ url: `${r.route}?trialId=${scene.trialId}`, results: false });
+    const permission = r.permission as Permission;
+    if (r.route.includes("[trialId]") || r.route.includes("[inspectionId]")) out.push({ url: fillRoute(r.route, ids), results: RESULT_ROUTES.has(r.route), permission });
+    else if (r.route.includes("[specimenId]")) for (const sp of scene.specimens) out.push({ url: fillRoute(r.route, { specimenId: sp.id }), results: false, permission });
+    else if (r.route.includes("[photoId]")) for (const photoId of scene.photoIds) out.push({ url: fillRoute(r.route, { photoId }) + (r.route.endsWith("/file") ? "?format=json" : ""), results: false, permission });
+    else if (!r.route.includes("[")) out.push({ url: `${r.route}?trialId=${scene.trialId}`, results: false, permission });
   }
   return out;
 }
@@ -99,9 +106,14 @@ function pairings(body: string, subjects: string[], arms: string[]): string[] {
 
 async function walk(scene: Scene) {
   const checked: string[] = [];
-  for (const { url, results } of urlsOf(scene)) {
+  for (const { url, results, permission } of urlsOf(scene)) {
     const res = await scene.client.fetch(url);
     const body = await res.text();
+    if (permission && !can(scene.role, permission)) {
+      // The role lacks the permission: a 403 that shows nothing of the trial.
+      expect({ url, status: res.status }).toEqual({ url, status: 403 });
+      continue;
+    }
     if (results) {
       expect({ url, status: res.status }).toEqual({ url, status: 403 });
       expect(body.replace(/&#x27;|&apos;/g, "'")).toContain(RESULTS_HIDDEN);
@@ -122,7 +134,7 @@ beforeAll(async () => {
   // The demo: scorer@ scores the running demo trial blind.
   const [demo] = await db.select({ id: s.trials.id }).from(s.trials).innerJoin(s.labs, eq(s.labs.id, s.trials.labId))
     .where(and(eq(s.labs.name, "Tarrow Valley Natural History Collection"), eq(s.trials.status, "running")));
-  scenes.push(await sceneOf("demo", await signedInClient("scorer@tarrow.example", "rustline-demo-1"), demo.id, []));
+  scenes.push(await sceneOf("demo", await signedInClient("scorer@tarrow.example", "rustline-demo-1"), demo.id, [], "scorer@tarrow.example"));
 
   // A fresh lab: two jars × two treatments, allocated, started, photographed, scored by the primary
   // scorer and one specimen moved, all through the product's own functions (so audit events exist).
@@ -152,7 +164,7 @@ beforeAll(async () => {
   const [placed] = await db.select().from(s.placements).where(and(eq(s.placements.trialId, trial.id), eq(s.placements.specimenId, specimens[0].id)));
   await moveSpecimen({ actor: researcher, trialId: trial.id, specimenId: specimens[0].id, armId: arms.find((a) => a.id !== placed.armId)!.id, reason: "Stand cracked in the first jar" });
   const client = await signedInClient(email, TEST_PASSWORD);
-  fresh = { lab, scene: await sceneOf("fresh lab", client, trial.id, ["rust score at day 0: 0.37 %", "-day0.jpg", "Stand cracked"]) };
+  fresh = { lab, scene: await sceneOf("fresh lab", client, trial.id, ["rust score at day 0: 0.37 %", "-day0.jpg", "Stand cracked"], email) };
   scenes.push(fresh.scene);
 }, 180_000);
 afterAll(() => closeDb());

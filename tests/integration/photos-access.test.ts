@@ -9,13 +9,17 @@ import { db } from "@/db/client";
 import { processPhoto, type PhotoProcessJob } from "@/db/jobs/photos";
 import { finalizePhotoUpload, presignPhotoUpload } from "@/db/queries/photo-uploads";
 import { getSpecimenTimeline, getTrialGrid } from "@/db/queries/photo-timeline";
-import { listInspectionPhotos, photoDetails, photoFileUrl } from "@/db/queries/photos";
+import { listInspectionPhotos, photoDetails, photoFileTarget } from "@/db/queries/photos";
+import { signPhotoFile } from "@/storage/photo-urls";
 import * as s from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { labPrefix } from "@/storage/keys";
-import { deleteKeys, listKeys } from "@/storage/presign";
+import { deleteKeys, listKeys } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { browserPut, cameraJpeg, createPhotoFixture, type PhotoFixture } from "./photos-fixtures";
+
+/** What the file route does: the checked target, then its signed URL. */
+const photoFileUrl = async (args: Parameters<typeof photoFileTarget>[0]) => signPhotoFile(await photoFileTarget(args));
 
 let s3: S3Fake;
 let fx: PhotoFixture;

@@ -2,7 +2,7 @@
 // written by sharp (independent of the process time zone), the capture-time check, magic bytes,
 // file-name → label matching, the upload receipt, and the demo photos' rust planning.
 import { afterEach, describe, expect, it } from "vitest";
-import { renderSpecimenFace, specimenFaceOutline } from "@/lib/demo-images";
+import { renderSpecimenFace, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
 import { checkCaptureTime } from "@/lib/photos/capture-check";
 import { contentTypeFor, readPhotoConfig } from "@/lib/photos/config";
 import { createSpotPlanner } from "@/lib/photos/demo-spots";

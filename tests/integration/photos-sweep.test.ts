@@ -8,7 +8,7 @@ import { sweepOrphanPhotos, type PhotoProcessJob } from "@/db/jobs/photos";
 import { finalizePhotoUpload, presignPhotoUpload } from "@/db/queries/photo-uploads";
 import * as s from "@/db/schema";
 import { derivativeKey, labPrefix, photoKey } from "@/storage/keys";
-import { deleteKeys, headObject, listKeys, putObject } from "@/storage/presign";
+import { deleteKeys, headObject, listKeys, putObject } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { browserPut, cameraJpeg, createPhotoFixture, type PhotoFixture } from "./photos-fixtures";
 

@@ -13,7 +13,7 @@ import * as s from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { requireLab } from "@/lib/auth/context";
 import { labPrefix } from "@/storage/keys";
-import { deleteKeys, getObjectBytes, headObject, listKeys } from "@/storage/presign";
+import { deleteKeys, getObjectBytes, headObject, listKeys } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { browserPut, cameraJpeg, createPhotoFixture, pngBytes, type PhotoFixture } from "./photos-fixtures";
 

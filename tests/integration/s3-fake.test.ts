@@ -6,17 +6,8 @@ import { randomBytes, randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createS3Client, readStorageConfig } from "@/storage/client";
 import { derivativeKey, keyBelongsToLab, labPrefix, photoKey } from "@/storage/keys";
-import {
-  deleteKeys,
-  deleteObject,
-  getObjectBytes,
-  getObjectRange,
-  headObject,
-  listKeys,
-  presignGet,
-  presignPut,
-  putObject,
-} from "@/storage/presign";
+import { presignGet, presignPut } from "@/storage/presign";
+import { deleteKeys, deleteObject, getObjectBytes, getObjectRange, headObject, listKeys, putObject } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 
 let s3: S3Fake;

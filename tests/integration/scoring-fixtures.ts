@@ -5,10 +5,10 @@ import { randomUUID } from "node:crypto";
 import sharp from "sharp";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline } from "@/lib/demo-images";
+import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
 import type { Point } from "@/lib/scoring/geometry";
 import { derivativeKey, photoKey } from "@/storage/keys";
-import { putObject } from "@/storage/presign";
+import { putObject } from "@/storage/objects";
 
 const DAY = 86_400_000;
 

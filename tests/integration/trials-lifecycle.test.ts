@@ -11,7 +11,7 @@ import {
   updateProtocolAction, updateScorersAction, updateTechniciansAction, updateTrialAction,
 } from "@/app/(lab)/trials/actions";
 import { recordInspectionAction, rescheduleInspectionAction } from "@/app/(lab)/trials/[trialId]/schedule/actions";
-import { planDays } from "@/lib/schedule";
+import { planDays } from "@/lib/schedule/plans";
 import { createTestLab, type TestLab } from "../support/db";
 import { addChambers, addSpecimens, addTreatments, designInput } from "./trials-fixtures";
 

@@ -1,6 +1,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { allocate, allocateDetailed, createRng, hashSeed, mulberry32, type Assignment } from "@/lib/allocation";
+import { allocate, allocateDetailed, type Assignment } from "@/lib/allocation/allocate";
+import { createRng, hashSeed, mulberry32 } from "@/lib/allocation/prng";
 
 type Specimen = { id: string; materialClass: string };
 

@@ -1,5 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { importCsv, parseLoggerNumber, previewCsv } from "@/lib/climate/csv-import";
+import { importCsv } from "@/lib/climate/csv-import";
+import { previewCsv } from "@/lib/climate/csv-preview";
+import { parseLoggerNumber } from "@/lib/climate/csv-rows";
 
 const iso = (d: Date) => d.toISOString();
 

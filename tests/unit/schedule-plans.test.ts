@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { buildSchedule, GEOMETRIC_RULE_TEXT, normaliseCustomDays, planDays } from "@/lib/schedule";
+import { buildSchedule, GEOMETRIC_RULE_TEXT, normaliseCustomDays, planDays } from "@/lib/schedule/plans";
 
 const start = new Date("2025-03-10T09:30:00.000Z");
 const iso = (dates: Date[]) => dates.map((d) => d.toISOString());

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { dueWithin, inspectionStatus } from "@/lib/schedule";
+import { dueWithin, inspectionStatus } from "@/lib/schedule/status";
 
 // now: Wednesday 2025-06-11 15:00 UTC. Today's window runs to the end of tomorrow, i.e. to
 // 2025-06-13T00:00Z. Grace 6 h ⇒ planned before 09:00 today is overdue.

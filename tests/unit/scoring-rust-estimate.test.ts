@@ -1,6 +1,6 @@
 import sharp from "sharp";
 import { describe, expect, it } from "vitest";
-import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images";
+import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images/specimen-face";
 import { pointInPolygon } from "@/lib/scoring/geometry";
 import { estimateRustFraction, isRustColour, rustMask, srgbToLab } from "@/lib/scoring/rust-estimate";
 

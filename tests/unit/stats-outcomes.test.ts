@@ -3,12 +3,11 @@ import {
   areaOverTime,
   firstRustInterval,
   firstRustIntervals,
-  formatPValue,
   isRusted,
-  summarizeComparison,
   type InspectionOutcome,
 } from "@/lib/stats/outcomes";
-import { medianFromTurnbull, turnbull } from "@/lib/stats/survival";
+import { formatPValue, summarizeComparison } from "@/lib/stats/summary";
+import { medianFromTurnbull, turnbull } from "@/lib/stats/turnbull";
 
 // Hand-built specimen series: (day, rusted, area %).
 const series = (...rows: [number, boolean, number | null][]): InspectionOutcome[] =>

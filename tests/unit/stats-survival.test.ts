@@ -1,14 +1,7 @@
 import { describe, expect, it } from "vitest";
-import {
-  kaplanMeier,
-  logRank,
-  medianFromTurnbull,
-  rightEndpointKm,
-  survivalCurveFromTurnbull,
-  turnbull,
-  turnbullFit,
-  type SurvivalObservation,
-} from "@/lib/stats/survival";
+import type { SurvivalObservation } from "@/lib/stats/observations";
+import { kaplanMeier, logRank } from "@/lib/stats/survival";
+import { medianFromTurnbull, rightEndpointKm, survivalCurveFromTurnbull, turnbull, turnbullFit } from "@/lib/stats/turnbull";
 import { pairwiseLogRank } from "@/lib/stats/tests";
 
 // "9, 13+, …" → observations; "+" marks a censored time.

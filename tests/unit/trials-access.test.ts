@@ -1,7 +1,7 @@
 // The one view rule for trials (lib/trials/access) and the lock check (lib/trials/lock).
 import { describe, expect, it } from "vitest";
 import { AppError } from "@/lib/auth/errors";
-import { BLIND_HIDDEN, assertResultsVisible, auditEventForViewer, hideArms, hideArmsOfTrials, photoForBlindViewer, trialAccess } from "@/lib/trials/access";
+import { BLIND_HIDDEN, assertResultsVisible, auditEventForViewer, hideArms, hideArmsOfTrials, photoForBlindViewer, photoInListForViewer, trialAccess } from "@/lib/trials/access";
 import { assertWritable, lockedError } from "@/lib/trials/lock";
 
 const trial = (status: "draft" | "running" | "concluded") => ({ id: "t1", status, primaryScorerId: "u-primary" });
@@ -54,6 +54,12 @@ describe("audit events and photos for a blind viewer", () => {
     const view = photoForBlindViewer({ id: "p1", specimenId: "s1", specimenLabel: "S-1", filename: "S-1 day 7.jpg", inspectionId: "i1" });
     expect(view).toMatchObject({ id: "p1", specimenId: null, specimenLabel: null, inspectionId: null, filename: BLIND_HIDDEN });
     expect(JSON.stringify(view)).not.toContain("S-1");
+  });
+
+  it("drops the file name and uploader from a blind scorer's list of an inspection's photos", () => {
+    const photo = { id: "p2", specimenId: "s1", specimenLabel: "S-1", filename: "jarB-wax-S-1.jpg", uploadedBy: "Ada" };
+    expect(photoInListForViewer(photo, { blind: true })).toEqual({ ...photo, filename: BLIND_HIDDEN, uploadedBy: null });
+    expect(photoInListForViewer(photo, { blind: false })).toBe(photo);
   });
 });
 

@@ -2,7 +2,8 @@
 // "open" = not done in a running trial, earliest first; each item carries its status (due/overdue/…).
 // total stops at 1,000 (totalCapped: true beyond that).
 import { NextResponse } from "next/server";
-import { listInspections, OVERDUE_GRACE_HOURS } from "@/db/queries/inspections";
+import { listInspections } from "@/db/queries/inspections";
+import { OVERDUE_GRACE_HOURS } from "@/lib/schedule/status";
 import { labRoute } from "@/lib/auth/route";
 import { inspectionListSchema } from "@/lib/validation/trials";
 

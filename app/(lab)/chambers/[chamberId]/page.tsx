@@ -1,6 +1,8 @@
 import Link from "next/link";
-import { desiccantStatus, getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
-import { getChamberSeries, listReadingImports, listRecentReadings } from "@/db/queries/readings";
+import { desiccantStatus } from "@/lib/humidity/desiccant-status";
+import { getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
+import { listReadingImports, listRecentReadings } from "@/db/queries/readings";
+import { getChamberSeries } from "@/db/queries/readings-series";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";

@@ -4,7 +4,7 @@ import { hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrial
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
-import { GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule";
+import { GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule/plans";
 import { PRIMARY_OUTCOMES, SCORE_RULES, type PrimaryOutcome } from "@/lib/validation/trials";
 import { ConcludeForm, NoteForm, StartForm } from "@/components/trials/lifecycle-forms";
 import { ProtocolForm, ScorersForm, TechniciansForm } from "@/components/trials/team-forms";

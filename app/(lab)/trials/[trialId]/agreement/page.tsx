@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { ASTM_CATEGORIES, scorerAgreement, type PairAgreement } from "@/db/queries/scores-agreement";
 import { trialPage } from "@/lib/auth/page";
-import { describeKappa } from "@/lib/stats/outcomes";
+import { describeKappa } from "@/lib/stats/summary";
 import { BlandAltmanLazy } from "@/components/scoring/bland-altman-lazy";
 import { EmptyState } from "@/components/ui/empty-state";
 

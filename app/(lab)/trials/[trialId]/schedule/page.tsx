@@ -1,9 +1,10 @@
 import Link from "next/link";
-import { listTrialInspections, OVERDUE_GRACE_HOURS } from "@/db/queries/inspections";
+import { listTrialInspections } from "@/db/queries/inspections";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
-import { buildSchedule, planDays, STATUS_RULE_TEXT } from "@/lib/schedule";
+import { buildSchedule, planDays } from "@/lib/schedule/plans";
+import { OVERDUE_GRACE_HOURS, STATUS_RULE_TEXT } from "@/lib/schedule/status";
 import { RecordInspectionForm, RescheduleForm } from "@/components/trials/inspection-forms";
 import { InspectionStatusTag } from "@/components/trials/inspection-status";
 

@@ -5,6 +5,7 @@ import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { readPhotoConfig } from "@/lib/photos/config";
+import { photoInListForViewer } from "@/lib/trials/access";
 import { EmptyState } from "@/components/ui/empty-state";
 import { PhotoCard } from "@/components/photos/photo-card";
 import { PhotoUploader } from "@/components/photos/photo-uploader";
@@ -16,7 +17,7 @@ export const metadata = { title: "Inspection photos" };
 
 export default async function InspectionPhotosPage({ params }: { params: Promise<{ trialId: string; inspectionId: string }> }) {
   const { trialId, inspectionId } = await params;
-  const { ctx } = await trialPage("/trials/[trialId]/inspections/[inspectionId]/photos", trialId);
+  const { ctx, access } = await trialPage("/trials/[trialId]/inspections/[inspectionId]/photos", trialId);
   const target = isUuid(inspectionId) ? await getInspectionForPhotos({ labId: ctx.labId, inspectionId, trialId }) : null;
   if (!target) notFound();
   const { inspection, trial } = target;
@@ -24,7 +25,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   const cfg = readPhotoConfig();
   const [specimens, recorded] = await Promise.all([
     placedSpecimens({ labId: ctx.labId, trialId: trial.id, at: ref.at }),
-    listInspectionPhotos({ labId: ctx.labId, inspectionId: inspection.id, role: ctx.role, reference: ref }),
+    listInspectionPhotos({ labId: ctx.labId, inspectionId: inspection.id, role: ctx.role, reference: ref }).then((rows) => rows.map((p) => photoInListForViewer(p, access))),
   ]);
   const mayUpload = can(ctx.role, "photos.upload");
   const locked = trial.status === "concluded";

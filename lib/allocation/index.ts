@@ -1,2 +1,0 @@
-export * from "./allocate";
-export * from "./prng";

@@ -1,3 +1,0 @@
-export * from "./grades";
-export * from "./geometry";
-export * from "./rust-estimate";
