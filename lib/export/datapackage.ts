@@ -1,5 +1,7 @@
 // Frictionless Data Package descriptors (datapackage.json, spec v1 with the tabular profiles):
-// build one for our CSV tables, and check any descriptor against the spec's required parts.
+// build one for our CSV tables, and check any descriptor against the spec's required parts and the
+// cross-references a JSON Schema cannot express (unique names, keys naming existing fields). The tests
+// also check descriptors against the official profile JSON with ajv (tests/support/datapackage-profile.ts).
 import { FIELD_TYPES, formatDateTime, schemaOf, type TableSchema, type TableSpec } from "./table-schema";
 
 export interface DataResource {
