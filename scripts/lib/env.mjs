@@ -31,7 +31,7 @@ export function localEnv(mode = "app") {
     S3_DATA_DIR: process.env.S3_DATA_DIR ?? path.join(dataDir, "objects"),
     S3_CORS_ORIGINS:
       process.env.S3_CORS_ORIGINS ??
-      [3000, appPort, 3111, 3210, 3201, 3202, 3203, 3204, 3205, 3206].map((p) => `http://localhost:${p},http://127.0.0.1:${p}`).join(","),
+      [3000, appPort, Number(process.env.TEST_APP_PORT ?? 3210), 3111, 3210, 3201, 3202, 3203, 3204, 3205, 3206].map((p) => `http://localhost:${p},http://127.0.0.1:${p}`).join(","),
     MAIL_PORT: String(mailPort),
     MAIL_DIR: process.env.MAIL_DIR ?? path.join(dataDir, "mail"),
     SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${mailPort}`,

@@ -1,6 +1,7 @@
 // Who can see a photo: signed URLs only after the lab check (another lab's member gets 404), the
 // original (which keeps its EXIF location) only for roles with photos.gps, no location for
 // observers anywhere, and no treatment or score of record for a blind scorer.
+import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import exifr from "exifr";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -31,7 +32,7 @@ beforeAll(async () => {
   other = await createPhotoFixture("Other access lab");
   const bytes = await cameraJpeg({ shotAt: fx.doneAt, gps: true });
   const caller = await fx.ctx("technician");
-  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "a.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength } });
+  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "a.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") } });
   expect((await browserPut(pre, bytes)).status).toBe(200);
   const jobs: PhotoProcessJob[] = [];
   const r = await finalizePhotoUpload({ caller, token: pre.token, enqueue: async (j) => { jobs.push(j); } });
