@@ -23,7 +23,7 @@ const nextConfig: NextConfig = {
   // Parallel local builds (e.g. several dev servers) can each use their own folder under .data/.
   distDir: process.env.NEXT_DIST_DIR ?? ".next",
   poweredByHeader: false,
-  serverExternalPackages: ["@node-rs/argon2", "sharp", "pg-boss", "s3rver"],
+  serverExternalPackages: ["@node-rs/argon2", "sharp", "pg-boss"],
   // authInterrupts: forbidden() answers a 403 with app/(lab)/forbidden.tsx (lib/auth/page.ts).
   experimental: { serverActions: { bodySizeLimit: "2mb" }, authInterrupts: true },
   async headers() {

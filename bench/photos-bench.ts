@@ -5,7 +5,7 @@
 // in as the demo technician) and the app process's CPU time is measured over the run.
 // Run: node --conditions=react-server --import tsx bench/photos-bench.ts
 //      PHOTOS_BENCH_COUNT=200 PHOTOS_BENCH_MB=5 PHOTOS_BENCH_CONCURRENCY=8 APP_URL=… APP_PID=…
-import { randomBytes, randomUUID } from "node:crypto";
+import { createHash, randomBytes, randomUUID } from "node:crypto";
 import fs from "node:fs";
 import http from "node:http";
 import https from "node:https";
@@ -33,6 +33,7 @@ export type PhotosBenchResult = {
 };
 
 type Signed = { key: string; url: string; headers: Record<string, string> };
+const sha256Hex = (body: Buffer) => createHash("sha256").update(body).digest("hex");
 
 const MB = 1024 * 1024;
 
@@ -103,11 +104,11 @@ async function appSigner(appUrl: string) {
     .where(and(eq(s.trials.status, "running"), isNotNull(s.inspections.doneAt)))
     .limit(1);
   if (!target) throw new Error(`no running trial with a done inspection behind ${appUrl}`);
-  return async (sizeBytes: number): Promise<Signed> => {
+  return async (body: Buffer): Promise<Signed> => {
     const res = await client.fetch("/api/photos/presign", {
       method: "POST",
       headers: { "content-type": "application/json" },
-      body: JSON.stringify({ ...target, filename: "bench.jpg", contentType: "image/jpeg", sizeBytes }),
+      body: JSON.stringify({ ...target, filename: "bench.jpg", contentType: "image/jpeg", sizeBytes: body.byteLength, sha256: sha256Hex(body) }),
     });
     if (!res.ok) throw new Error(`presign via the app answered ${res.status}: ${await res.text()}`);
     const r = (await res.json()) as { key: string; upload: { url: string; headers: Record<string, string> } };
@@ -126,9 +127,9 @@ export async function runPhotosBench(opts: { count?: number; sizeBytes?: number;
   const written: string[] = [];
 
   const useApp = Boolean(appPid && appUrl);
-  const sign = useApp ? await appSigner(appUrl!) : async (n: number): Promise<Signed> => {
+  const sign = useApp ? await appSigner(appUrl!) : async (body: Buffer): Promise<Signed> => {
     const key = photoKey({ labId, photoId: randomUUID(), ext: "jpg" });
-    const up = await presignPut({ key, contentType: "image/jpeg", contentLength: n, expiresInS: 300 });
+    const up = await presignPut({ key, contentType: "image/jpeg", contentLength: body.byteLength, sha256: sha256Hex(body), expiresInS: 300 });
     return { key, url: up.url, headers: up.headers };
   };
 
@@ -140,7 +141,7 @@ export async function runPhotosBench(opts: { count?: number; sizeBytes?: number;
 
   // Warm both paths (connections, the store's folders).
   await pool(bodies, concurrency, async (b) => {
-    const sg = await sign(b.byteLength);
+    const sg = await sign(b);
     written.push(sg.key);
     await putPresigned(sg, b);
     const k = photoKey({ labId, photoId: randomUUID(), ext: "jpg" });
@@ -161,7 +162,7 @@ export async function runPhotosBench(opts: { count?: number; sizeBytes?: number;
     const signed: Promise<Signed>[] = [];
     const chain: Promise<unknown>[] = [Promise.resolve(), Promise.resolve()];
     items.forEach((b, i) => {
-      const p = chain[i % 2].then(() => sign(b.byteLength));
+      const p = chain[i % 2].then(() => sign(b));
       chain[i % 2] = p.catch(() => undefined);
       signed.push(p);
     });

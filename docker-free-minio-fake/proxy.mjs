@@ -1,7 +1,8 @@
 // Forward a verified request to the internal s3rver and stream its answer back.
 // Request bodies are spooled to a file first (memory stays flat for large photos): s3rver writes
 // straight over the object file as bytes arrive, so a dropped or short upload would otherwise leave
-// a truncated object behind. Only a body whose length (and SHA-256, when signed) checks out is sent on.
+// a truncated object behind. Only a body whose length (and SHA-256, when signed or sent as
+// x-amz-checksum-sha256) checks out is sent on.
 import { createHash, randomBytes } from "node:crypto";
 import fs from "node:fs";
 import http from "node:http";
@@ -69,9 +70,17 @@ async function spoolBody(req, spoolDir) {
     fs.rmSync(file, { force: true });
     throw new S3Rejection(400, "IncompleteBody", "You did not provide the number of bytes specified by the Content-Length HTTP header.");
   }
-  if (/^[0-9a-f]{64}$/i.test(expectedSha) && sha256.digest("hex") !== expectedSha.toLowerCase()) {
+  const digest = sha256.digest();
+  if (/^[0-9a-f]{64}$/i.test(expectedSha) && digest.toString("hex") !== expectedSha.toLowerCase()) {
     fs.rmSync(file, { force: true });
     throw new S3Rejection(400, "XAmzContentSHA256Mismatch", "The provided 'x-amz-content-sha256' header does not match what was computed.");
+  }
+  // Additional checksum (S3 API reference, "Checking object integrity"): x-amz-checksum-sha256 is the
+  // base64 SHA-256 of the body; when a presigned URL signs it, only those exact bytes can be stored.
+  const checksum = req.headers["x-amz-checksum-sha256"];
+  if (checksum !== undefined && String(checksum) !== digest.toString("base64")) {
+    fs.rmSync(file, { force: true });
+    throw new S3Rejection(400, "BadDigest", "The SHA256 you specified did not match the calculated checksum.");
   }
   return { file, bytes };
 }

@@ -54,6 +54,8 @@ async function store(raw, session) {
     from: parsed.from?.text ?? session.envelope.mailFrom?.address ?? "",
     to: envelopeTo.length ? envelopeTo : addressList(parsed.to),
     subject: parsed.subject ?? "",
+    // The lab the app says the mail is about (X-Rustline-Lab); the demo mailbox shows it to that lab only.
+    labId: parsed.headers.get("x-rustline-lab") ?? null,
     text: parsed.text ?? "",
     html: typeof parsed.html === "string" ? parsed.html : "",
   };

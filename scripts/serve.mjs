@@ -8,7 +8,9 @@ import http from "node:http";
 import os from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
+import { dataDir } from "./lib/env.mjs";
 import { readinessGate } from "./lib/readiness.mjs";
+import { resolveSecret } from "./lib/secret.mjs";
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), "..");
 const port = Number(process.env.PORT ?? 3000);
@@ -17,7 +19,19 @@ const requested = Number.parseInt(process.env.WEB_CONCURRENCY ?? "", 10);
 const workers = Number.isFinite(requested) && requested > 0 ? requested : Math.min(4, cores);
 process.env.NODE_ENV ??= "production";
 
+function clientAddress(req) {
+  const forwarded = process.env.TRUST_PROXY === "1" ? String(req.headers["x-forwarded-for"] ?? "").split(",").map((s) => s.trim()).filter(Boolean).pop() : undefined;
+  return forwarded ?? req.socket.remoteAddress ?? "unknown";
+}
+
 if (cluster.isPrimary) {
+  // The workers inherit the secret: refused unless DEMO_MODE=1 when missing or weak, made once in demo mode.
+  try {
+    process.env.NEXTAUTH_SECRET = resolveSecret(process.env, dataDir);
+  } catch (err) {
+    console.error(`[serve] ${err instanceof Error ? err.message : err}`);
+    process.exit(1);
+  }
   let stopping = false;
   const recentDeaths = [];
   const stop = (signal) => {
@@ -56,6 +70,10 @@ if (cluster.isPrimary) {
     if (await gate.refuse(req, res)) return;
     // The 403 page (app/(lab)/forbidden.tsx) names the roles a page needs; it learns the page from this.
     req.headers["x-rustline-path"] = (req.url ?? "/").split("?")[0];
+    // Sign-in throttling counts failures per client address (lib/auth/throttle.ts CLIENT_ADDRESS_HEADER);
+    // a value the client sent is replaced. Behind a reverse proxy (TRUST_PROXY=1) the proxy's last
+    // X-Forwarded-For entry is the client; otherwise the connection's own address.
+    req.headers["x-rustline-client"] = clientAddress(req);
     await handle(req, res);
   });
   server.listen(port);

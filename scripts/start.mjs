@@ -6,7 +6,14 @@ ensureDependencies();
 const { localEnv } = await import("./lib/env.mjs");
 const { startServices, stopServices } = await import("./lib/services.mjs");
 
-const env = { ...process.env, ...localEnv("app"), NODE_ENV: "production" };
+let env;
+try {
+  env = { ...process.env, ...localEnv("app"), NODE_ENV: "production" };
+} catch (err) {
+  // Refuse before starting anything: a missing or weak NEXTAUTH_SECRET outside demo mode (scripts/lib/secret.mjs).
+  console.error(`\n[start] ${err instanceof Error ? err.message : err}`);
+  process.exit(1);
+}
 let started = [];
 const children = [];
 let stopping = false;

@@ -36,6 +36,9 @@ export class StorageUnavailableError extends Error {
 }
 
 export function createS3Client(config: StorageConfig, endpoint: string = config.endpoint): S3Client {
+  // The SDK prints a multi-line notice about future Node versions in every process that builds a client;
+  // it reads exactly this variable ("true") when the client is built. Set it to anything else to see it.
+  process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= "true";
   const client = new S3Client({
     endpoint,
     region: config.region,

@@ -2,7 +2,8 @@ import Link from "next/link";
 import { redirect } from "next/navigation";
 import { listUserLabs } from "@/db/queries/memberships";
 import { currentIdentity } from "@/lib/auth/context";
-import { ROLE_LABELS, type Role } from "@/lib/auth/permissions";
+import { pageRule } from "@/lib/auth/page-routes";
+import { can, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
 import { LabChooser } from "@/components/shell/lab-chooser";
 import { LabSwitcher, SignOutButton } from "@/components/shell/lab-switcher";
 import { NavLinks } from "@/components/shell/nav-links";
@@ -44,7 +45,7 @@ export default async function LabLayout({ children }: { children: React.ReactNod
     { href: "/analysis", label: "Analysis" },
     { href: "/audit", label: "Audit trail" },
     { href: "/settings", label: "Lab settings" },
-    ...(process.env.DEMO_MODE === "1" ? [{ href: "/mailbox", label: "Demo mailbox" }] : []),
+    ...(process.env.DEMO_MODE === "1" && can(active.role as Role, pageRule("/mailbox").permission) ? [{ href: "/mailbox", label: "Demo mailbox" }] : []),
   ];
   return (
     <Providers>

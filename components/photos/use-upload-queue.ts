@@ -4,6 +4,7 @@
 import { useCallback, useEffect, useRef, useState } from "react";
 import type { CaptureCheck } from "@/lib/photos/capture-check";
 import { contentTypeFor, formatBytes, type PhotoContentType } from "@/lib/photos/config";
+import { sha256OfBlob } from "@/lib/photos/file-hash";
 import { matchSpecimenLabel, type LabelCandidate } from "@/lib/photos/label-match";
 
 export const PARALLEL_UPLOADS = 3;
@@ -24,7 +25,7 @@ export type UploadItem = {
   result?: { photoId: string; specimenLabel: string; capturedAtRaw: string | null; capturedOffset: string | null; check: CaptureCheck; warnings: string[]; alreadyFinalized: boolean };
 };
 
-type Runtime = { xhr?: XMLHttpRequest; token?: string; uploaded?: boolean };
+type Runtime = { xhr?: XMLHttpRequest; token?: string; uploaded?: boolean; sha256?: string };
 const ACTIVE: ItemState[] = ["presigning", "uploading", "finalizing"];
 
 async function postJson(url: string, body: unknown): Promise<{ ok: boolean; status: number; data: Record<string, unknown> }> {
@@ -88,7 +89,13 @@ export function useUploadQueue({ inspectionId, specimens, maxBytes, onFinished }
     runtime.current.set(id, rt);
     if (!rt.uploaded || !rt.token) {
       patch(id, { state: "presigning", progress: 0, error: undefined });
-      const pre = await postJson("/api/photos/presign", { inspectionId, specimenId: item.specimenId, filename: item.file.name, contentType: item.contentType, sizeBytes: item.file.size });
+      // The upload URL is signed for these exact bytes (x-amz-checksum-sha256).
+      try {
+        rt.sha256 ??= await sha256OfBlob(item.file);
+      } catch {
+        return patch(id, { state: "error", error: "The file could not be read. Choose it again." });
+      }
+      const pre = await postJson("/api/photos/presign", { inspectionId, specimenId: item.specimenId, filename: item.file.name, contentType: item.contentType, sizeBytes: item.file.size, sha256: rt.sha256 });
       if (!pre.ok) return patch(id, { state: "error", error: errorText(pre.data), blocked: pre.status === 413 || pre.status === 423 });
       const { upload, token } = pre.data as { upload: { url: string; headers: Record<string, string> }; token: string };
       rt.token = token;

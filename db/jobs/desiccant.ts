@@ -50,7 +50,7 @@ export async function sendDesiccantReminder(job: DesiccantReminderJob): Promise<
   const [claim] = await db.select().from(desiccantReminders).where(key);
   if (!claim || claim.sentAt) return "already-sent";
   const [info] = await db
-    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, chamberName: chambers.name, archivedAt: chambers.archivedAt, desiccantKind: chambers.desiccantKind })
+    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, chamberName: chambers.name, labId: chambers.labId, archivedAt: chambers.archivedAt, desiccantKind: chambers.desiccantKind })
     .from(chambers)
     .innerJoin(users, eq(users.id, job.userId))
     .where(eq(chambers.id, claim.chamberId));
@@ -72,6 +72,7 @@ export async function sendDesiccantReminder(job: DesiccantReminderJob): Promise<
   const past = claim.exhaustionAt.getTime() < Date.now();
   await sendMail({
     to: info.email,
+    labId: info.labId,
     subject: past ? `Desiccant may be spent: ${info.chamberName}` : `Desiccant due for regeneration by ${when}: ${info.chamberName}`,
     text:
       `Hello ${info.name},\n\nThe desiccant in "${info.chamberName}" is projected to be spent ${past ? "since" : "on"} ${when}, ` +

@@ -40,7 +40,7 @@ export async function sendReminder(job: ReminderJob) {
   const [log] = await db.select().from(reminderLog).where(and(eq(reminderLog.inspectionId, job.inspectionId), eq(reminderLog.userId, job.userId), eq(reminderLog.kind, job.kind)));
   if (!log || log.sentAt) return "already-sent";
   const [info] = await db
-    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, trialId: trials.id, trialTitle: trials.title, trialStatus: trials.status, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
+    .select({ email: users.email, name: users.name, optOut: users.remindersOptOut, trialId: trials.id, labId: trials.labId, trialTitle: trials.title, trialStatus: trials.status, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt, doneAt: inspections.doneAt })
     .from(inspections)
     .innerJoin(trials, eq(trials.id, inspections.trialId))
     .innerJoin(users, eq(users.id, job.userId))
@@ -55,6 +55,7 @@ export async function sendReminder(job: ReminderJob) {
   const when = formatDateTime(info.plannedAt);
   await sendMail({
     to: info.email,
+    labId: info.labId,
     subject: job.kind === "overdue" ? `Overdue inspection: ${info.trialTitle}, day ${info.dayNumber}` : `Inspection tomorrow: ${info.trialTitle}, day ${info.dayNumber}`,
     text: `Hello ${info.name},\n\n${job.kind === "overdue" ? "This inspection is overdue" : "This inspection is due"}: ${info.trialTitle}, day ${info.dayNumber}, planned for ${when}.\n\nOpen it: ${link}\n\nYou get these because you are a technician on this trial. Turn them off in Lab settings.`,
   });

@@ -14,11 +14,17 @@ export function hashToken(token: string) {
   return crypto.createHash("sha256").update(token).digest("hex");
 }
 
-export async function createUserWithLab(input: { name: string; email: string; password: string; labName: string }) {
-  const passwordHash = await hashPassword(input.password);
+export async function accountExists({ email }: { email: string }) {
+  const rows = await db.select({ id: users.id }).from(users).where(eq(users.email, email)).limit(1);
+  return rows.length > 0;
+}
+
+/** Only from a followed sign-up link (app/(auth)/sign-up): the address proved to be the caller's. */
+export async function createUserWithLab(input: { name: string; email: string; passwordHash: string; labName: string }) {
+  const { passwordHash } = input;
   return db.transaction(async (tx) => {
     const existing = await tx.select({ id: users.id }).from(users).where(eq(users.email, input.email)).limit(1);
-    if (existing.length) throw new AppError("conflict", "An account with this e-mail already exists.", { email: ["An account with this e-mail already exists. Sign in instead."] });
+    if (existing.length) throw new AppError("conflict", "An account with this e-mail already exists. Sign in instead.");
     const [user] = await tx.insert(users).values({ name: input.name, email: input.email, passwordHash }).returning();
     const [lab] = await tx.insert(labs).values({ name: input.labName }).returning();
     await tx.insert(memberships).values({ userId: user.id, labId: lab.id, role: "lead" });

@@ -6,6 +6,7 @@ import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/der
 import type { Grouping } from "@/lib/analysis/groups";
 import { outcomeRows } from "@/lib/export/outcome-rows";
 import { buildPackageZip, type PackageTable } from "@/lib/export/package-zip";
+import { formatDateTime } from "@/lib/export/table-schema";
 import { toPackageName } from "@/lib/export/datapackage";
 import {
   CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
@@ -164,7 +165,7 @@ const PACKAGE_README = (trial: AnalysisTrial, created: Date) => `# ${trial.title
 
 ${trial.question}
 
-Exported from Rustline on ${created.toISOString()} as a Frictionless Tabular Data Package
+Exported from Rustline on ${formatDateTime(created)} as a Frictionless Tabular Data Package
 (https://specs.frictionlessdata.io/tabular-data-package/). \`datapackage.json\` describes every CSV
 under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 checksum.
 
@@ -174,6 +175,11 @@ under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 c
 - \`photos.csv\` is a manifest: the image files stay in the lab's object storage; check a copy
   against its \`sha256\`.
 - User ids (scorer_id, done_by) are pseudonymous; \`blind\` marks scores made without seeing the treatment.
+- Times are UTC to the whole second (\`2026-03-01T09:30:00Z\`).
+- Text cells that would start with \`=\`, \`+\`, \`-\`, \`@\`, a tab or a carriage return begin with a
+  leading \`'\` guard, so a spreadsheet shows them as text instead of running them as formulas (a text
+  cell already starting with \`'\` before such a character gets one more). Remove one leading \`'\`
+  from such a cell to get the value as typed. Number, date and boolean cells are never changed.
 
 These results guide storage decisions; they do not replace a conservator's judgement.
 `;

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { db } from "../client";
-import { labs, memberships, users } from "../schema";
+import { invitations, labs, memberships, users } from "../schema";
 
 export async function getMembership({ userId, labId }: { userId: string; labId: string }) {
   const rows = await db
@@ -29,4 +29,13 @@ export async function listMembers({ labId }: { labId: string }) {
     .innerJoin(users, eq(users.id, memberships.userId))
     .where(eq(memberships.labId, labId))
     .orderBy(asc(users.name));
+}
+
+/** Addresses a lab writes to: its members and the people it invited (the demo mailbox shows mail to these only). */
+export async function listMailRecipients({ labId }: { labId: string }): Promise<string[]> {
+  const [members, invited] = await Promise.all([
+    db.select({ email: users.email }).from(memberships).innerJoin(users, eq(users.id, memberships.userId)).where(eq(memberships.labId, labId)),
+    db.select({ email: invitations.email }).from(invitations).where(eq(invitations.labId, labId)),
+  ]);
+  return [...new Set([...members, ...invited].map((r) => r.email))];
 }

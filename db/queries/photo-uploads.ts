@@ -1,6 +1,7 @@
 import "server-only";
 // The upload flow. Presign checks everything it can (role, lab, inspection, specimen, type, size),
-// signs a PUT bound to one key, type and length, and writes nothing: the browser then uploads
+// signs a PUT bound to one key, type, length and SHA-256 (so the bytes checked at finalise are the
+// only bytes storage will ever take under that key), and writes nothing: the browser then uploads
 // straight to storage. Finalise proves the upload happened and is what it claimed to be, and only
 // then creates the row (with its audit event). An abandoned upload leaves an object with no row,
 // which the hourly sweep removes.
@@ -52,10 +53,10 @@ export async function presignPhotoUpload({ caller, input, expiresInS }: { caller
   if (!placed) throw new AppError("invalid", "That specimen was not in this trial at this inspection.", { specimenId: ["Choose a specimen placed in the trial at this inspection."] });
 
   const key = photoKey({ labId: caller.labId, photoId: randomUUID(), ext: PHOTO_TYPES[contentType].ext });
-  const upload = await presignPut({ key, contentType, contentLength: input.sizeBytes, expiresInS: expiresInS ?? cfg.uploadUrlTtlS });
+  const upload = await presignPut({ key, contentType, contentLength: input.sizeBytes, sha256: input.sha256, expiresInS: expiresInS ?? cfg.uploadUrlTtlS });
   const claim: UploadClaim = {
     key, labId: caller.labId, userId: caller.userId, trialId: target.trial.id, inspectionId: target.inspection.id,
-    specimenId: input.specimenId, contentType, sizeBytes: input.sizeBytes, filename: cleanFileName(input.filename),
+    specimenId: input.specimenId, contentType, sizeBytes: input.sizeBytes, sha256: input.sha256, filename: cleanFileName(input.filename),
     exp: Math.floor(Date.now() / 1000) + cfg.finalizeWindowS,
   };
   return { key, upload, token: signUploadToken(claim, tokenSecret()), expiresAt: upload.expiresAt };
@@ -157,6 +158,11 @@ export async function finalizePhotoUpload({
     throw new AppError("invalid", `The file's content is ${describeSniffed(sniffed)}, not the ${claimed} it was sent as. It was removed and nothing was recorded.`);
   }
   const { sha256, head } = await hashObject(claim.key, claim.sizeBytes, claim.contentType !== "image/jpeg");
+  if (sha256 !== claim.sha256) {
+    // Storage that checks x-amz-checksum-sha256 never gets here; one that does not is caught now.
+    await deleteObject(claim.key);
+    throw new AppError("invalid", "The stored file is not the one approved for upload (its SHA-256 differs); it was removed and nothing was recorded.");
+  }
   const exif = await extractPhotoExif(head);
 
   const inserted = await db.transaction(async (tx) => {

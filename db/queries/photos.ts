@@ -1,6 +1,6 @@
 import "server-only";
 // Photo reads: the inspection an upload targets, who was placed when, photo views for pages, and
-// short-lived signed URLs handed out only after the lab and permission checks.
+// which stored file a viewer may get a signed URL for (storage/photo-urls signs it).
 import { and, asc, desc, eq, gt, inArray, isNull, lte, or } from "drizzle-orm";
 import { db } from "@/db/client";
 import { inspections, photos, placements, specimens, trials, users } from "@/db/schema";
@@ -11,7 +11,7 @@ import { photoForBlindViewer } from "@/lib/trials/access";
 import { blindTrialIds } from "./trial-access";
 import { readPhotoConfig } from "@/lib/photos/config";
 import type { PhotoVariant } from "@/lib/photos/schemas";
-import { presignGet } from "@/storage/presign";
+import type { PhotoFileTarget } from "@/storage/photo-urls";
 
 type PhotoRow = typeof photos.$inferSelect;
 export type Reference = { at: Date; kind: "done" | "planned" };
@@ -141,23 +141,24 @@ export async function photoDetails({ ctx, photoId }: { ctx: { labId: string; use
 }
 
 /**
- * A signed GET URL (5 minutes) for one variant of a photo, after the lab check. Previews are open
- * to every member; the original carries EXIF location, so it needs photos.gps.
+ * Which stored file one variant of a photo is, after the lab check, for a signed URL that lives
+ * readPhotoConfig().downloadUrlTtlS. Previews are open to every member; the original carries EXIF
+ * location, so it needs photos.gps.
  */
-export async function photoFileUrl({ ctx, photoId, variant }: { ctx: { labId: string; userId: string; role: Role }; photoId: string; variant: PhotoVariant }) {
+export async function photoFileTarget({ ctx, photoId, variant }: { ctx: { labId: string; userId: string; role: Role }; photoId: string; variant: PhotoVariant }): Promise<PhotoFileTarget> {
   const row = await getPhotoForLab({ labId: ctx.labId, photoId });
   if (!row) throw new AppError("not-found", "No such photo in this lab.");
   const p = row.p;
-  const ttl = readPhotoConfig().downloadUrlTtlS;
+  const expiresInS = readPhotoConfig().downloadUrlTtlS;
   if (variant === "original") {
     if (!can(ctx.role, "photos.gps")) throw new AppError("forbidden", "Your role sees previews only; the original file carries its location.");
     // The original file name carries the specimen label: a blind scorer's download is named by photo id.
     const filename = (await blindFor(ctx, p.trialId)) ? `${p.id}${p.filename.match(/\.[A-Za-z0-9]{1,8}$/)?.[0] ?? ""}` : p.filename;
-    return { url: await presignGet({ key: p.objectKey, expiresInS: ttl, filename, disposition: "attachment" }), expiresInS: ttl };
+    return { key: p.objectKey, expiresInS, filename, disposition: "attachment" };
   }
   const key = p.derivatives[variant];
   if (!key) throw new AppError("not-found", p.status === "failed" ? p.processingNote ?? "No preview for this photo." : "The preview is still being made.");
-  return { url: await presignGet({ key, expiresInS: ttl, disposition: "inline" }), expiresInS: ttl };
+  return { key, expiresInS, disposition: "inline" };
 }
 
 /** The score of record; photoId is the photo it was made on, when the scorer said so. */

@@ -6,8 +6,9 @@ import { hashSeed } from "@/lib/allocation/prng";
 import { AppError } from "@/lib/auth/errors";
 import { db } from "../client";
 import { chambers, inspections, photos, placements, scores, specimens, treatments } from "../schema";
-import { marksOnPhoto, photoUrl, type PhotoForScoring } from "./scores-read";
-import { getTrial, scorerAssignment } from "./trial-access";
+import { photoUrl } from "@/storage/photo-urls";
+import { marksOnPhoto, type PhotoForScoring } from "./scores-read";
+import { getTrial, getTrialAccess } from "./trial-access";
 
 export const QUEUE_PAGE_SIZE = 24;
 
@@ -54,12 +55,11 @@ function pageOf<T>(all: T[], page: number): { items: T[]; page: number; pages: n
 
 export async function listScoringQueue(input: { labId: string; userId: string; trialId: string; page: number; show: "todo" | "all" }): Promise<ScoringQueue> {
   const { labId, userId, trialId } = input;
-  await getTrial({ labId, trialId });
-  const assignment = await scorerAssignment(db, { labId, trialId, userId });
+  const { access } = await getTrialAccess({ labId, trialId, userId });
   const rows = await queuePhotos(labId, trialId, userId);
   const todo = rows.filter((r) => !r.mine).length;
 
-  if (assignment?.blind) {
+  if (access.blind) {
     const ordered = blindOrder(rows.map((r) => ({ photoId: r.photo.id, scored: !!r.mine, row: r })), trialId, userId)
       .map((r, i) => ({ ...r, position: i + 1 }));
     const shown = input.show === "todo" ? ordered.filter((r) => !r.scored) : ordered;

@@ -4,25 +4,13 @@ import "server-only";
 import { and, asc, desc, eq, inArray, lt, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import type { Mark, Point } from "@/lib/scoring/geometry";
-import { keyBelongsToLab } from "@/storage/keys";
-import { presignGet } from "@/storage/presign";
+import { photoUrl } from "@/storage/photo-urls";
 import { db } from "../client";
 import { chambers, inspections, marks, photos, placements, scores, specimens, treatments, trials, users } from "../schema";
 import { loadSpecimenOutcomes } from "./analysis";
 import { getTrial, getTrialAccess } from "./trial-access";
 
 type PhotoRow = typeof photos.$inferSelect;
-
-// Long enough for a scoring session; the page signs new URLs on every load.
-const DISPLAY_URL_SECONDS = 3600;
-
-/** Signed GET URL of a photo's display copy (original as fallback); the caller has checked the lab. */
-export async function photoUrl(photo: Pick<PhotoRow, "labId" | "objectKey" | "derivatives">, size: "display" | "thumb" = "display") {
-  const d = photo.derivatives ?? {};
-  const key = (size === "thumb" ? d.thumb ?? d.display : d.display) ?? photo.objectKey;
-  if (!keyBelongsToLab(key, photo.labId)) return null;
-  return presignGet({ key, expiresInS: DISPLAY_URL_SECONDS });
-}
 
 export type PhotoForScoring = {
   id: string;

@@ -6,8 +6,6 @@ export const users = pgTable("users", {
   email: text("email").notNull(),
   name: text("name").notNull(),
   passwordHash: text("password_hash").notNull(),
-  failedSignIns: integer("failed_sign_ins").notNull().default(0),
-  lockedUntil: timestamp("locked_until", { withTimezone: true }),
   remindersOptOut: boolean("reminders_opt_out").notNull().default(false),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [uniqueIndex("users_email_idx").on(t.email)]);
@@ -38,3 +36,13 @@ export const invitations = pgTable("invitations", {
   invitedBy: uuid("invited_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [uniqueIndex("invitations_token_idx").on(t.tokenHash), index("invitations_lab_idx").on(t.labId, t.createdAt)]);
+
+// Failed sign-ins per key ("account:<e-mail>", "address:<client address>"), counted atomically before the
+// password is checked; past a free number each failure makes the next attempt wait longer (lib/auth/throttle).
+// Keyed by the typed address, not the user, so unknown and known accounts are throttled alike.
+export const signInThrottles = pgTable("sign_in_throttles", {
+  key: text("key").primaryKey(),
+  failures: integer("failures").notNull(),
+  lastFailureAt: timestamp("last_failure_at", { withTimezone: true }).notNull(),
+  waitUntil: timestamp("wait_until", { withTimezone: true }),
+});

@@ -1,37 +1,22 @@
 // next-auth (v4) with e-mail + password and JWT sessions carrying the active lab.
 import type { NextAuthOptions } from "next-auth";
 import Credentials from "next-auth/providers/credentials";
-import { eq } from "drizzle-orm";
-import { db } from "@/db/client";
-import { users } from "@/db/schema";
 import { getMembership, listUserLabs } from "@/db/queries/memberships";
+import { safeCallbackPath } from "./callback-url";
+import { checkCredentials } from "./credentials";
 import { decode, encode } from "./jwt";
-import { verifyPassword } from "./password";
+import { CLIENT_ADDRESS_HEADER } from "./throttle";
 
-export const MAX_FAILED_SIGN_INS = 5;
-export const LOCKOUT_MINUTES = 15;
+export const SESSION_MAX_AGE_S = 7 * 24 * 3600;
 
-export async function checkCredentials(emailRaw: string, password: string) {
-  const email = emailRaw.trim().toLowerCase();
-  const [user] = await db.select().from(users).where(eq(users.email, email)).limit(1);
-  if (!user) return { ok: false as const, reason: "Wrong e-mail or password." };
-  if (user.lockedUntil && user.lockedUntil > new Date()) {
-    return { ok: false as const, reason: `Too many failed sign-ins. This account is locked until ${user.lockedUntil.toISOString().slice(11, 16)} UTC.` };
-  }
-  if (!(await verifyPassword(user.passwordHash, password))) {
-    const failed = user.failedSignIns + 1;
-    const lock = failed >= MAX_FAILED_SIGN_INS ? new Date(Date.now() + LOCKOUT_MINUTES * 60_000) : null;
-    await db.update(users).set({ failedSignIns: lock ? 0 : failed, lockedUntil: lock }).where(eq(users.id, user.id));
-    return { ok: false as const, reason: lock ? `Too many failed sign-ins. This account is locked for ${LOCKOUT_MINUTES} minutes.` : "Wrong e-mail or password." };
-  }
-  if (user.failedSignIns > 0 || user.lockedUntil) {
-    await db.update(users).set({ failedSignIns: 0, lockedUntil: null }).where(eq(users.id, user.id));
-  }
-  return { ok: true as const, user };
+/** What the session token carries for a user who just signed in: the first lab and the role there. */
+export async function sessionClaims(user: { id: string; email: string; name: string }) {
+  const labsOfUser = await listUserLabs({ userId: user.id });
+  return { sub: user.id, name: user.name, email: user.email, userId: user.id, labId: labsOfUser[0]?.labId ?? null, role: labsOfUser[0]?.role ?? null };
 }
 
 export const authOptions: NextAuthOptions = {
-  session: { strategy: "jwt", maxAge: 7 * 24 * 3600 },
+  session: { strategy: "jwt", maxAge: SESSION_MAX_AGE_S },
   jwt: { encode, decode },
   pages: { signIn: "/sign-in" },
   secret: process.env.NEXTAUTH_SECRET,
@@ -39,20 +24,23 @@ export const authOptions: NextAuthOptions = {
     Credentials({
       name: "E-mail and password",
       credentials: { email: { label: "E-mail", type: "email" }, password: { label: "Password", type: "password" } },
-      async authorize(credentials) {
-        const r = await checkCredentials(credentials?.email ?? "", credentials?.password ?? "");
+      async authorize(credentials, req) {
+        const address = req?.headers?.[CLIENT_ADDRESS_HEADER];
+        const r = await checkCredentials(credentials?.email ?? "", credentials?.password ?? "", typeof address === "string" ? address : null);
         if (!r.ok) throw new Error(r.reason);
         return { id: r.user.id, email: r.user.email, name: r.user.name };
       },
     }),
   ],
   callbacks: {
+    // Only paths of this app after signing in or out (lib/auth/callback-url).
+    async redirect({ url, baseUrl }) {
+      return `${new URL(baseUrl).origin}${safeCallbackPath(url, baseUrl)}`;
+    },
     async jwt({ token, user, trigger, session }) {
       if (user) {
-        token.userId = user.id;
-        const labsOfUser = await listUserLabs({ userId: user.id });
-        token.labId = labsOfUser[0]?.labId ?? null;
-        token.role = labsOfUser[0]?.role ?? null;
+        const claims = await sessionClaims({ id: user.id, email: user.email ?? "", name: user.name ?? "" });
+        Object.assign(token, { userId: claims.userId, labId: claims.labId, role: claims.role });
       }
       if (trigger === "update" && session && typeof session.labId === "string" && token.userId) {
         const m = await getMembership({ userId: token.userId as string, labId: session.labId });

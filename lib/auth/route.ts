@@ -1,6 +1,7 @@
 // The same chain for route handlers, with JSON bodies parsed by zod and errors as JSON.
 import { NextResponse } from "next/server";
 import { z } from "zod";
+import { readBodyText } from "./body";
 import { AppError, STATUS, toAppError } from "./errors";
 import { currentIdentity, requireLab, type LabContext } from "./context";
 import type { Permission } from "./permissions";
@@ -10,11 +11,10 @@ export function jsonError(err: unknown) {
   return NextResponse.json({ error: { code: e.code, message: e.message, fields: e.fieldErrors } }, { status: STATUS[e.code] });
 }
 
-const MAX_JSON_BYTES = 1_000_000;
+export const MAX_JSON_BYTES = 1_000_000;
 
 export async function readJson<S extends z.ZodType>(req: Request, schema: S): Promise<z.infer<S>> {
-  const text = await req.text();
-  if (text.length > MAX_JSON_BYTES) throw new AppError("too-large", "The request body is larger than 1 MB.");
+  const text = await readBodyText(req, MAX_JSON_BYTES, "The request body is larger than 1 MB.");
   let raw: unknown;
   try {
     raw = JSON.parse(text);

@@ -1,6 +1,8 @@
 // Frictionless Data Package descriptors (datapackage.json, spec v1 with the tabular profiles):
-// build one for our CSV tables, and check any descriptor against the spec's required parts.
-import { FIELD_TYPES, schemaOf, type TableSchema, type TableSpec } from "./table-schema";
+// build one for our CSV tables, and check any descriptor against the spec's required parts and the
+// cross-references a JSON Schema cannot express (unique names, keys naming existing fields). The tests
+// also check descriptors against the official profile JSON with ajv (tests/support/datapackage-profile.ts).
+import { FIELD_TYPES, formatDateTime, schemaOf, type TableSchema, type TableSpec } from "./table-schema";
 
 export interface DataResource {
   name: string;
@@ -51,7 +53,7 @@ export function buildDataPackage(input: {
     name: input.name,
     ...(input.title ? { title: input.title } : {}),
     ...(input.description ? { description: input.description } : {}),
-    ...(input.created ? { created: input.created.toISOString() } : {}),
+    ...(input.created ? { created: formatDateTime(input.created) } : {}),
     ...(input.keywords ? { keywords: input.keywords } : {}),
     resources: input.resources.map(({ spec, path, bytes, sha256 }) => ({
       name: spec.name,

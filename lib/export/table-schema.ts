@@ -54,10 +54,13 @@ export function schemaOf(spec: TableSpec): TableSchema {
   };
 }
 
-/** Datetimes in UTC with Z; milliseconds only when there are any. */
-function isoDateTime(d: Date): string {
-  const iso = d.toISOString();
-  return iso.endsWith(".000Z") ? `${iso.slice(0, -5)}Z` : iso;
+/**
+ * The one datetime format of every export: UTC, whole seconds, "Z" (Table Schema's default datetime
+ * format, %Y-%m-%dT%H:%M:%SZ, which readers such as the Frictionless libraries require). Milliseconds
+ * are dropped, not rounded, so a time never moves past the second it happened in.
+ */
+export function formatDateTime(d: Date): string {
+  return `${d.toISOString().slice(0, 19)}Z`;
 }
 
 /** One value as the cell text its field type expects; null/undefined/non-finite become "" (missing). */
@@ -65,7 +68,7 @@ export function formatCell(value: unknown, field: Field): string {
   if (value === null || value === undefined) return "";
   switch (field.type) {
     case "datetime":
-      if (value instanceof Date) return Number.isNaN(value.getTime()) ? "" : isoDateTime(value);
+      if (value instanceof Date) return Number.isNaN(value.getTime()) ? "" : formatDateTime(value);
       return String(value);
     case "date":
       return value instanceof Date ? value.toISOString().slice(0, 10) : String(value);
@@ -78,14 +81,18 @@ export function formatCell(value: unknown, field: Field): string {
     case "array":
       return JSON.stringify(value);
     default:
-      return value instanceof Date ? isoDateTime(value) : String(value);
+      return value instanceof Date ? formatDateTime(value) : String(value);
   }
 }
+
+/** Only string fields are text: numbers, dates and booleans are written as they are. */
+export const isTextField = (field: Field) => field.type === "string" || field.type === "any";
 
 export function tableToCsv(spec: TableSpec, rows: readonly object[]): string {
   return toCsv(
     spec.columns.map((c) => c.name),
     rows.map((row) => spec.columns.map((c) => formatCell((row as Record<string, unknown>)[c.from], c))),
+    spec.columns.map(isTextField),
   );
 }
 
@@ -95,7 +102,7 @@ const PATTERNS: Partial<Record<FieldType, RegExp>> = {
   boolean: /^(true|false|True|False|TRUE|FALSE|1|0)$/,
   date: /^\d{4}-\d{2}-\d{2}$/,
   time: /^\d{2}:\d{2}:\d{2}(\.\d+)?$/,
-  datetime: /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?(Z|[+-]\d{2}:\d{2})$/,
+  datetime: /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z$/,
   year: /^\d{4}$/,
   yearmonth: /^\d{4}-\d{2}$/,
 };

@@ -13,6 +13,8 @@ export interface StoredMail {
   subject: string;
   text: string;
   html: string;
+  /** The lab the mail is about (the app's X-Rustline-Lab header), or null (sign-up mail, older mail). */
+  labId: string | null;
 }
 
 // Ids are file names the fake made; anything else is refused so an id cannot walk out of the folder.
@@ -30,6 +32,7 @@ function asStoredMail(value: unknown): StoredMail | null {
     subject: typeof v.subject === "string" ? v.subject : "",
     text: typeof v.text === "string" ? v.text : "",
     html: typeof v.html === "string" ? v.html : "",
+    labId: typeof v.labId === "string" ? v.labId : null,
   };
 }
 
@@ -46,10 +49,13 @@ function newestFirst(a: StoredMail, b: StoredMail): number {
   return a.id < b.id ? 1 : a.id > b.id ? -1 : 0;
 }
 
-/** Messages in `dir`, newest first; `to` keeps those delivered to that address (case-insensitive). */
+/**
+ * Messages in `dir`, newest first; `to` keeps those delivered to that address (case-insensitive).
+ * `labId` keeps mail about that lab whose every recipient is in `recipients` (the demo mailbox).
+ */
 export async function listMessages(
   dir: string,
-  { to, limit }: { to?: string; limit?: number } = {},
+  { to, limit, labId, recipients }: { to?: string; limit?: number; labId?: string; recipients?: string[] } = {},
 ): Promise<StoredMail[]> {
   let names: string[];
   try {
@@ -63,7 +69,11 @@ export async function listMessages(
     (m): m is StoredMail => m !== null,
   );
   const wanted = to?.trim().toLowerCase();
-  const matching = wanted ? all.filter((m) => m.to.some((t) => t.toLowerCase() === wanted)) : all;
+  const allowed = recipients && new Set(recipients.map((r) => r.toLowerCase()));
+  const matching = all.filter((m) =>
+    (!wanted || m.to.some((t) => t.toLowerCase() === wanted))
+    && (labId === undefined || m.labId === labId)
+    && (!allowed || (m.to.length > 0 && m.to.every((t) => allowed.has(t.toLowerCase())))));
   matching.sort(newestFirst);
   return limit !== undefined ? matching.slice(0, Math.max(0, limit)) : matching;
 }

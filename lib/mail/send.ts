@@ -12,10 +12,17 @@ function getTransport() {
   return transport;
 }
 
-export type Mail = { to: string; subject: string; text: string; html?: string };
+/** `labId`: the lab the mail is about, so the demo mailbox shows it to that lab's leads only (none: nobody). */
+export type Mail = { to: string; subject: string; text: string; html?: string; labId?: string };
 
-export async function sendMail(mail: Mail) {
-  await getTransport().sendMail({ from: process.env.MAIL_FROM ?? "Rustline <no-reply@rustline.local>", ...mail });
+export const LAB_HEADER = "X-Rustline-Lab";
+
+export async function sendMail({ labId, ...mail }: Mail) {
+  await getTransport().sendMail({
+    from: process.env.MAIL_FROM ?? "Rustline <no-reply@rustline.local>",
+    ...mail,
+    ...(labId ? { headers: { [LAB_HEADER]: labId } } : {}),
+  });
 }
 
 export function appUrl(path: string) {

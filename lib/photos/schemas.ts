@@ -7,6 +7,8 @@ export const presignRequestSchema = z.object({
   filename: z.string().trim().min(1, "The file has no name.").max(500),
   contentType: z.string().trim().min(1, "The file type is unknown.").max(100),
   sizeBytes: z.number().int("The size must be a whole number of bytes.").min(1, "The file is empty."),
+  /** Hex SHA-256 of the file, computed in the browser; signed into the upload URL. */
+  sha256: z.string().trim().toLowerCase().regex(/^[0-9a-f]{64}$/, "The file's SHA-256 checksum is missing or malformed."),
 });
 export type PresignRequest = z.infer<typeof presignRequestSchema>;
 

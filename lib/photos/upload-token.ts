@@ -12,6 +12,8 @@ export type UploadClaim = {
   specimenId: string;
   contentType: string;
   sizeBytes: number;
+  /** Hex SHA-256 the upload URL was signed for. */
+  sha256: string;
   filename: string;
   /** Unix seconds after which the token is refused. */
   exp: number;
@@ -23,7 +25,7 @@ function mac(secret: string, payload: string): Buffer {
 
 export function signUploadToken(claim: UploadClaim, secret: string): string {
   if (!secret) throw new Error("an upload-token secret is required");
-  const payload = Buffer.from(JSON.stringify({ v: 1, ...claim })).toString("base64url");
+  const payload = Buffer.from(JSON.stringify({ v: 2, ...claim })).toString("base64url");
   return `${payload}.${mac(secret, payload).toString("base64url")}`;
 }
 
@@ -41,7 +43,7 @@ export function verifyUploadToken(token: string, secret: string, nowS = Math.flo
   } catch {
     return { ok: false, reason: "malformed" };
   }
-  if (claim.v !== 1 || typeof claim.key !== "string" || typeof claim.exp !== "number" || !Number.isInteger(claim.sizeBytes)) {
+  if (claim.v !== 2 || typeof claim.key !== "string" || typeof claim.sha256 !== "string" || typeof claim.exp !== "number" || !Number.isInteger(claim.sizeBytes)) {
     return { ok: false, reason: "malformed" };
   }
   if (claim.exp < nowS) return { ok: false, reason: "expired" };

@@ -38,15 +38,23 @@ export function zoneOffsetMs(instantMs: number, timeZone: string): number {
   return Date.UTC(w.year, w.month - 1, w.day, w.hour, w.minute, w.second, w.ms) - instantMs;
 }
 
+const DAY_MS = 86_400_000;
+
 /**
  * The instant at which a zone's clock shows a wall time (its fields given as a UTC-epoch number), with
- * `offsetAt` the zone's offset at an instant. Two passes: guess with the offset at the wall time, then
- * correct with the offset at the guess. A time in the autumn's repeated hour resolves to its later
- * (standard-time) instant; a time in the spring gap, which never existed, is moved forward by the gap.
+ * `offsetAt` the zone's offset at an instant. The offsets a day before and a day after bracket any
+ * change near the wall time; each gives a candidate, kept if the zone's clock shows the wall time
+ * then. A time in the autumn's repeated hour fits both and resolves to the later (standard-time)
+ * instant; a time in the spring gap, which never existed, fits neither and is read with the offset
+ * before the change, i.e. moved forward by the gap.
  */
 export function wallToUtcMs(wallMs: number, offsetAt: (utcMs: number) => number): number {
-  const first = wallMs - offsetAt(wallMs);
-  const second = wallMs - offsetAt(first);
-  if (second === first) return first;
-  return wallMs - offsetAt(second) === second ? second : Math.max(first, second);
+  const before = wallMs - offsetAt(wallMs - DAY_MS);
+  const after = wallMs - offsetAt(wallMs + DAY_MS);
+  const fits = (utcMs: number) => utcMs + offsetAt(utcMs) === wallMs;
+  const fitsBefore = fits(before);
+  const fitsAfter = fits(after);
+  if (fitsBefore && fitsAfter) return Math.max(before, after);
+  if (fitsAfter) return after;
+  return before;
 }

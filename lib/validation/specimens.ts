@@ -2,6 +2,7 @@
 // (papaparse, so the browser preview and the server import read a file the same way).
 import Papa from "papaparse";
 import { z } from "zod";
+import { toCsv, unguardText } from "@/lib/export/csv";
 
 export const MATERIAL_CLASSES = ["iron-meteorite", "stony-iron", "chondrite", "archaeological-iron", "steel-coupon", "other"] as const;
 export type MaterialClass = (typeof MATERIAL_CLASSES)[number];
@@ -91,12 +92,6 @@ export const MAX_IMPORT_BYTES = 1_500_000;
 export type CsvRowError = { line: number; field?: string; message: string };
 export type CsvParseResult = { rows: { line: number; value: SpecimenInput }[]; errors: CsvRowError[]; total: number };
 
-// Exports guard against spreadsheet formulas with a leading apostrophe (OWASP "CSV injection");
-// reading our own export back removes it again.
-const FORMULA_START = /^[=+\-@\t\r]/;
-function unguard(v: string): string {
-  return v.startsWith("'") && FORMULA_START.test(v.slice(1)) ? v.slice(1) : v;
-}
 
 /**
  * Read a specimen CSV. Line numbers are those a text editor shows (the header is line 1), also when
@@ -146,7 +141,7 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
       const obj: Record<string, unknown> = {};
       header.forEach((h, i) => {
         const field = CSV_TO_FIELD[h as keyof typeof CSV_TO_FIELD];
-        if (field) obj[field] = unguard(cells[i]);
+        if (field) obj[field] = unguardText(cells[i]); // our exports guard text cells (lib/export/csv.ts)
       });
       const parsed = specimenSchema.safeParse(obj);
       if (!parsed.success) {
@@ -172,17 +167,12 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
   return { rows, errors, total };
 }
 
-function csvCell(v: unknown): string {
-  if (v == null) return "";
-  let s = String(v);
-  if (typeof v === "string" && FORMULA_START.test(s)) s = `'${s}`;
-  return /[",\r\n]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
-}
-
 export function specimensToCsv(rows: readonly SpecimenInput[]): string {
-  const lines = [CSV_COLUMNS.join(",")];
-  for (const r of rows) lines.push(CSV_COLUMNS.map((c) => csvCell(r[CSV_TO_FIELD[c]])).join(","));
-  return lines.join("\r\n") + "\r\n";
+  return toCsv(
+    CSV_COLUMNS,
+    rows.map((r) => CSV_COLUMNS.map((c) => String(r[CSV_TO_FIELD[c]] ?? ""))),
+    CSV_COLUMNS.map((c) => c !== "mass_g"),
+  );
 }
 
 export const importSchema = z.object({ csv: z.string().min(1, "Choose a CSV file first.").max(MAX_IMPORT_BYTES, "The file is larger than 1.5 MB; split it.") });

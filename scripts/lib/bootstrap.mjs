@@ -14,7 +14,9 @@ export function ensureDependencies() {
   const stale = !fs.existsSync(stamp) || fs.statSync(lock).mtimeMs > fs.statSync(stamp).mtimeMs + 1000;
   if (!stale) return;
   console.log("[setup] installing dependencies (npm ci)…");
-  const r = spawnSync("npm", ["ci", "--no-audit", "--no-fund"], { cwd: root, stdio: "inherit" });
+  // --include=dev: the local stand-ins (S3 fake, mail fake) are devDependencies,
+  // and npm would leave them out when the shell has NODE_ENV=production.
+  const r = spawnSync("npm", ["ci", "--include=dev", "--no-audit", "--no-fund"], { cwd: root, stdio: "inherit" });
   if (r.status !== 0) throw new Error("npm ci failed; see the output above");
 }
 

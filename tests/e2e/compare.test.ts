@@ -5,6 +5,7 @@ import JSZip from "jszip";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { validateDataPackage } from "@/lib/export/datapackage";
+import { profileProblems } from "../support/datapackage-profile";
 import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
 
 let browser: Browser;
@@ -74,6 +75,7 @@ describe("compare treatment outcomes", () => {
     const zip = await JSZip.loadAsync(await res.body());
     const descriptor = JSON.parse(await zip.file("datapackage.json")!.async("string"));
     expect(validateDataPackage(descriptor)).toEqual([]);
+    expect(profileProblems(descriptor)).toEqual([]); // Frictionless Data, Tabular Data Package profile v1
     for (const r of descriptor.resources) expect(zip.file(r.path), r.path).not.toBeNull();
   });
 

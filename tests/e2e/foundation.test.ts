@@ -1,6 +1,7 @@
 // Browser: each demo role signs in and sees what its role allows; sign-up shows field errors and keeps input.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Browser } from "playwright-core";
+import { listMessages } from "@/lib/mail-store";
 import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
 
 let browser: Browser;
@@ -77,7 +78,7 @@ describe("sign-up", () => {
     await context.close();
   });
 
-  it("creates a lab and lands on its home", async () => {
+  it("mails a link; following it creates the lab and lands on its home", async () => {
     const context = await browser.newContext();
     const page = await context.newPage();
     const email = `founder-${Date.now()}@test.example`;
@@ -87,8 +88,18 @@ describe("sign-up", () => {
     await page.getByLabel("Password", { exact: true }).fill("quarry-hill-2026");
     await page.getByLabel("Lab or collection name").fill("Quarry Hill store");
     await page.getByRole("button", { name: "Create lab" }).click();
-    await page.getByRole("heading", { name: "Quarry Hill store" }).waitFor({ timeout: 20_000 });
-    await expect(page.getByText("No trial is running.").isVisible()).resolves.toBe(true);
+    await page.getByRole("heading", { name: "Check your e-mail" }).waitFor({ timeout: 20_000 });
+    let link: string | undefined;
+    await expect.poll(async () => {
+      const [msg] = await listMessages(process.env.MAIL_DIR ?? ".data/mail", { to: email });
+      link = msg && /https?:\/\/\S+\/sign-up\/confirm\?token=\S+/.exec(msg.text)?.[0];
+      return !!link;
+    }, { timeout: 20_000 }).toBe(true);
+    await page.goto(link!);
+    await page.getByRole("button", { name: "Create the lab" }).click();
+    await page.waitForURL((u) => u.pathname === "/", { timeout: 20_000 });
+    await page.getByRole("heading", { name: "Quarry Hill store", exact: true }).waitFor({ timeout: 20_000 });
+    await page.getByText("No trial is running.").waitFor({ timeout: 20_000 });
     await context.close();
   });
 });

@@ -1,7 +1,7 @@
 // Browser: a technician drops three generated photos on a demo inspection (file names carry the
 // specimen labels), watches them upload straight to storage, sees the capture-time warning on the
 // one taken days earlier, and finds the photos on the specimen timeline, which steps by keyboard.
-import { randomBytes } from "node:crypto";
+import { createHash, randomBytes } from "node:crypto";
 import { and, eq, inArray, like } from "drizzle-orm";
 import sharp from "sharp";
 import type { Browser, Page } from "playwright-core";
@@ -181,7 +181,7 @@ describe("inspection photos", () => {
     const observer = await signedInClient("observer@tarrow.example", "rustline-demo-1");
     const json = (body: unknown, extra: Record<string, string> = {}) => ({ method: "POST", headers: { "content-type": "application/json", ...extra }, body: JSON.stringify(body) });
     const bytes = await photo(inspection.doneAt!, { r: 90, g: 90, b: 90 });
-    const body = { inspectionId: inspection.id, specimenId: specimenIds[labels[0]], filename: `${labels[0]}_api_e2e-${tag}.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength };
+    const body = { inspectionId: inspection.id, specimenId: specimenIds[labels[0]], filename: `${labels[0]}_api_e2e-${tag}.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") };
 
     expect((await anonymous.fetch("/api/photos/presign", json(body))).status).toBe(401);
     expect((await observer.fetch("/api/photos/presign", json(body))).status).toBe(403);

@@ -9,6 +9,7 @@ import { closeDb } from "@/db/client";
 import { GET as getCsv } from "@/app/api/trials/[trialId]/export/outcomes.csv/route";
 import { GET as getZip } from "@/app/api/trials/[trialId]/export/datapackage.zip/route";
 import { validateDataPackage, type DataPackage } from "@/lib/export/datapackage";
+import { profileProblems } from "../support/datapackage-profile";
 import { checkTable } from "@/lib/export/table-schema";
 import { OUTCOME_TABLE } from "@/lib/export/trial-tables";
 import { createTestLab, type TestLab } from "../support/db";
@@ -88,6 +89,7 @@ describe("GET …/export/datapackage.zip", () => {
 
   it("datapackage.json validates as a tabular data package", () => {
     expect(validateDataPackage(descriptor)).toEqual([]);
+    expect(profileProblems(descriptor)).toEqual([]); // Frictionless Data, Tabular Data Package profile v1
     expect(descriptor.profile).toBe("tabular-data-package");
     expect(descriptor.resources.map((r) => r.name)).toEqual([
       "trial", "specimens", "treatments", "chambers", "placements", "inspections", "photos", "scores", "readings", "outcomes",

@@ -1,12 +1,14 @@
-// Sign-up, invitations, roles and lock-out on the real database and the real SMTP fake.
+// Sign-up, invitations, roles and sign-in throttling on the real database and the real SMTP fake.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { count, eq } from "drizzle-orm";
 import { db, closeDb } from "@/db/client";
 import * as s from "@/db/schema";
 import { signUp } from "@/app/(auth)/sign-up/actions";
 import { changeMemberRole, changeOwnPassword, inviteMember } from "@/app/(lab)/settings/actions";
-import { acceptInvitation, findOpenInvitation, hashToken } from "@/db/queries/accounts";
-import { checkCredentials, MAX_FAILED_SIGN_INS } from "@/lib/auth/options";
+import { acceptInvitation, createUserWithLab, findOpenInvitation, hashToken } from "@/db/queries/accounts";
+import { checkCredentials } from "@/lib/auth/credentials";
+import { openSignUp } from "@/lib/auth/sign-up-token";
+import { ACCOUNT_THROTTLE, SIGN_IN_REFUSED } from "@/lib/auth/throttle";
 import { listMessages } from "@/lib/mail-store";
 import { createTestLab, TEST_PASSWORD, uniqueEmail, type TestLab } from "../support/db";
 import { ensureMailFake, type MailFake } from "../support/mail";
@@ -45,10 +47,19 @@ afterAll(async () => {
 });
 
 describe("sign-up", () => {
-  it("creates a user, a lab with the user as lead, and audit events", async () => {
+  it("mails a link; following it creates a user, a lab with the user as lead, and audit events", async () => {
     const email = uniqueEmail("founder");
     const r = await signUp(undefined, form({ name: "Ada Founder", email, password: "iron-and-salt-9", labName: "Founders' store" }));
     expect(r.ok).toBe(true);
+    expect(await db.select().from(s.users).where(eq(s.users.email, email))).toHaveLength(0); // nothing before the link
+    const msg = await waitForMail(email);
+    const token = /\/sign-up\/confirm\?token=(\S+)/.exec(msg.text)![1];
+    const pending = await openSignUp(token);
+    expect(pending).toMatchObject({ name: "Ada Founder", email, labName: "Founders' store" });
+    expect(pending!.passwordHash).not.toContain("iron-and-salt-9");
+    // What the link's button does (confirmSignUp) before it signs the new lead in.
+    await createUserWithLab(pending!);
+    expect((await checkCredentials(email, "iron-and-salt-9")).ok).toBe(true);
     const [u] = await db.select().from(s.users).where(eq(s.users.email, email));
     const [m] = await db.select().from(s.memberships).where(eq(s.memberships.userId, u.id));
     expect(m.role).toBe("lead");
@@ -56,11 +67,16 @@ describe("sign-up", () => {
     expect(events.map((e) => e.entity).sort()).toEqual(["lab", "membership"]);
   });
 
-  it("refuses a taken e-mail, a weak password and a malformed address with field errors and no rows", async () => {
+  it("answers a taken e-mail exactly like a new one and tells the owner by mail; refuses a weak password and a malformed address", async () => {
     const before = await userCount();
+    const fresh = uniqueEmail("fresh");
     const taken = await signUp(undefined, form({ name: "X", email: lab.users.lead.email, password: "iron-and-salt-9", labName: "Dup lab" }));
-    expect(taken.ok).toBe(false);
-    expect(taken.errors?.email?.[0]).toMatch(/already exists/);
+    const untaken = await signUp(undefined, form({ name: "X", email: fresh, password: "iron-and-salt-9", labName: "Dup lab" }));
+    expect(taken).toEqual({ ...untaken, message: untaken.message!.replace(fresh, lab.users.lead.email), values: { ...untaken.values, email: lab.users.lead.email } });
+    expect(taken.ok).toBe(true);
+    const note = await waitForMail(lab.users.lead.email);
+    expect(note.text).toMatch(/already has an account/);
+    expect(note.text).not.toMatch(/sign-up\/confirm/);
     const weak = await signUp(undefined, form({ name: "X", email: uniqueEmail(), password: "short", labName: "Weak lab" }));
     expect(weak.errors?.password?.[0]).toMatch(/at least 10/);
     const bad = await signUp(undefined, form({ name: "X", email: "not-an-address", password: "iron-and-salt-9", labName: "Bad lab" }));
@@ -126,11 +142,9 @@ describe("roles, passwords and lock-out", () => {
     expect((await checkCredentials(lab.users.researcher.email, "another-pass-77")).ok).toBe(true);
   });
 
-  it("locks an account after repeated failed sign-ins, even for the right password", async () => {
+  it("after the free failures the next attempt waits, even with the right password, and says no more than a wrong one", async () => {
     const email = lab.users.technician.email;
-    for (let i = 0; i < MAX_FAILED_SIGN_INS; i++) expect((await checkCredentials(email, "wrong-password-1")).ok).toBe(false);
-    const r = await checkCredentials(email, TEST_PASSWORD);
-    expect(r.ok).toBe(false);
-    expect(!r.ok && r.reason).toMatch(/locked/);
+    for (let i = 0; i <= ACCOUNT_THROTTLE.free; i++) expect(await checkCredentials(email, "wrong-password-1")).toEqual({ ok: false, reason: SIGN_IN_REFUSED });
+    expect(await checkCredentials(email, TEST_PASSWORD)).toEqual({ ok: false, reason: SIGN_IN_REFUSED });
   });
 });

@@ -20,7 +20,9 @@ type Entry = {
 
 // Entry points that are not lab-scoped, and what protects them instead.
 export const PUBLIC_ACTIONS: Record<string, string> = {
-  signUp: "public: creates a new lab",
+  signUp: "public: mails a link that creates a new lab (or a note that the address has an account)",
+  confirmSignUp: "public: needs a sealed sign-up link from that mail",
+  signInWithPassword: "public: e-mail and password, throttled per account and per client address",
   acceptInvite: "public: needs a valid single-use invitation token",
 };
 export const PUBLIC_ROUTES: Record<string, string> = {
@@ -96,7 +98,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   "GET /api/photos/[photoId]/file": { permission: "lab.read", empty: 302 },
   "GET /api/photos/[photoId]": { permission: "lab.read", empty: 200 },
   "POST /api/photos/finalize": { permission: "photos.upload", empty: 422 },
-  "POST /api/photos/presign": { permission: "photos.upload", empty: 422, foreign: (f) => ({ inspectionId: f.inspectionId, specimenId: f.specimenId, filename: "x.jpg", contentType: "image/jpeg", sizeBytes: 1000 }) },
+  "POST /api/photos/presign": { permission: "photos.upload", empty: 422, foreign: (f) => ({ inspectionId: f.inspectionId, specimenId: f.specimenId, filename: "x.jpg", contentType: "image/jpeg", sizeBytes: 1000, sha256: "0".repeat(64) }) },
   "GET /api/scores/queue": { permission: "scores.write", empty: 422 },
   "POST /api/scores": { permission: "scores.write", empty: 422, foreign: (f) => ({ trialId: f.trialId, inspectionId: f.inspectionId, specimenId: f.specimenId, spotCount: 0, areaPercent: 0, silicateChange: "none" }) },
   "GET /api/specimens/[specimenId]": { permission: "lab.read", empty: 200 },

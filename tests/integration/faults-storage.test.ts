@@ -1,5 +1,6 @@
 // Fault: the S3 server stops during an upload. The browser's PUT fails, finalising answers a clear
 // "storage unreachable" error, and nothing is recorded (no photo row, no audit event).
+import { createHash } from "node:crypto";
 import { afterAll, beforeAll, expect, it } from "vitest";
 import { and, count, eq } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
@@ -19,7 +20,7 @@ afterAll(() => closeDb());
 it("fails the upload with a clear message and records nothing while storage is down", async () => {
   const bytes = await cameraJpeg({ shotAt: fx.doneAt });
   const caller = await fx.ctx("technician");
-  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: `${fx.labels[0]}.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength } });
+  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: `${fx.labels[0]}.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") } });
   stopS3Fake();
   let putError: unknown = null;
   let finalizeError: unknown = null;

@@ -1,6 +1,7 @@
 // Who can see a photo: signed URLs only after the lab check (another lab's member gets 404), the
 // original (which keeps its EXIF location) only for roles with photos.gps, no location for
 // observers anywhere, and no treatment or score of record for a blind scorer.
+import { createHash } from "node:crypto";
 import { eq } from "drizzle-orm";
 import exifr from "exifr";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -8,13 +9,17 @@ import { db } from "@/db/client";
 import { processPhoto, type PhotoProcessJob } from "@/db/jobs/photos";
 import { finalizePhotoUpload, presignPhotoUpload } from "@/db/queries/photo-uploads";
 import { getSpecimenTimeline, getTrialGrid } from "@/db/queries/photo-timeline";
-import { listInspectionPhotos, photoDetails, photoFileUrl } from "@/db/queries/photos";
+import { listInspectionPhotos, photoDetails, photoFileTarget } from "@/db/queries/photos";
+import { signPhotoFile } from "@/storage/photo-urls";
 import * as s from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { labPrefix } from "@/storage/keys";
 import { deleteKeys, listKeys } from "@/storage/objects";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { browserPut, cameraJpeg, createPhotoFixture, type PhotoFixture } from "./photos-fixtures";
+
+/** What the file route does: the checked target, then its signed URL. */
+const photoFileUrl = async (args: Parameters<typeof photoFileTarget>[0]) => signPhotoFile(await photoFileTarget(args));
 
 let s3: S3Fake;
 let fx: PhotoFixture;
@@ -27,7 +32,7 @@ beforeAll(async () => {
   other = await createPhotoFixture("Other access lab");
   const bytes = await cameraJpeg({ shotAt: fx.doneAt, gps: true });
   const caller = await fx.ctx("technician");
-  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "a.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength } });
+  const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "a.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") } });
   expect((await browserPut(pre, bytes)).status).toBe(200);
   const jobs: PhotoProcessJob[] = [];
   const r = await finalizePhotoUpload({ caller, token: pre.token, enqueue: async (j) => { jobs.push(j); } });

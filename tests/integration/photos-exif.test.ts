@@ -132,14 +132,14 @@ describe("file name → specimen label", () => {
 });
 
 describe("upload receipt", () => {
-  const claim: UploadClaim = { key: "labs/l/photos/r/p.jpg", labId: "l", userId: "u", trialId: "t", inspectionId: "i", specimenId: "s", contentType: "image/jpeg", sizeBytes: 10, filename: "x.jpg", exp: 2_000_000_000 };
+  const claim: UploadClaim = { key: "labs/l/photos/r/p.jpg", labId: "l", userId: "u", trialId: "t", inspectionId: "i", specimenId: "s", contentType: "image/jpeg", sizeBytes: 10, sha256: "ab".repeat(32), filename: "x.jpg", exp: 2_000_000_000 };
   it("verifies its own signature and refuses changed, foreign-secret or expired receipts", () => {
     const token = signUploadToken(claim, "secret-a");
     expect(verifyUploadToken(token, "secret-a", 1_900_000_000)).toEqual({ ok: true, claim });
     expect(verifyUploadToken(token, "secret-b", 1_900_000_000)).toEqual({ ok: false, reason: "bad-signature" });
     expect(verifyUploadToken(token, "secret-a", 2_000_000_001)).toEqual({ ok: false, reason: "expired" });
     const [, sig] = token.split(".");
-    const changed = `${Buffer.from(JSON.stringify({ v: 1, ...claim, sizeBytes: 10_000 })).toString("base64url")}.${sig}`;
+    const changed = `${Buffer.from(JSON.stringify({ v: 2, ...claim, sizeBytes: 10_000 })).toString("base64url")}.${sig}`;
     expect(verifyUploadToken(changed, "secret-a", 1_900_000_000).ok).toBe(false);
     expect(verifyUploadToken("not-a-token", "secret-a").ok).toBe(false);
   });

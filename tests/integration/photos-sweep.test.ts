@@ -1,6 +1,6 @@
 // The orphan sweep: objects under labs/<lab>/photos/ with no photo row are deleted once older than
 // an hour (uploads approved but never finalised); objects of recorded photos and fresh uploads stay.
-import { randomUUID } from "node:crypto";
+import { createHash, randomUUID } from "node:crypto";
 import { eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { db } from "@/db/client";
@@ -31,7 +31,7 @@ describe("orphan sweep", () => {
   it("deletes abandoned uploads older than an hour and keeps recorded photos and fresh uploads", async () => {
     const caller = await fx.ctx("technician");
     const bytes = await cameraJpeg({ shotAt: fx.doneAt });
-    const input = { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "k.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength };
+    const input = { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "k.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") };
     const kept = await presignPhotoUpload({ caller, input });
     expect((await browserPut(kept, bytes)).status).toBe(200);
     await finalizePhotoUpload({ caller, token: kept.token, enqueue: async () => {} });
@@ -60,7 +60,7 @@ describe("orphan sweep", () => {
   it("queues previews again for photos still pending after ten minutes", async () => {
     const caller = await fx.ctx("technician");
     const bytes = await cameraJpeg({ shotAt: fx.doneAt });
-    const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[1], filename: "p.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength } });
+    const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[1], filename: "p.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") } });
     expect((await browserPut(pre, bytes)).status).toBe(200);
     const r = await finalizePhotoUpload({ caller, token: pre.token, enqueue: async () => { throw new Error("queue is down"); } });
     const [row] = await db.select().from(s.photos).where(eq(s.photos.id, r.photo.id));

@@ -49,7 +49,7 @@ async function presign(bytes: Uint8Array, over: Partial<{ contentType: string; s
   return presignPhotoUpload({
     caller,
     expiresInS,
-    input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: `${fx.labels[0]}_day14.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength, ...over },
+    input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: `${fx.labels[0]}_day14.jpg`, contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex"), ...over },
   });
 }
 
@@ -234,6 +234,6 @@ describe("refused uploads record nothing", () => {
     await expectAppError(presign(new Uint8Array(10), { inspectionId: other.inspectionId }), "not-found");
     await expectAppError(presign(new Uint8Array(10), { specimenId: other.specimenIds[0] }), "invalid", /not in this trial/);
     await db.update(s.trials).set({ status: "concluded" }).where(eq(s.trials.id, other.trialId));
-    await expectAppError(presignPhotoUpload({ caller: await other.ctx("technician"), input: { inspectionId: other.inspectionId, specimenId: other.specimenIds[0], filename: "x.jpg", contentType: "image/jpeg", sizeBytes: 10 } }), "locked");
+    await expectAppError(presignPhotoUpload({ caller: await other.ctx("technician"), input: { inspectionId: other.inspectionId, specimenId: other.specimenIds[0], filename: "x.jpg", contentType: "image/jpeg", sizeBytes: 10, sha256: "ab".repeat(32) } }), "locked");
   });
 });

@@ -32,6 +32,22 @@ describe("HTTP security", () => {
     expect(session).toMatch(/SameSite=Lax/i);
   });
 
+  it("next-auth's own sign-in endpoint does not send a phishing link's callbackUrl off-site", async () => {
+    for (const evil of ["//example.org", "/\\example.org", "https://example.org/x"]) {
+      const csrf = await fetch(`${APP_URL}/api/auth/csrf`);
+      const cookie = csrf.headers.getSetCookie().map((c) => c.split(";")[0]).join("; ");
+      const { csrfToken } = (await csrf.json()) as { csrfToken: string };
+      const res = await fetch(`${APP_URL}/api/auth/callback/credentials`, {
+        method: "POST",
+        redirect: "manual",
+        headers: { "content-type": "application/x-www-form-urlencoded", cookie },
+        body: new URLSearchParams({ csrfToken, email: "observer@tarrow.example", password: "rustline-demo-1", callbackUrl: evil, json: "true" }),
+      });
+      const { url } = (await res.json()) as { url: string };
+      expect({ evil, origin: new URL(url).origin }).toEqual({ evil, origin: new URL(APP_URL).origin });
+    }
+  });
+
   it("refuses a state-changing API request from another site's origin", async () => {
     const lead = await signedInClient("lead@tarrow.example", "rustline-demo-1");
     const res = await lead.fetch("/api/treatments", {

@@ -14,13 +14,13 @@ function collectCookies(res: Response, jar: Map<string, string>) {
   }
 }
 
-export async function signedInClient(email: string, password: string): Promise<Client> {
+export async function signedInClient(email: string, password: string, base = APP_URL): Promise<Client> {
   const jar = new Map<string, string>();
   const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-  const csrfRes = await fetch(`${APP_URL}/api/auth/csrf`);
+  const csrfRes = await fetch(`${base}/api/auth/csrf`);
   collectCookies(csrfRes, jar);
   const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const res = await fetch(`${APP_URL}/api/auth/callback/credentials`, {
+  const res = await fetch(`${base}/api/auth/callback/credentials`, {
     method: "POST",
     redirect: "manual",
     headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookie() },
@@ -30,7 +30,7 @@ export async function signedInClient(email: string, password: string): Promise<C
   if (![...jar.keys()].some((k) => k.includes("session-token"))) throw new Error(`sign-in failed for ${email} (${res.status})`);
   return {
     cookie: cookie(),
-    fetch: (path, init = {}) => fetch(`${APP_URL}${path}`, { redirect: "manual", ...init, headers: { cookie: cookie(), ...(init.headers ?? {}) } }),
+    fetch: (path, init = {}) => fetch(`${base}${path}`, { redirect: "manual", ...init, headers: { cookie: cookie(), ...(init.headers ?? {}) } }),
   };
 }
 

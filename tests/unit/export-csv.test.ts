@@ -1,7 +1,7 @@
 // CSV writing (RFC 4180 / the Frictionless default dialect) and cell formats per Table Schema type.
 import Papa from "papaparse";
 import { describe, expect, it } from "vitest";
-import { csvCell, toCsv } from "@/lib/export/csv";
+import { csvCell, guardText, toCsv, unguardText } from "@/lib/export/csv";
 import { cellMatches, checkTable, formatCell, tableToCsv, type TableSpec } from "@/lib/export/table-schema";
 
 describe("csv", () => {
@@ -23,10 +23,53 @@ describe("csv", () => {
   });
 });
 
+// OWASP "CSV Injection": a cell starting with =, +, -, @, tab (0x09) or carriage return (0x0D) is run
+// as a formula by spreadsheets; prefix such text cells with a single quote.
+describe("spreadsheet formula guard", () => {
+  const attacks = ["=HYPERLINK(\"http://evil.test\",\"open\")", "+cmd|' /C calc'!A0", "-2+3+cmd|' /C calc'!A0", "@SUM(1+1)*cmd|' /C calc'!A0", "\t=1+1", "\r=1+1"];
+
+  it("writes every text cell an attacker could start with a formula character with a leading '", () => {
+    const text = toCsv(["label", "notes"], attacks.map((a) => ["TV-M-001", a]));
+    const parsed = Papa.parse<string[]>(text.trimEnd()).data.slice(1);
+    expect(parsed.map((r) => r[1])).toEqual(attacks.map((a) => `'${a}`));
+    for (const [, cell] of parsed) expect(cell).toMatch(/^'/);
+  });
+
+  it("leaves number, date and boolean columns as they are, so they still read as their type", () => {
+    const text = toCsv(["label", "temp_c", "notes"], [["-north face", "-2.5", "+1 spot"]], [true, false, true]);
+    expect(text.split("\r\n")[1]).toBe("'-north face,-2.5,'+1 spot");
+  });
+
+  it("guards a text cell that already starts with ' before a formula character once more, so reading back is exact", () => {
+    for (const typed of ["'=1+1", "''@x", "plain", "it's", "'quoted'", ...attacks]) {
+      expect(unguardText(guardText(typed))).toBe(typed);
+    }
+    expect(guardText("'=1+1")).toBe("''=1+1");
+    expect(guardText("it's")).toBe("it's");
+  });
+
+  it("tableToCsv guards string fields only (OWASP CSV Injection; Table Schema field types)", () => {
+    const spec: TableSpec = {
+      name: "t", title: "T", description: "",
+      columns: [
+        { name: "instrument", type: "string", from: "instrument" },
+        { name: "dew_point_c", type: "number", from: "dewPointC" },
+        { name: "day", type: "integer", from: "day" },
+      ],
+    };
+    const csv = tableToCsv(spec, [{ instrument: "@SUM(1)", dewPointC: -12.25, day: -1 }]);
+    const [, row] = Papa.parse<string[]>(csv.trimEnd()).data;
+    expect(row).toEqual(["'@SUM(1)", "-12.25", "-1"]);
+    expect(checkTable({ fields: spec.columns }, ["instrument", "dew_point_c", "day"], [row])).toEqual([]);
+  });
+});
+
 describe("table schema cells", () => {
   it("writes each type as Table Schema reads it; missing and non-finite values are empty", () => {
     expect(formatCell(new Date("2026-10-08T09:00:00.000Z"), { name: "t", type: "datetime" })).toBe("2026-10-08T09:00:00Z");
-    expect(formatCell(new Date("2026-10-08T09:00:00.250Z"), { name: "t", type: "datetime" })).toBe("2026-10-08T09:00:00.250Z");
+    // One datetime format for every export: Table Schema's default, %Y-%m-%dT%H:%M:%SZ (whole seconds).
+    expect(formatCell(new Date("2026-10-08T09:00:00.250Z"), { name: "t", type: "datetime" })).toBe("2026-10-08T09:00:00Z");
+    expect(formatCell(new Date("2026-10-08T09:00:59.999Z"), { name: "t", type: "datetime" })).toBe("2026-10-08T09:00:59Z");
     expect(formatCell(true, { name: "b", type: "boolean" })).toBe("true");
     expect(formatCell(0.125, { name: "n", type: "number" })).toBe("0.125");
     expect(formatCell(Infinity, { name: "n", type: "number" })).toBe("");
@@ -41,6 +84,7 @@ describe("table schema cells", () => {
     expect(cellMatches("1,5", { name: "n", type: "number" })).toBe(false);
     expect(cellMatches("2026-10-08T09:00:00Z", { name: "d", type: "datetime" })).toBe(true);
     expect(cellMatches("2026-10-08 09:00", { name: "d", type: "datetime" })).toBe(false);
+    expect(cellMatches("2026-10-08T09:00:00.250Z", { name: "d", type: "datetime" })).toBe(false);
     expect(cellMatches("maybe", { name: "b", type: "boolean" })).toBe(false);
     expect(cellMatches("", { name: "x", type: "integer" })).toBe(true);
     expect(cellMatches("", { name: "x", type: "string", constraints: { required: true } })).toBe(false);

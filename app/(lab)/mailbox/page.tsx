@@ -1,4 +1,5 @@
 import { notFound } from "next/navigation";
+import { listMailRecipients } from "@/db/queries/memberships";
 import { labPage } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { listMessages } from "@/lib/mail-store";
@@ -14,15 +15,18 @@ function Linked({ text }: { text: string }) {
 
 export default async function MailboxPage({ searchParams }: { searchParams: Promise<{ to?: string }> }) {
   if (process.env.DEMO_MODE !== "1") notFound();
+  // Leads only (lib/auth/page-routes), and only mail this lab sent to its members or to people it invited.
   const ctx = await labPage("/mailbox");
   const { to } = await searchParams;
-  const messages = await listMessages(process.env.MAIL_DIR ?? ".data/mail", { to: to || undefined, limit: 100 });
+  const recipients = await listMailRecipients({ labId: ctx.labId });
+  const messages = await listMessages(process.env.MAIL_DIR ?? ".data/mail", { to: to || undefined, labId: ctx.labId, recipients, limit: 100 });
   return (
     <div className="space-y-4">
       <h1 className="text-2xl font-semibold">Demo mailbox</h1>
       <p className="text-sm muted max-w-3xl">
-        In demo mode Rustline sends mail to a local SMTP server that keeps every message here instead of delivering it.
-        Open an invitation or reminder link from this page. With a real mail service configured (SMTP_URL) this page is off.
+        In demo mode Rustline sends mail to a local SMTP server that keeps every message instead of delivering it. This page
+        shows the lab&apos;s leads the mail {ctx.labName} sent to its members and to the people it invited: open an invitation or
+        reminder link from here. Outside demo mode (a real mail service, DEMO_MODE=0) this page is off.
       </p>
       <form method="get" className="flex gap-2 items-end">
         <label className="text-sm">Recipient<input name="to" defaultValue={to ?? ""} className="field" placeholder="name@example.org" /></label>

@@ -16,6 +16,7 @@ export const inviteMember = labAction("members.manage", inviteSchema, async (ctx
   try {
     await sendMail({
       to: data.email,
+      labId: ctx.labId,
       subject: `Invitation to ${ctx.labName} on Rustline`,
       text: `You are invited to join ${ctx.labName} on Rustline as ${ROLE_LABELS[data.role].name}.\n\nAccept within 7 days: ${link}\n\nThe link works once.`,
     });

@@ -3,6 +3,7 @@
 // No session and no cookies: the token is the credential, so no same-origin check applies.
 import { NextResponse } from "next/server";
 import { authenticateChamberToken, postReadingsWithToken } from "@/db/queries/readings";
+import { readBodyText } from "@/lib/auth/body";
 import { STATUS, toAppError } from "@/lib/auth/errors";
 import { apiReadingsBodySchema } from "@/lib/validation/chambers";
 
@@ -20,8 +21,7 @@ export async function POST(req: Request, { params }: { params: Promise<{ chamber
     if (!auth) return fail(401, "unauthenticated", "Send the chamber's logger token as 'Authorization: Bearer <token>'.");
     await authenticateChamberToken({ token: auth[1], chamberId });
 
-    const text = await req.text();
-    if (text.length > MAX_BODY_BYTES) return fail(413, "too-large", "The request body is larger than 2 MB; send at most 5,000 readings per request.");
+    const text = await readBodyText(req, MAX_BODY_BYTES, "The request body is larger than 2 MB; send at most 5,000 readings per request.");
     let raw: unknown;
     try {
       raw = JSON.parse(text);
