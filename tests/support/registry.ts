@@ -20,7 +20,8 @@ function walk(dir: string, out: string[] = []) {
 const appDir = path.join(repoRoot, "app");
 
 export async function listActions(): Promise<ActionEntry[]> {
-  const files = walk(appDir).filter((f) => /[/\\]actions\.ts$/.test(f)).sort();
+  // Every module that declares server actions ("use server" at the top), wherever it sits under app/.
+  const files = walk(appDir).filter((f) => /\.tsx?$/.test(f) && /^\s*["']use server["']/.test(fs.readFileSync(f, "utf8"))).sort();
   const out: ActionEntry[] = [];
   for (const f of files) {
     const mod = (await import(f)) as Record<string, unknown>;
@@ -61,7 +62,7 @@ export function matrixMarkdown(actions: ActionEntry[], routes: RouteEntry[], pub
   const rows: string[] = [];
   for (const a of actions) {
     if (!a.permission) continue;
-    rows.push(`| action \`${a.name}\` (${a.file.replace(/^app\//, "").replace(/\/actions\.ts$/, "")}) | ${a.permission} | ${ROLES.map((r) => cell(a.permission, r)).join(" | ")} | refused |`);
+    rows.push(`| action \`${a.name}\` (${a.file.replace(/^app\/_actions\//, "").replace(/\.tsx?$/, "")}) | ${a.permission} | ${ROLES.map((r) => cell(a.permission, r)).join(" | ")} | refused |`);
   }
   for (const r of routes) {
     if (r.permission) rows.push(`| ${r.method} \`${r.route}\` | ${r.permission} | ${ROLES.map((x) => cell(r.permission, x)).join(" | ")} | 401 |`);
