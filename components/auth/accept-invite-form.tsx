@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { acceptInvite } from "@/app/(auth)/invite/[token]/actions";
+import { acceptInvite } from "@/app/_actions/invite";
 import { Field, FormMessage, SubmitButton } from "@/components/ui/form";
 
 export function AcceptInviteForm({ token, hasAccount }: { token: string; hasAccount: boolean }) {

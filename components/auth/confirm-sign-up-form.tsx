@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { confirmSignUp } from "@/app/(auth)/sign-up/actions";
+import { confirmSignUp } from "@/app/_actions/sign-up";
 import { FormMessage, SubmitButton } from "@/components/ui/form";
 
 export function ConfirmSignUpForm({ token }: { token: string }) {

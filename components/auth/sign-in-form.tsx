@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { signInWithPassword } from "@/app/(auth)/sign-in/actions";
+import { signInWithPassword } from "@/app/_actions/sign-in";
 import { SubmitButton } from "@/components/ui/form";
 
 export function SignInForm({ email, joined, callbackUrl }: { email: string; joined: boolean; callbackUrl: string }) {

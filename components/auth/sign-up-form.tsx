@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { signUp } from "@/app/(auth)/sign-up/actions";
+import { signUp } from "@/app/_actions/sign-up";
 import { Field, FormMessage, SubmitButton } from "@/components/ui/form";
 
 export function SignUpForm() {

@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { archiveChamberAction } from "@/app/(lab)/chambers/actions";
+import { archiveChamberAction } from "@/app/_actions/chambers";
 import { FormMessage, SubmitButton } from "@/components/ui/form";
 
 export function ArchiveForm({ chamberId, archived }: { chamberId: string; archived: boolean }) {

@@ -1,7 +1,7 @@
 "use client";
 // Small forms on the chamber page: a typed reading, a desiccant log entry, a hygrometer check.
 import { useActionState, useState } from "react";
-import { addDesiccantEventAction, addHygrometerCheckAction, addReadingAction, setCheckAppliedAction } from "@/app/(lab)/chambers/[chamberId]/actions";
+import { addDesiccantEventAction, addHygrometerCheckAction, addReadingAction, setCheckAppliedAction } from "@/app/_actions/chamber-records";
 import { FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 import { SALT_IDS, SALTS, isSaltId } from "@/lib/humidity/salts";
 import { hygrometerOffset } from "@/lib/climate/hygrometer-check";

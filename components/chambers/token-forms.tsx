@@ -1,6 +1,6 @@
 "use client";
 import { useActionState, useState } from "react";
-import { createTokenAction, revokeTokenAction } from "@/app/(lab)/chambers/[chamberId]/actions";
+import { createTokenAction, revokeTokenAction } from "@/app/_actions/chamber-records";
 import { Field, FormMessage, SubmitButton } from "@/components/ui/form";
 import type { ActionState } from "@/lib/auth/action";
 

@@ -1,7 +1,7 @@
 "use client";
 // Lead-only forms: who scores this trial (blind or not), and how the score of record is chosen.
 import { useActionState } from "react";
-import { assignScorerAction, removeScorerAction, setScoreRuleAction } from "@/app/(lab)/trials/[trialId]/scoring/actions";
+import { assignScorerAction, removeScorerAction, setScoreRuleAction } from "@/app/_actions/scorers";
 import { FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 
 type Member = { userId: string; name: string; role: string };

@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { changeMemberRole, changeOwnPassword, inviteMember, setReminderPreference } from "@/app/(lab)/settings/actions";
+import { changeMemberRole, changeOwnPassword, inviteMember, setReminderPreference } from "@/app/_actions/settings";
 import { Field, FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 

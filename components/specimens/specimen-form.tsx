@@ -1,7 +1,7 @@
 "use client";
 import { useActionState, useEffect } from "react";
 import { useRouter } from "next/navigation";
-import { createSpecimenAction, updateSpecimenAction } from "@/app/(lab)/specimens/actions";
+import { createSpecimenAction, updateSpecimenAction } from "@/app/_actions/specimens";
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, SURFACE_PREP_STEPS, splitSurfacePrep } from "@/lib/validation/specimens";
 

@@ -3,7 +3,7 @@
 // for a preview; the server checks again, adds the lab's existing labels, and writes all or nothing.
 import { useActionState, useMemo, useState } from "react";
 import Link from "next/link";
-import { importSpecimensAction, type ImportState } from "@/app/(lab)/specimens/actions";
+import { importSpecimensAction, type ImportState } from "@/app/_actions/specimens";
 import { FormMessage, SubmitButton } from "@/components/ui/form";
 import { CSV_COLUMNS, MATERIAL_CLASS_LABELS, MAX_IMPORT_BYTES, parseSpecimenCsv, type CsvRowError } from "@/lib/validation/specimens";
 

@@ -1,7 +1,7 @@
 "use client";
 import { useActionState, useEffect } from "react";
 import { useRouter } from "next/navigation";
-import { createTreatmentAction, updateTreatmentAction } from "@/app/(lab)/treatments/actions";
+import { createTreatmentAction, updateTreatmentAction } from "@/app/_actions/treatments";
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
 import { TREATMENT_KIND_LABELS, TREATMENT_KINDS } from "@/lib/validation/treatments";
 

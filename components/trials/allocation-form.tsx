@@ -2,7 +2,7 @@
 // Choose specimens (filter by class or text), a seed and blocking, then allocate. Re-rolling is the
 // same form with a new seed; the server keeps the record of every allocation in the audit trail.
 import { useActionState, useMemo, useState } from "react";
-import { allocateAction } from "@/app/(lab)/trials/actions";
+import { allocateAction } from "@/app/_actions/trials";
 import { FormMessage } from "@/components/ui/form";
 import { PendingButton, useFormSubmit } from "./use-form-submit";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, type MaterialClass } from "@/lib/validation/specimens";

@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { recordInspectionAction, rescheduleInspectionAction } from "@/app/(lab)/trials/[trialId]/schedule/actions";
+import { recordInspectionAction, rescheduleInspectionAction } from "@/app/_actions/inspections";
 import { Field, FormMessage, SubmitButton, TextArea } from "@/components/ui/form";
 
 // Ids are suffixed per inspection so several forms on one page keep unique, labelled fields.

@@ -1,7 +1,7 @@
 "use client";
 // Start, conclude and notes. The server enforces who may do what and when; these only collect input.
 import { useActionState, useState } from "react";
-import { addNoteAction, concludeTrialAction, startTrialAction } from "@/app/(lab)/trials/actions";
+import { addNoteAction, concludeTrialAction, startTrialAction } from "@/app/_actions/trials";
 import { FormMessage, SubmitButton, TextArea } from "@/components/ui/form";
 import { useFormSubmit } from "./use-form-submit";
 

@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { moveSpecimenAction } from "@/app/(lab)/trials/actions";
+import { moveSpecimenAction } from "@/app/_actions/trials";
 import { Field, FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 
 export function MoveForm({ trialId, specimens, arms }: { trialId: string; specimens: { id: string; label: string; where: string }[]; arms: { id: string; label: string }[] }) {

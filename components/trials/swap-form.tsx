@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { swapAction } from "@/app/(lab)/trials/actions";
+import { swapAction } from "@/app/_actions/trials";
 import { Field, FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 
 export function SwapForm({ trialId, rows }: { trialId: string; rows: { specimenId: string; label: string; armLabel: string | null }[] }) {

@@ -1,7 +1,7 @@
 "use client";
 // Team and photo protocol while the trial runs (draft trials edit them in the design form).
 import { useActionState } from "react";
-import { updateProtocolAction, updateScorersAction, updateTechniciansAction } from "@/app/(lab)/trials/actions";
+import { updateProtocolAction, updateScorersAction, updateTechniciansAction } from "@/app/_actions/trials";
 import { FormMessage } from "@/components/ui/form";
 import { PendingButton, useFormSubmit } from "./use-form-submit";
 import { ProtocolLines } from "./protocol-lines";

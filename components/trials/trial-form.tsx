@@ -3,7 +3,7 @@
 // photo protocol and inspection plan. Submitted without a form reset, so nothing typed is lost.
 import { useActionState, useEffect, useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
-import { createTrialAction, updateTrialAction } from "@/app/(lab)/trials/actions";
+import { createTrialAction, updateTrialAction } from "@/app/_actions/trials";
 import { Field, FormMessage, SelectField, TextArea } from "@/components/ui/form";
 import type { InspectionPlan } from "@/lib/schedule/plans";
 import type { TeamFieldName } from "@/lib/trials/team";

@@ -4,13 +4,7 @@ import { compareGroups, scorerAgreement, type GradePair } from "@/lib/analysis/c
 import type { ComparisonResult, CurveMethod } from "@/lib/analysis/result";
 import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
 import type { Grouping } from "@/lib/analysis/groups";
-import { outcomeRows } from "@/lib/export/outcome-rows";
-import { buildPackageZip, type PackageTable } from "@/lib/export/package-zip";
-import { formatDateTime } from "@/lib/export/table-schema";
-import { toPackageName } from "@/lib/export/datapackage";
-import {
-  CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
-} from "@/lib/export/trial-tables";
+import { trialDataPackage } from "@/lib/export/trial-package";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
 import { chambers, inspections, photos, placements, readings, scores, specimens, treatments, trialArms, trials } from "../schema";
@@ -161,53 +155,8 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
 }
 export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 
-const PACKAGE_README = (trial: AnalysisTrial, created: Date) => `# ${trial.title}
-
-${trial.question}
-
-Exported from Rustline on ${formatDateTime(created)} as a Frictionless Tabular Data Package
-(https://specs.frictionlessdata.io/tabular-data-package/). \`datapackage.json\` describes every CSV
-under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 checksum.
-
-- \`outcomes.csv\` is derived: for each placement, time to first rust as (last clean inspection,
-  first rusted inspection] in days since the trial start, from scores of record at done inspections.
-  An empty upper end means the specimen was never seen rusted (right-censored at the lower end).
-- \`photos.csv\` is a manifest: the image files stay in the lab's object storage; check a copy
-  against its \`sha256\`.
-- User ids (scorer_id, done_by) are pseudonymous; \`blind\` marks scores made without seeing the treatment.
-- Times are UTC to the whole second (\`2026-03-01T09:30:00Z\`).
-- Text cells that would start with \`=\`, \`+\`, \`-\`, \`@\`, a tab or a carriage return begin with a
-  leading \`'\` guard, so a spreadsheet shows them as text instead of running them as formulas (a text
-  cell already starting with \`'\` before such a character gets one more). Remove one leading \`'\`
-  from such a cell to get the value as typed. Number, date and boolean cells are never changed.
-
-These results guide storage decisions; they do not replace a conservator's judgement.
-`;
-
 /** The trial's data package as a zip (buffered: a trial's tables are a few MB at most). */
 export async function buildTrialDataPackage({ labId, trial, now = new Date() }: { labId: string; trial: AnalysisTrial; now?: Date }) {
   const [rows, loaded] = await Promise.all([loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial })]);
-  const tables: PackageTable[] = [
-    { spec: TRIAL_TABLE, rows: [trial] },
-    { spec: SPECIMEN_TABLE, rows: rows.specimenRows },
-    { spec: TREATMENT_TABLE, rows: rows.treatmentRows },
-    { spec: CHAMBER_TABLE, rows: rows.chamberRows },
-    { spec: PLACEMENT_TABLE, rows: rows.placementRows },
-    { spec: INSPECTION_TABLE, rows: rows.inspectionRows },
-    { spec: PHOTO_TABLE, rows: rows.photoRows },
-    { spec: SCORE_TABLE, rows: rows.scoreRows },
-    { spec: READING_TABLE, rows: rows.readingRows },
-    { spec: OUTCOME_TABLE, rows: outcomeRows(loaded.outcomes) },
-  ];
-  const name = toPackageName(`rustline-${trial.title}`);
-  const result = await buildPackageZip({
-    name,
-    title: trial.title,
-    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest and per-specimen outcomes.`,
-    created: now,
-    keywords: ["corrosion", "relative humidity", "time to first rust", "interval-censored"],
-    readme: PACKAGE_README(trial, now),
-    tables,
-  });
-  return { ...result, filename: `${name}.zip` };
+  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, now });
 }

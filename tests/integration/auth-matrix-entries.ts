@@ -38,15 +38,15 @@ const trialForm = (f: Fixture) => ({
 });
 const score = { spotCount: "0", areaPercent: "0", silicateChange: "none" };
 
-const CHAMBER = "app/(lab)/chambers/[chamberId]/actions.ts";
-const CHAMBERS = "app/(lab)/chambers/actions.ts";
-const SETTINGS = "app/(lab)/settings/actions.ts";
-const SPECIMENS = "app/(lab)/specimens/actions.ts";
-const TREATMENTS = "app/(lab)/treatments/actions.ts";
-const SCORE = "app/(lab)/trials/[trialId]/inspections/[inspectionId]/score/[specimenId]/actions.ts";
-const SCHEDULE = "app/(lab)/trials/[trialId]/schedule/actions.ts";
-const SCORING = "app/(lab)/trials/[trialId]/scoring/actions.ts";
-const TRIALS = "app/(lab)/trials/actions.ts";
+const CHAMBER = "app/_actions/chamber-records.ts";
+const CHAMBERS = "app/_actions/chambers.ts";
+const SETTINGS = "app/_actions/settings.ts";
+const SPECIMENS = "app/_actions/specimens.ts";
+const TREATMENTS = "app/_actions/treatments.ts";
+const SCORE = "app/_actions/scores.ts";
+const SCHEDULE = "app/_actions/inspections.ts";
+const SCORING = "app/_actions/scorers.ts";
+const TRIALS = "app/_actions/trials.ts";
 
 export const ENTRY_POINTS: Record<string, Entry> = {
   // ---- server actions ----

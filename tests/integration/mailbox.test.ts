@@ -2,7 +2,7 @@
 // signed up, a technician, and an operator who turned demo mode off. Invitation links are the prize.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb } from "@/db/client";
-import { inviteMember } from "@/app/(lab)/settings/actions";
+import { inviteMember } from "@/app/_actions/settings";
 import { listMessages } from "@/lib/mail-store";
 import { createTestLab, TEST_PASSWORD, uniqueEmail, type TestLab } from "../support/db";
 import { signedInClient } from "../support/http";

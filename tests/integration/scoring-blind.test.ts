@@ -9,7 +9,7 @@ import { assignScorer } from "@/db/queries/scores-agreement";
 import { getBlindPhoto, listScoringQueue } from "@/db/queries/scores-queue";
 import { saveScoreSchema } from "@/lib/validation/scores";
 import { DEMO_PASSWORD } from "@/experiments/demo-lab";
-import { assignScorerAction } from "@/app/(lab)/trials/[trialId]/scoring/actions";
+import { assignScorerAction } from "@/app/_actions/scorers";
 import { createTestLab, type TestLab } from "../support/db";
 import { signedInClient } from "../support/http";
 import { ensureS3Fake, type S3Fake } from "../support/s3";

@@ -9,7 +9,7 @@ import { setScoreRule } from "@/db/queries/scores-agreement";
 import { getLabPhoto } from "@/db/queries/scores-read";
 import { AppError } from "@/lib/auth/errors";
 import { saveScoreSchema } from "@/lib/validation/scores";
-import { saveScoreAction } from "@/app/(lab)/trials/[trialId]/inspections/[inspectionId]/score/[specimenId]/actions";
+import { saveScoreAction } from "@/app/_actions/scores";
 import { createTestLab, type TestLab } from "../support/db";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { createReadyPhoto, createScoringTrial, squareFace, type MadePhoto, type ScoringTrial } from "./scoring-fixtures";

@@ -4,7 +4,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { createSpecimenAction, importSpecimensAction, updateSpecimenAction } from "@/app/(lab)/specimens/actions";
+import { createSpecimenAction, importSpecimensAction, updateSpecimenAction } from "@/app/_actions/specimens";
 import { exportSpecimens, listSpecimens } from "@/db/queries/specimens";
 import { parseSpecimenCsv, specimensToCsv } from "@/lib/validation/specimens";
 import { createTestLab, type TestLab } from "../support/db";

@@ -9,8 +9,8 @@ import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { ROLES, type Role } from "@/lib/auth/permissions";
 import { teamRights } from "@/lib/trials/team";
-import { updateScorersAction, updateTechniciansAction, updateTrialAction } from "@/app/(lab)/trials/actions";
-import { assignScorerAction, setScoreRuleAction } from "@/app/(lab)/trials/[trialId]/scoring/actions";
+import { updateScorersAction, updateTechniciansAction, updateTrialAction } from "@/app/_actions/trials";
+import { assignScorerAction, setScoreRuleAction } from "@/app/_actions/scorers";
 import { createTestLab, TEST_PASSWORD, type TestLab } from "../support/db";
 import { signedInClient, type Client } from "../support/http";
 

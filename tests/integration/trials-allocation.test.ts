@@ -4,7 +4,7 @@ import { and, desc, eq, isNotNull } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { allocateAction, createTrialAction, swapAction, updateTrialAction } from "@/app/(lab)/trials/actions";
+import { allocateAction, createTrialAction, swapAction, updateTrialAction } from "@/app/_actions/trials";
 import { allocateDetailed } from "@/lib/allocation/allocate";
 import { createTestLab, type TestLab } from "../support/db";
 import { addChambers, addSpecimens, addTreatments, designInput } from "./trials-fixtures";

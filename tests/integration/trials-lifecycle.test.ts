@@ -9,8 +9,8 @@ import { listInspections } from "@/db/queries/inspections";
 import {
   addNoteAction, allocateAction, concludeTrialAction, createTrialAction, moveSpecimenAction, startTrialAction, swapAction,
   updateProtocolAction, updateScorersAction, updateTechniciansAction, updateTrialAction,
-} from "@/app/(lab)/trials/actions";
-import { recordInspectionAction, rescheduleInspectionAction } from "@/app/(lab)/trials/[trialId]/schedule/actions";
+} from "@/app/_actions/trials";
+import { recordInspectionAction, rescheduleInspectionAction } from "@/app/_actions/inspections";
 import { planDays } from "@/lib/schedule/plans";
 import { createTestLab, type TestLab } from "../support/db";
 import { addChambers, addSpecimens, addTreatments, designInput } from "./trials-fixtures";

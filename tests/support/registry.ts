@@ -1,7 +1,7 @@
 // Every server action and route handler of the app, found on disk and imported, with the permission
 // each declares (labAction / labRoute attach it). The authorization matrix and the fuzz tests walk this.
 // Server actions are every export of a module whose first statement is "use server", wherever it sits
-// (not only app/**/actions.ts); a "use server" inside a function body is an inline action that the
+// (app/_actions or anywhere else); a "use server" inside a function body is an inline action that the
 // wrapper cannot see, listed by inlineServerActions() so a test can refuse it.
 import fs from "node:fs";
 import path from "node:path";
@@ -81,7 +81,7 @@ export function matrixMarkdown(actions: ActionEntry[], routes: RouteEntry[], pub
   const rows: string[] = [];
   for (const a of actions) {
     if (!a.permission) continue;
-    rows.push(`| action \`${a.name}\` (${a.file.replace(/^app\//, "").replace(/\/actions\.ts$/, "")}) | ${a.permission} | ${ROLES.map((r) => cell(a.permission, r)).join(" | ")} | refused |`);
+    rows.push(`| action \`${a.name}\` (${a.file.replace(/^app\/_actions\//, "").replace(/\.tsx?$/, "")}) | ${a.permission} | ${ROLES.map((r) => cell(a.permission, r)).join(" | ")} | refused |`);
   }
   for (const r of routes) {
     if (r.permission) rows.push(`| ${r.method} \`${r.route}\` | ${r.permission} | ${ROLES.map((x) => cell(r.permission, x)).join(" | ")} | 401 |`);

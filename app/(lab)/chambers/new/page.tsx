@@ -2,7 +2,7 @@ import Link from "next/link";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ChamberForm } from "@/components/chambers/chamber-form";
-import { createChamberAction } from "../actions";
+import { createChamberAction } from "@/app/_actions/chambers";
 
 export const metadata = { title: "New chamber" };
 

@@ -4,7 +4,7 @@ import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ChamberForm, type ChamberFormValues } from "@/components/chambers/chamber-form";
 import { ArchiveForm } from "@/components/chambers/archive-form";
-import { updateChamberAction } from "../../actions";
+import { updateChamberAction } from "@/app/_actions/chambers";
 import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Edit chamber" };

@@ -6,7 +6,7 @@ import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
 import { ScoreLine } from "@/components/scoring/score-summary";
-import { saveScoreAction } from "../../inspections/[inspectionId]/score/[specimenId]/actions";
+import { saveScoreAction } from "@/app/_actions/scores";
 import { orNotFound } from "@/lib/auth/not-found";
 import { isUuid } from "@/lib/ids";
 

@@ -8,7 +8,7 @@ import { ConsensusForm } from "@/components/scoring/consensus-form";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
 import { FirstRustNote, ScoreLine } from "@/components/scoring/score-summary";
 import { EmptyState } from "@/components/ui/empty-state";
-import { saveConsensusAction, saveScoreAction } from "./actions";
+import { saveConsensusAction, saveScoreAction } from "@/app/_actions/scores";
 import { orNotFound } from "@/lib/auth/not-found";
 import { isUuid } from "@/lib/ids";
 
