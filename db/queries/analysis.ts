@@ -129,23 +129,26 @@ export async function getTrialAnalysis(
 /** Raw rows of one trial for the data package; readings only for its chambers while it ran. */
 export async function loadExportRows({ labId, trial }: { labId: string; trial: AnalysisTrial }) {
   const trialId = trial.id;
-  const placementRows = await db.select().from(placements)
-    .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId))).orderBy(asc(placements.createdAt));
-  const specimenIds = [...new Set(placementRows.map((p) => p.specimenId))];
-  const chamberIds = [...new Set(placementRows.map((p) => p.chamberId))];
-  const treatmentIds = [...new Set(placementRows.map((p) => p.treatmentId))];
   const none = sql`false`;
   const until = trial.concludedAt ?? new Date();
-  const [specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows] = await Promise.all([
-    db.select().from(specimens).where(and(eq(specimens.labId, labId), specimenIds.length ? inArray(specimens.id, specimenIds) : none)).orderBy(asc(specimens.label)),
-    db.select().from(chambers).where(and(eq(chambers.labId, labId), chamberIds.length ? inArray(chambers.id, chamberIds) : none)).orderBy(asc(chambers.name)),
-    db.select().from(treatments).where(and(eq(treatments.labId, labId), treatmentIds.length ? inArray(treatments.id, treatmentIds) : none)).orderBy(asc(treatments.name)),
+  const [placementRows, inspectionRows, scoreRows, photoRows] = await Promise.all([
+    db.select().from(placements).where(and(eq(placements.labId, labId), eq(placements.trialId, trialId))).orderBy(asc(placements.createdAt)),
     db.select().from(inspections).where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId))).orderBy(asc(inspections.plannedAt)),
     db.select().from(scores).where(and(eq(scores.labId, labId), eq(scores.trialId, trialId))).orderBy(asc(scores.inspectionId), asc(scores.specimenId), asc(scores.createdAt)),
     // Photos of the trial, and any photo a score of the trial points at (so every foreign key resolves).
     db.select().from(photos).where(and(eq(photos.labId, labId), or(eq(photos.trialId, trialId), inArray(photos.id,
       db.select({ id: scores.photoId }).from(scores).where(and(eq(scores.trialId, trialId), isNotNull(scores.photoId)))))))
       .orderBy(asc(photos.createdAt)),
+  ]);
+  // Every specimen a row of the package names: placed ones, and any a photo or score names (a
+  // specimen taken out of the allocation keeps its photos), so every foreign key resolves.
+  const specimenIds = [...new Set([...placementRows, ...photoRows, ...scoreRows].map((r) => r.specimenId))];
+  const chamberIds = [...new Set(placementRows.map((p) => p.chamberId))];
+  const treatmentIds = [...new Set(placementRows.map((p) => p.treatmentId))];
+  const [specimenRows, chamberRows, treatmentRows, readingRows] = await Promise.all([
+    db.select().from(specimens).where(and(eq(specimens.labId, labId), specimenIds.length ? inArray(specimens.id, specimenIds) : none)).orderBy(asc(specimens.label)),
+    db.select().from(chambers).where(and(eq(chambers.labId, labId), chamberIds.length ? inArray(chambers.id, chamberIds) : none)).orderBy(asc(chambers.name)),
+    db.select().from(treatments).where(and(eq(treatments.labId, labId), treatmentIds.length ? inArray(treatments.id, treatmentIds) : none)).orderBy(asc(treatments.name)),
     trial.startedAt && chamberIds.length
       ? db.select().from(readings).where(and(eq(readings.labId, labId), inArray(readings.chamberId, chamberIds),
         gte(readings.takenAt, trial.startedAt), lte(readings.takenAt, until))).orderBy(asc(readings.chamberId), asc(readings.takenAt))
