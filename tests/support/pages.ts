@@ -2,16 +2,8 @@
 // walk these, so a new page is covered without anyone listing it.
 import fs from "node:fs";
 import path from "node:path";
+import { walk } from "./registry";
 import { repoRoot } from "./s3";
-
-function walk(dir: string, out: string[] = []) {
-  for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
-    const p = path.join(dir, e.name);
-    if (e.isDirectory()) walk(p, out);
-    else out.push(p);
-  }
-  return out;
-}
 
 export type PageEntry = { file: string; route: string; source: string };
 

@@ -11,7 +11,8 @@ import { repoRoot } from "./s3";
 export type ActionEntry = { file: string; name: string; permission: Permission | null; fn: unknown };
 export type RouteEntry = { file: string; route: string; method: string; permission: Permission | null; fn: unknown };
 
-function walk(dir: string, out: string[] = []) {
+/** Every file below a folder. */
+export function walk(dir: string, out: string[] = []): string[] {
   for (const e of fs.readdirSync(dir, { withFileTypes: true })) {
     const p = path.join(dir, e.name);
     if (e.isDirectory()) walk(p, out);
