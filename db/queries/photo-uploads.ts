@@ -1,11 +1,11 @@
 import "server-only";
 // The upload flow. Presign checks everything it can (role, lab, inspection, specimen, type, size),
-// signs a PUT bound to one key, type, length and SHA-256 (so the bytes checked at finalise are the
-// only bytes storage will ever take under that key), and writes nothing: the browser then uploads
+// has storage/photo-uploads sign a PUT bound to one key, type, length and SHA-256 (so the bytes
+// checked at finalise are the only bytes storage will ever take under that key), and writes nothing:
+// the browser then uploads
 // straight to storage. Finalise proves the upload happened and is what it claimed to be, and only
 // then creates the row (with its audit event). An abandoned upload leaves an object with no row,
 // which the hourly sweep removes.
-import { randomUUID, createHash } from "node:crypto";
 import { and, eq, ne } from "drizzle-orm";
 import { recordAudit } from "@/db/audit";
 import { db } from "@/db/client";
@@ -13,16 +13,16 @@ import { enqueuePhotoProcess, type PhotoProcessJob } from "@/db/jobs/photos";
 import { inspections, photos, specimens, trials } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
-import { PHOTO_CONTENT_TYPES, PHOTO_TYPES, formatBytes, isPhotoContentType, readPhotoConfig } from "@/lib/photos/config";
+import { readPhotoConfig } from "@/lib/photos/config";
+import { acceptedPhotoType } from "@/lib/photos/upload-rules";
 import { extractPhotoExif } from "@/lib/photos/exif";
 import { assertWritable } from "@/lib/trials/lock";
 import { cleanFileName } from "@/lib/photos/label-match";
-import { describeSniffed, sniffImageType } from "@/lib/photos/magic";
 import type { PresignRequest } from "@/lib/photos/schemas";
 import { signUploadToken, verifyUploadToken, type UploadClaim } from "@/lib/photos/upload-token";
-import { keyBelongsToLab, photoKey } from "@/storage/keys";
-import { presignPut, type PresignedUpload } from "@/storage/presign";
-import { deleteObject, getObjectRange, headObject } from "@/storage/objects";
+import { keyBelongsToLab } from "@/storage/keys";
+import { signPhotoUpload, verifyStoredUpload } from "@/storage/photo-uploads";
+import type { PresignedUpload } from "@/storage/presign";
 import { getInspectionForPhotos, isSpecimenPlaced, referenceTime } from "./photos";
 import { lockTrial } from "./trial-access";
 
@@ -38,22 +38,14 @@ export type PresignResult = { key: string; upload: PresignedUpload; token: strin
 
 export async function presignPhotoUpload({ caller, input, expiresInS }: { caller: Caller; input: PresignRequest; expiresInS?: number }): Promise<PresignResult> {
   const cfg = readPhotoConfig();
-  const contentType = input.contentType.toLowerCase();
-  if (!isPhotoContentType(contentType)) {
-    const accepted = PHOTO_CONTENT_TYPES.map((t) => PHOTO_TYPES[t].label).join(", ");
-    throw new AppError("invalid", `Only ${accepted} photos can be uploaded.`, { contentType: [`"${input.contentType}" is not accepted; use ${accepted}.`] });
-  }
-  if (input.sizeBytes > cfg.maxBytes) {
-    throw new AppError("too-large", `The file is ${formatBytes(input.sizeBytes)}; the limit is ${formatBytes(cfg.maxBytes)}.`, { sizeBytes: [`Larger than ${formatBytes(cfg.maxBytes)}.`] });
-  }
+  const contentType = acceptedPhotoType(input, cfg.maxBytes);
   const target = await getInspectionForPhotos({ labId: caller.labId, inspectionId: input.inspectionId });
   if (!target) throw new AppError("not-found", "That inspection does not exist in this lab.");
   assertWritable(target.trial);
   const placed = await isSpecimenPlaced({ labId: caller.labId, trialId: target.trial.id, specimenId: input.specimenId, at: referenceTime(target.inspection).at });
   if (!placed) throw new AppError("invalid", "That specimen was not in this trial at this inspection.", { specimenId: ["Choose a specimen placed in the trial at this inspection."] });
 
-  const key = photoKey({ labId: caller.labId, photoId: randomUUID(), ext: PHOTO_TYPES[contentType].ext });
-  const upload = await presignPut({ key, contentType, contentLength: input.sizeBytes, sha256: input.sha256, expiresInS: expiresInS ?? cfg.uploadUrlTtlS });
+  const { key, upload } = await signPhotoUpload({ labId: caller.labId, contentType, sizeBytes: input.sizeBytes, sha256: input.sha256, expiresInS: expiresInS ?? cfg.uploadUrlTtlS });
   const claim: UploadClaim = {
     key, labId: caller.labId, userId: caller.userId, trialId: target.trial.id, inspectionId: target.inspection.id,
     specimenId: input.specimenId, contentType, sizeBytes: input.sizeBytes, sha256: input.sha256, filename: cleanFileName(input.filename),
@@ -73,28 +65,6 @@ export type FinalizedPhoto = {
   sha256: string | null;
 };
 export type FinalizeResult = { photo: FinalizedPhoto; alreadyFinalized: boolean; check: CaptureCheck; warnings: string[] };
-
-const CHUNK_BYTES = 8 * 1024 * 1024;
-const JPEG_EXIF_BYTES = 256 * 1024; // a JPEG's EXIF (APP1) is limited to 64 KB and sits at the start
-
-/** SHA-256 of the object read in ranged chunks (bounded memory), plus the bytes EXIF needs. */
-async function hashObject(key: string, sizeBytes: number, keepAll: boolean): Promise<{ sha256: string; head: Uint8Array }> {
-  const hash = createHash("sha256");
-  const kept: Uint8Array[] = [];
-  let keptBytes = 0;
-  for (let start = 0; start < sizeBytes; start += CHUNK_BYTES) {
-    const end = Math.min(sizeBytes, start + CHUNK_BYTES) - 1;
-    const chunk = await getObjectRange(key, start, end);
-    if (!chunk || chunk.byteLength !== end - start + 1) throw new AppError("conflict", "The file changed in storage while it was being checked. Upload it again.");
-    hash.update(chunk);
-    if (keepAll || keptBytes < JPEG_EXIF_BYTES) {
-      kept.push(chunk);
-      keptBytes += chunk.byteLength;
-    }
-  }
-  const head = Buffer.concat(kept);
-  return { sha256: hash.digest("hex"), head: keepAll ? head : head.subarray(0, JPEG_EXIF_BYTES) };
-}
 
 function claimFromToken(token: string, caller: Caller): UploadClaim {
   const v = verifyUploadToken(token, tokenSecret());
@@ -144,25 +114,7 @@ export async function finalizePhotoUpload({
   const existing = await db.select({ id: photos.id }).from(photos).where(and(eq(photos.objectKey, claim.key), eq(photos.labId, caller.labId)));
   if (existing[0]) return buildResult(existing[0].id, caller, true);
 
-  const info = await headObject(claim.key);
-  if (!info) throw new AppError("not-found", "The file did not arrive in storage, so nothing was recorded. Upload it again.");
-  if (info.sizeBytes !== claim.sizeBytes) {
-    await deleteObject(claim.key);
-    throw new AppError("invalid", `Storage holds ${formatBytes(info.sizeBytes)}, not the ${formatBytes(claim.sizeBytes)} approved; the file was removed and nothing was recorded.`);
-  }
-  const magic = await getObjectRange(claim.key, 0, 63);
-  const sniffed = magic ? sniffImageType(magic) : null;
-  if (sniffed !== claim.contentType) {
-    await deleteObject(claim.key);
-    const claimed = isPhotoContentType(claim.contentType) ? PHOTO_TYPES[claim.contentType].label : claim.contentType;
-    throw new AppError("invalid", `The file's content is ${describeSniffed(sniffed)}, not the ${claimed} it was sent as. It was removed and nothing was recorded.`);
-  }
-  const { sha256, head } = await hashObject(claim.key, claim.sizeBytes, claim.contentType !== "image/jpeg");
-  if (sha256 !== claim.sha256) {
-    // Storage that checks x-amz-checksum-sha256 never gets here; one that does not is caught now.
-    await deleteObject(claim.key);
-    throw new AppError("invalid", "The stored file is not the one approved for upload (its SHA-256 differs); it was removed and nothing was recorded.");
-  }
+  const { sha256, head } = await verifyStoredUpload(claim);
   const exif = await extractPhotoExif(head);
 
   const inserted = await db.transaction(async (tx) => {
