@@ -8,7 +8,7 @@ import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
 import { scores, trialMembers, trials, users } from "../schema";
 import { applyRecordRuleToTrial, type ScoreActor } from "./scores";
-import { assertTeamPeople } from "./team";
+import { assertPrimaryIsScorer, assertTeamPeople } from "./team";
 import { lockTrial } from "./trial-access";
 
 /** ASTM D610 grades 0…10 are the kappa categories (11 of them, equally spaced for the weights). */
@@ -62,6 +62,8 @@ export async function setScoreRule(actor: ScoreActor, input: { trialId: string; 
   return db.transaction(async (tx) => {
     const before = await trialOfLab(tx, actor.labId, input.trialId);
     await assertTeamPeople(tx, actor.labId, { primaryScorerId: input.primaryScorerId });
+    // A newly chosen primary scorer must score the trial (keeping the current one is no new choice).
+    if (input.primaryScorerId && input.primaryScorerId !== before.primaryScorerId) await assertPrimaryIsScorer(tx, before.id, { primaryScorerId: input.primaryScorerId, currentPrimaryId: before.primaryScorerId });
     const [trial] = await tx.update(trials)
       .set({ scoreRule: input.scoreRule, primaryScorerId: input.primaryScorerId ?? before.primaryScorerId, updatedAt: new Date() })
       .where(eq(trials.id, before.id)).returning();

@@ -28,11 +28,18 @@ export async function assertTeamPeople(tx: Tx, labId: string, input: Named, form
   }
 }
 
-/** A primary scorer set on its own must already be one of the trial's scorers. */
-export async function assertPrimaryIsScorer(tx: Tx, trialId: string, primaryScorerId: string) {
-  const [row] = await tx.select({ userId: trialMembers.userId }).from(trialMembers)
-    .where(and(eq(trialMembers.trialId, trialId), eq(trialMembers.userId, primaryScorerId), eq(trialMembers.role, "scorer")));
-  if (!row) {
-    throw new AppError("invalid", "The primary scorer must be one of the trial's scorers. Nothing was saved.", { primaryScorerId: ["Choose one of the trial's scorers."] });
-  }
+/**
+ * The primary scorer, as given or as kept, is one of the trial's scorers, as given or as stored: a
+ * primary scorer named alone must already score the trial, and new scorers must keep the current one.
+ */
+export async function assertPrimaryIsScorer(tx: Tx, trialId: string, change: { primaryScorerId?: string | null; scorers?: { userId: string }[]; currentPrimaryId: string | null }) {
+  const primary = change.primaryScorerId !== undefined ? change.primaryScorerId : change.currentPrimaryId;
+  if (!primary) return;
+  const scorerIds = change.scorers !== undefined
+    ? change.scorers.map((s) => s.userId)
+    : (await tx.select({ userId: trialMembers.userId }).from(trialMembers).where(and(eq(trialMembers.trialId, trialId), eq(trialMembers.role, "scorer")))).map((r) => r.userId);
+  if (scorerIds.includes(primary)) return;
+  throw change.primaryScorerId !== undefined
+    ? new AppError("invalid", "The primary scorer must be one of the trial's scorers. Nothing was saved.", { primaryScorerId: ["Choose one of the trial's scorers."] })
+    : new AppError("invalid", "The new scorers leave out the trial's primary scorer. Keep them among the scorers or choose a new primary scorer. Nothing was saved.", { primaryScorerId: ["Choose one of the new scorers as primary scorer."] });
 }

@@ -173,7 +173,7 @@ export async function updateTrialDesign({ actor, trialId, input }: { actor: Acto
     const before = await lockTrial(tx, actor.labId, trialId);
     assertWritable(before, "draft");
     await assertTeamPeople(tx, actor.labId, input);
-    if (input.primaryScorerId && input.scorers === undefined) await assertPrimaryIsScorer(tx, trialId, input.primaryScorerId);
+    await assertPrimaryIsScorer(tx, trialId, { primaryScorerId: input.primaryScorerId, scorers: input.scorers, currentPrimaryId: before.primaryScorerId });
     let allocationCleared = false;
     if (input.chamberIds || input.treatmentIds || (input.replicatesPerArm !== undefined && input.replicatesPerArm !== before.replicatesPerArm)) {
       const arms = await tx.select().from(trialArms).where(eq(trialArms.trialId, trialId));
@@ -211,7 +211,7 @@ export async function updateTrialTeam({ actor, trialId, technicianIds, scorers, 
       throw new AppError("conflict", "Once a trial runs, scorers and the score-of-record rule are changed on its Scoring tab (which re-derives the scores of record).");
     }
     await assertTeamPeople(tx, actor.labId, { technicianIds, scorers, primaryScorerId });
-    if (primaryScorerId && scorers === undefined) await assertPrimaryIsScorer(tx, trialId, primaryScorerId);
+    await assertPrimaryIsScorer(tx, trialId, { primaryScorerId, scorers, currentPrimaryId: before.primaryScorerId });
     const beforeMembers = await tx.select().from(trialMembers).where(eq(trialMembers.trialId, trialId));
     if (technicianIds) await writeMembers(tx, actor.labId, trialId, "technician", technicianIds.map((userId) => ({ userId })));
     if (scorers) await writeMembers(tx, actor.labId, trialId, "scorer", scorers);

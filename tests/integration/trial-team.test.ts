@@ -115,6 +115,8 @@ describe("every named person is a current member of the lab who can do the job",
       { body: { primaryScorerId: a.users.observer.id }, field: "primaryScorerId", says: /Observers cannot score/ },
       // A member who can score but is not one of this trial's scorers.
       { body: { primaryScorerId: a.users.researcher.id }, field: "primaryScorerId", says: /one of the trial's scorers/ },
+      // New scorers that leave out the current primary scorer (the technician), naming no new one.
+      { body: { scorers: [{ userId: a.users.lead.id, blind: false }] }, field: "primaryScorerId", says: /Choose one of the new scorers/ },
       // The design PATCH path (a design field beside the team field) checks the same.
       { body: { hypothesis: "Outsiders help.", technicianIds: [outsider] }, field: "technicianIds", says: /Not a member of this lab/ },
       { body: { hypothesis: "Outsiders score.", primaryScorerId: madeUp }, field: "primaryScorerId", says: /Not a member of this lab/ },
@@ -144,6 +146,9 @@ describe("every named person is a current member of the lab who can do the job",
     expect(rule.errors?.primaryScorerId?.[0]).toMatch(/Observers cannot score/);
     const ruleOutsider = await setScoreRuleAction.withIdentity(a.as("lead"), { trialId, scoreRule: "primary-scorer", primaryScorerId: crypto.randomUUID() });
     expect(ruleOutsider.errors?.primaryScorerId?.[0]).toMatch(/Not a member of this lab/);
+    // On the Scoring tab too, the primary scorer must be one of the trial's scorers.
+    const ruleNotScorer = await setScoreRuleAction.withIdentity(a.as("lead"), { trialId, scoreRule: "primary-scorer", primaryScorerId: a.users.researcher.id });
+    expect(ruleNotScorer.errors?.primaryScorerId?.[0]).toMatch(/one of the trial's scorers/);
     expect(await snapshot(trialId)).toEqual(before);
   });
 

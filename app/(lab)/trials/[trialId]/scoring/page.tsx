@@ -102,7 +102,7 @@ export default async function ScoringQueuePage({ params, searchParams }: { param
             <h2 id="rule-h" className="font-semibold">Score of record</h2>
             <p className="text-sm muted">Analysis uses one score per specimen and inspection. Changing the rule re-derives it for every score already made.</p>
             {trial.status === "concluded" ? <p className="text-sm">The trial is concluded; the rule is fixed.</p>
-              : <ScoreRuleForm trialId={trialId} rule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} members={staff} />}
+              : <ScoreRuleForm trialId={trialId} rule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} members={staff.filter((m) => scorers.some((s) => s.userId === m.userId))} />}
           </section>
         </div>
       )}
