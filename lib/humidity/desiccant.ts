@@ -1,7 +1,7 @@
 // Desiccant references and a simple water budget for a desiccated jar.
 //
 // The capacity curves, lowest attainable RH and regeneration temperatures below are recalled
-// values (REFERENCES.md §3 [mem]), not read from a datasheet: good enough to size a charge with a
+// values (recalled from manufacturers' published isotherms), not re-read from a datasheet: good enough to size a charge with a
 // wide margin, not to promise a date. Suppliers' isotherms differ by grade and by batch.
 
 import { absoluteHumidityGm3 } from "@/lib/humidity/psychrometrics";
@@ -23,7 +23,7 @@ export interface DesiccantInfo {
   source: string;
 }
 
-const MEM = "REFERENCES.md §3, from memory (no datasheet at hand)";
+const MEM = "manufacturers' published isotherms, from memory (no datasheet at hand)";
 
 export const DESICCANTS: Readonly<Record<DesiccantKind, DesiccantInfo>> = {
   "molecular-sieve-4a": {

@@ -1,5 +1,5 @@
 // Hazard notes shown beside a chamber. GHS codes come from the salt and desiccant references;
-// the practice cautions are common lab practice (REFERENCES.md §6 [practice]). We never stand in
+// the practice cautions are common lab practice (trade practice, not a cited source). We never stand in
 // for the safety data sheet, so every result ends with the same deferral.
 
 import { DESICCANTS, GENERAL_DESICCANT_CAUTION, type DesiccantKind } from "@/lib/humidity/desiccant";

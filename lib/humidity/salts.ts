@@ -8,11 +8,11 @@
 // (tests/unit/humidity-salts.test.ts).
 //
 // Uncertainty: Greenspan tabulates an uncertainty for every temperature, but only the 25 °C
-// values are on hand (recalled, REFERENCES.md §1 [mem]). We report that 25 °C value as the
+// values are on hand (recalled from Greenspan 1977, Table 1). We report that 25 °C value as the
 // uncertainty at every temperature in the fit range. It is the right order of magnitude; at the
 // ends of the range Greenspan's own figures are somewhat larger, so treat it as a lower bound there.
 //
-// Fit ranges are recalled, not re-read (REFERENCES.md §1 [mem]); outside them we refuse rather
+// Fit ranges are recalled, not re-read (Greenspan 1977, from memory); outside them we refuse rather
 // than extrapolate, because a cubic fit can drift quickly past its data.
 
 import { ghsStatements, type GhsStatement } from "@/lib/humidity/ghs";

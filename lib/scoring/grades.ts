@@ -1,5 +1,5 @@
 // Standard rust grades from a rusted-area percentage.
-// ASTM D610 / SSPC-VIS 2 Table 1 and ISO 4628-3 nominal areas, as listed in REFERENCES.md §4.
+// ASTM D610 / SSPC-VIS 2 Table 1 and ISO 4628-3 nominal areas (ASTM D610-08, Table 1; ISO 4628-3:2016).
 
 /**
  * Upper bound (inclusive) of rusted area, in percent, for each ASTM D610 grade from 10 down to 1;

@@ -25,7 +25,7 @@ describe("chambers", () => {
     await page.getByLabel("Kind").selectOption("saturated-salt");
     await page.getByLabel("Salt", { exact: true }).selectOption("NaCl");
     await page.getByLabel("Nominal temperature (°C)").fill("22");
-    // Greenspan 1977 fit for NaCl at 22 °C: 75.41 %RH, ± 0.12 (25 °C table uncertainty, REFERENCES.md §1)
+    // Greenspan 1977 fit for NaCl at 22 °C: 75.41 %RH, ± 0.12 (25 °C table uncertainty)
     const shown = page.getByTestId("salt-equilibrium");
     await expect.poll(() => shown.innerText()).toMatch(/75\.4 ± 0\.12 %RH/);
     await expect(page.getByLabel("Target RH (%RH)").inputValue()).resolves.toBe("75.4");

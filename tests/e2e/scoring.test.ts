@@ -95,7 +95,7 @@ describe("scoring a photo", () => {
     await page.getByTestId("estimate-percent").waitFor({ timeout: 30_000 });
     await page.getByRole("button", { name: "Correct with marks" }).click();
     await page.getByLabel("S — spot").check();
-    // ASTM D610 Table 1: >1–3 % is grade 5 (REFERENCES.md §4); ISO 4628-3 by Rustline's rule: >1–8 % is Ri 4.
+    // ASTM D610 Table 1: >1–3 % is grade 5; ISO 4628-3 by Rustline's rule: >1–8 % is Ri 4.
     await expect(page.getByTestId("astm-preview").innerText()).resolves.toBe("5-S");
     await expect(page.getByTestId("iso-preview").innerText()).resolves.toBe("Ri 4");
     await screenshot(page, "scoring-marked");

@@ -33,7 +33,7 @@ describe("climate analysis", () => {
     expect(before.count).toBe(10);
     expect(before.stats.fractionInBand).toBeCloseTo(3 / 9, 9); // h0, h1, h4 of 9 counted hours
 
-    // The probe read 77.4 %RH over NaCl at 25 °C, where the Greenspan 1977 fit gives 75.30 %RH (REFERENCES.md §1): it reads ≈2.10 high.
+    // The probe read 77.4 %RH over NaCl at 25 °C, where the Greenspan 1977 fit gives 75.30 %RH: it reads ≈2.10 high.
     const check = await addHygrometerCheck({ labId: lab.labId, userId: lab.users.technician.id, chamberId: c.id, values: { instrument: "probe", saltId: "NaCl", tempC: 25, readingRhPercent: 77.4, checkedAt: new Date(t0 + 5 * H), apply: true, notes: "" } });
     expect(check.referenceRhPercent).toBeCloseTo(75.3, 2);
     expect(check.offsetRhPercent).toBeCloseTo(2.1, 2);

@@ -55,7 +55,7 @@ describe("define a chamber", () => {
   it("refuses a temperature outside the salt's fit range with a field error naming the range, and stores nothing", async () => {
     const r = await create(lab.as("researcher"), nacl("NaCl jar too hot", "95"));
     expect(r.ok).toBe(false);
-    // Greenspan 1977 NaCl fit range 0–80 °C (REFERENCES.md §1, recalled)
+    // Greenspan 1977 NaCl fit range 0–80 °C (recalled)
     expect(r.errors?.nominalTempC?.join(" ")).toMatch(/0–80 °C/);
     expect(r.values?.nominalTempC).toBe("95");
     expect(await countByName(lab.labId, "NaCl jar too hot")).toBe(0);
@@ -99,7 +99,7 @@ describe("define a chamber", () => {
       return { data: await updateChamber({ labId: ctx.labId, userId: ctx.userId, chamberId, values }) };
     });
     expect(r.ok).toBe(true);
-    // Greenspan 1977 NaCl at 30 °C: 75.09 %RH (REFERENCES.md §1 table)
+    // Greenspan 1977 NaCl at 30 °C: 75.09 %RH, Table 1
     expect((r.data as { setpointRhPercent: number }).setpointRhPercent).toBeCloseTo(75.1, 5);
     const [ev] = await db.select().from(auditEvents).where(and(eq(auditEvents.entityId, mine.id), eq(auditEvents.action, "update")));
     expect((ev.before as { nominalTempC: number }).nominalTempC).toBe(20);

@@ -50,7 +50,7 @@ describe("desiccant upkeep", () => {
     const status = desiccantStatus(c, await listDesiccantEvents({ labId: lab.labId, chamberId: c.id }));
     expect(status.budget).not.toBeNull();
     // Budget arithmetic (lib/humidity/desiccant): 1 exchange/day of a 2 L jar brings (ρv(21 °C, 50 %) − ρv(21 °C, 2 %)) ≈ 8.8 g/m³ → ≈17.6 mg/day;
-    // sieve 4A ≈ 0.185 g/g at 2 %RH (REFERENCES.md §3, from memory) × 100 g ≈ 18.5 g → about 1050 days.
+    // sieve 4A ≈ 0.185 g/g at 2 %RH (manufacturers' isotherms, from memory) × 100 g ≈ 18.5 g → about 1050 days.
     expect(status.budget!.daysUntilSpent!).toBeGreaterThan(900);
     expect(status.budget!.daysUntilSpent!).toBeLessThan(1200);
     expect(status.exhaustionAt!.getTime()).toBeCloseTo(at.getTime() + status.budget!.daysUntilSpent! * DAY, -3);

@@ -50,7 +50,7 @@ describe("saving a score", () => {
   it("computes ASTM D610 and ISO 4628-3 grades and writes marks, score and audit events together", async () => {
     const r = await saveScoreAction.withIdentity(lab.as("technician"), input());
     expect(r.ok).toBe(true);
-    // ASTM D610 Table 1: 1 % is the upper bound of grade 6 (REFERENCES.md §4); ISO 4628-3: Ri 3 = 1 %.
+    // ASTM D610 Table 1: 1 % is the upper bound of grade 6; ISO 4628-3: Ri 3 = 1 %.
     expect(r.message).toContain("ASTM D610 6-S");
     expect(r.message).toContain("Ri 3");
     const [score] = await db.select().from(s.scores).where(and(eq(s.scores.inspectionId, t.inspectionIds[1]), eq(s.scores.specimenId, t.specimenIds[0])));

@@ -9,23 +9,23 @@ import { absoluteHumidityGm3 } from "@/lib/humidity/psychrometrics";
 
 describe("desiccant references", () => {
   it("lets molecular sieve 4A hold a jar at or below 2 %RH", () => {
-    // common practice, no published source (REFERENCES.md §3, from memory: below 1–2 %RH)
+    // common practice, no published source (from memory: below 1–2 %RH)
     expect(DESICCANTS["molecular-sieve-4a"].lowestRhPercent).not.toBeNull();
     expect(DESICCANTS["molecular-sieve-4a"].lowestRhPercent as number).toBeLessThanOrEqual(2);
   });
 
   it("uses the recalled capacity figures", () => {
-    // REFERENCES.md §3, from memory: sieve 4A ≈0.20 g/g, nearly flat with RH
+    // Manufacturers' isotherms and datasheets, from memory: sieve 4A ≈0.20 g/g, nearly flat with RH
     expect(desiccantCapacityGPerG("molecular-sieve-4a", 20)).toBeGreaterThanOrEqual(0.18);
     expect(desiccantCapacityGPerG("molecular-sieve-4a", 20)).toBeLessThanOrEqual(0.22);
-    // REFERENCES.md §3, from memory: silica gel ≈0.05 at 10 %RH, 0.10–0.12 at 20 %, 0.20–0.27 at 40–50 %, 0.35 near saturation
+    // Manufacturers' isotherms and datasheets, from memory: silica gel ≈0.05 at 10 %RH, 0.10–0.12 at 20 %, 0.20–0.27 at 40–50 %, 0.35 near saturation
     expect(desiccantCapacityGPerG("silica-gel", 10)).toBeCloseTo(0.05, 2);
     expect(desiccantCapacityGPerG("silica-gel", 20)).toBeGreaterThanOrEqual(0.1);
     expect(desiccantCapacityGPerG("silica-gel", 20)).toBeLessThanOrEqual(0.12);
     expect(desiccantCapacityGPerG("silica-gel", 45)).toBeGreaterThanOrEqual(0.2);
     expect(desiccantCapacityGPerG("silica-gel", 45)).toBeLessThanOrEqual(0.27);
     expect(desiccantCapacityGPerG("silica-gel", 95)).toBeCloseTo(0.35, 2);
-    // REFERENCES.md §3, from memory: regeneration 200–315 °C (sieve), 110–150 °C (gel)
+    // Manufacturers' isotherms and datasheets, from memory: regeneration 200–315 °C (sieve), 110–150 °C (gel)
     expect(DESICCANTS["molecular-sieve-4a"].regenerationC).toEqual([200, 315]);
     expect(DESICCANTS["silica-gel"].regenerationC).toEqual([110, 150]);
     expect(desiccantCapacityGPerG("other", 30)).toBeNull();
@@ -34,7 +34,7 @@ describe("desiccant references", () => {
 
 describe("desiccantBudget", () => {
   it("shows that the air in a 1 L jar at 25 °C and 75 %RH holds only about 17 mg of water", () => {
-    // REFERENCES.md §3 [practice]: a sealed 1 L jar at 25 °C and 75 %RH holds ~17 mg of vapour
+    // trade practice, checked by the ideal-gas law: a sealed 1 L jar at 25 °C and 75 %RH holds ~17 mg of vapour
     const mg = absoluteHumidityGm3(25, 75) * 1e-3 * 1000;
     expect(Math.abs(mg - 17)).toBeLessThan(1);
     const budget = desiccantBudget({

@@ -58,7 +58,7 @@ describe("saturationVaporPressureHpa", () => {
 
 describe("dew and frost point", () => {
   it("match the dew-point table values", () => {
-    // REFERENCES.md §2 [lib: psychrolib and Sonntag agree within 0.01 °C]
+    // psychrolib (npm) and Sonntag 1990 agree within 0.01 °C
     expect(dewPointC(25, 50)).toBeCloseTo(13.86, 1);
     expect(dewPointC(20, 90)).toBeCloseTo(18.31, 1);
     expect(dewPointC(25, 80)).toBeCloseTo(21.31, 1);
@@ -130,7 +130,7 @@ describe("absoluteHumidityGm3", () => {
   it("gives the saturation vapour density", () => {
     // OpenStax College Physics, Table 13.5: 23.0 g/m³ at 25 °C
     expect(absoluteHumidityGm3(25, 100)).toBeCloseTo(23.0, 1);
-    // REFERENCES.md §2, computed from ASHRAE e_s with R_v = 461.5: 23.03 at 25 °C, 17.29 at 20 °C (±0.01)
+    // Computed from ASHRAE e_s with R_v = 461.5: 23.03 at 25 °C, 17.29 at 20 °C (±0.01)
     expect(Math.abs(absoluteHumidityGm3(25, 100) - 23.03)).toBeLessThanOrEqual(0.01);
     expect(Math.abs(absoluteHumidityGm3(20, 100) - 17.29)).toBeLessThanOrEqual(0.01);
     expect(absoluteHumidityGm3(20, 0)).toBe(0);

@@ -3,7 +3,7 @@ import { SALT_IDS, SALTS, saltEquilibriumRh, saltRhCurve, type SaltId } from "@/
 import { applyOffset, hygrometerOffset } from "@/lib/climate/hygrometer-check";
 import { hazardNoteLines, hazardNotes, SDS_DEFERRAL } from "@/lib/humidity/hazards";
 
-// Greenspan 1977 fit, values at 10/20/25/30 °C as listed in REFERENCES.md §1 (computed from the fit).
+// Greenspan 1977 fit, values at 10/20/25/30 °C (computed from the fit).
 const FIT_VALUES: Record<SaltId, [number, number, number, number]> = {
   LiCl: [11.29, 11.31, 11.3, 11.29],
   CH3COOK: [23.39, 23.12, 22.52, 21.62],
@@ -16,7 +16,7 @@ const FIT_VALUES: Record<SaltId, [number, number, number, number]> = {
   K2SO4: [98.19, 97.6, 97.3, 97.01],
 };
 
-// Greenspan 1977, Table 1 at 25 °C with its uncertainty — from memory (REFERENCES.md §1 [mem]).
+// Greenspan 1977, Table 1 at 25 °C with its uncertainty — from memory.
 const TABLE_25C: Record<SaltId, [number, number]> = {
   LiCl: [11.3, 0.27],
   CH3COOK: [22.51, 0.32],
@@ -29,7 +29,7 @@ const TABLE_25C: Record<SaltId, [number, number]> = {
   K2SO4: [97.3, 0.45],
 };
 
-// Fit ranges, from memory (REFERENCES.md §1 [mem]).
+// Greenspan 1977 fit ranges, from memory.
 const RANGES: Record<SaltId, [number, number]> = {
   LiCl: [0, 100],
   CH3COOK: [5, 30],
@@ -46,7 +46,7 @@ describe("saltEquilibriumRh", () => {
   for (const salt of SALT_IDS) {
     it(`${salt} reproduces the fit values at 10, 20, 25 and 30 °C`, () => {
       [10, 20, 25, 30].forEach((tempC, i) => {
-        // Greenspan 1977 fit (REFERENCES.md §1), ±0.05 %RH
+        // Greenspan 1977 fit, ±0.05 %RH
         expect(Math.abs(saltEquilibriumRh(salt, tempC).rhPercent - FIT_VALUES[salt][i])).toBeLessThanOrEqual(0.05);
       });
     });
@@ -94,7 +94,7 @@ describe("saltEquilibriumRh", () => {
       expect(SALTS[id].id).toBe(id);
       expect(SALTS[id].source).toMatch(/Greenspan 1977/);
     }
-    // REFERENCES.md §6: LiCl H302 H315 H319; Mg(NO3)2 H272 H319
+    // GHS classifications from suppliers' SDS, from memory: LiCl H302 H315 H319; Mg(NO3)2 H272 H319
     expect(SALTS.LiCl.ghs.map((s) => s.code)).toEqual(["H302", "H315", "H319"]);
     expect(SALTS["Mg(NO3)2"].ghs.map((s) => s.code)).toEqual(["H272", "H319"]);
     expect(SALTS.NaCl.ghs).toEqual([]);
@@ -133,7 +133,7 @@ describe("hygrometerOffset", () => {
 describe("hazardNotes", () => {
   it("lists a salt's GHS statements with their standard wording and ends with the SDS deferral", () => {
     const notes = hazardNotes({ kind: "saturated-salt", salt: "K2CO3" });
-    // REFERENCES.md §6: K2CO3 H315 H319 H335; texts are the standard GHS statements
+    // GHS classifications from suppliers' SDS, from memory: K2CO3 H315 H319 H335; texts are the standard GHS statements
     expect(notes.ghs).toEqual([
       { code: "H315", text: "Causes skin irritation" },
       { code: "H319", text: "Causes serious eye irritation" },
@@ -155,11 +155,11 @@ describe("hazardNotes", () => {
     const sieve = hazardNotes({ kind: "desiccant", desiccant: "molecular-sieve-4a" }).cautions.join(" ");
     expect(sieve).toMatch(/warms strongly/);
     expect(sieve).toMatch(/hot enough to burn/);
-    // REFERENCES.md §6 [mem]: cobalt chloride indicating gel H350i H360F H341 H334 H317
+    // suppliers' SDS, from memory: cobalt chloride indicating gel H350i H360F H341 H334 H317
     const cobalt = hazardNotes({ kind: "desiccant", desiccant: "silica-gel", cobaltIndicator: true });
     expect(cobalt.ghs.map((s) => s.code)).toEqual(["H350i", "H360F", "H341", "H334", "H317"]);
     expect(cobalt.cautions.join(" ")).toMatch(/cobalt-free/);
-    // REFERENCES.md §1 [practice]: pure water approaches 100 %RH, real jars ~90–100 %
+    // trade practice: pure water approaches 100 %RH, real jars ~90–100 %
     expect(hazardNotes({ kind: "water" }).cautions.join(" ")).toMatch(/approaches 100 %RH.*~90–100 %/);
     for (const kind of ["open-shelf", "other"] as const) expect(hazardNotes({ kind }).deferral).toBe(SDS_DEFERRAL);
   });

@@ -10,7 +10,7 @@ import {
 
 describe("astmD610Grade", () => {
   // Each row: [area %, expected grade]. A value on a boundary takes the better grade; just above
-  // it takes the next one down. ASTM D610 Table 1 (via REFERENCES.md §4).
+  // it takes the next one down. ASTM D610 Table 1.
   const boundaries: Array<[number, number]> = [
     [0, 10], // ASTM D610 Table 1
     [0.01, 10], // ASTM D610 Table 1: 10 is ≤ 0.01 %

@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { blandAltman, cohensKappa, cohensKappaFromTable } from "@/lib/stats/agreement";
 
-// Husband × wife ratings (Agresti, Categorical Data Analysis), REFERENCES.md §7
+// Husband × wife ratings (Agresti, Categorical Data Analysis)
 const husbandWife = [
   [7, 7, 2, 3],
   [2, 8, 3, 7],

@@ -12,10 +12,10 @@ function parse(list: string): SurvivalObservation[] {
   });
 }
 
-// R survival 3.5, aml (REFERENCES.md §7)
+// R survival 3.5, aml
 const amlMaintained = parse("9, 13, 13+, 18, 23, 28+, 31, 34, 45+, 48, 161+");
 const amlNonmaintained = parse("5, 5, 8, 8, 12, 16+, 23, 27, 30, 33, 43, 45");
-// Freireich 6-MP data, Gehan 1965 / R MASS gehan (REFERENCES.md §7)
+// Freireich 6-MP data, Gehan 1965 / R MASS gehan
 const sixMp = parse("6, 6, 6, 6+, 7, 9+, 10, 10+, 11+, 13, 16, 17+, 19+, 20+, 22, 23, 25+, 32+, 32+, 34+, 35+");
 const control = parse("1, 1, 2, 2, 3, 4, 4, 5, 5, 8, 8, 8, 8, 11, 11, 12, 12, 15, 17, 22, 23");
 
@@ -126,7 +126,7 @@ describe("logRank", () => {
   });
 });
 
-// Nelson (1990) microprocessor data as (L, R] × count (REFERENCES.md §7)
+// Nelson (1990) microprocessor data as (L, R] × count
 const I = Infinity;
 const nelson = (
   [
