@@ -7,8 +7,9 @@ import { db } from "@/db/client";
 import { inspections, photos, placements, scores, specimens, trialArms, trials } from "@/db/schema";
 import type { Role } from "@/lib/auth/permissions";
 import { referenceTime, toPhotoView, type PhotoView, type RecordScore } from "./photos";
+import { AppError } from "@/lib/auth/errors";
 import { photoInListForViewer } from "@/lib/trials/access";
-import { blindTrialIds } from "./trial-access";
+import { blindTrialIds, getTrialAccess } from "./trial-access";
 
 type InspectionRow = typeof inspections.$inferSelect;
 export type InspectionLite = { id: string; dayNumber: number; plannedAt: string; doneAt: string | null };
@@ -72,13 +73,17 @@ export async function getSpecimenTimeline({ labId, specimenId, userId, role }: {
 export type GridCell = { specimen: { id: string; label: string; materialClass: string }; armLabel: string | null; photos: PhotoView[]; score: RecordScore | null };
 
 export async function getTrialGrid({ labId, trialId, inspectionId, userId, role }: { labId: string; trialId: string; inspectionId?: string; userId: string; role: Role }) {
-  if (!/^[0-9a-f-]{36}$/i.test(trialId)) return null;
-  const [trial] = await db.select().from(trials).where(and(eq(trials.id, trialId), eq(trials.labId, labId)));
-  if (!trial) return null;
+  // The one loader and view rule: another lab's or a malformed id is "no grid".
+  const found = await getTrialAccess({ labId, trialId, userId }).catch((err) => {
+    if (err instanceof AppError && err.code === "not-found") return null;
+    throw err;
+  });
+  if (!found) return null;
+  const { trial, access } = found;
   const all = await db.select().from(inspections).where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId))).orderBy(asc(inspections.plannedAt));
   const lastDone = [...all].reverse().find((i) => i.doneAt);
   const chosen = all.find((i) => i.id === inspectionId) ?? lastDone ?? all[0] ?? null;
-  const isBlind = (await blindTrialIds({ labId, userId })).has(trialId);
+  const isBlind = access.blind;
   const base = { trial: { id: trial.id, title: trial.title, status: trial.status }, inspections: all.map(lite), blind: isBlind };
   if (!chosen) return { ...base, inspection: null, cells: [] as GridCell[] };
   const ref = referenceTime(chosen);
