@@ -19,7 +19,7 @@ export default async function TrialLayout({ children, params }: { children: Reac
         <span className="muted">
           {trial.status === "draft" && "not started"}
           {trial.status === "running" && trial.startedAt && `started ${formatDate(trial.startedAt)}`}
-          {trial.status === "concluded" && trial.concludedAt && `concluded ${formatDate(trial.concludedAt)}; only notes can be added`}
+          {access.locked && trial.concludedAt && `concluded ${formatDate(trial.concludedAt)}; only notes can be added`}
         </span>
         {access.blind && <span className="text-xs rounded-full border border-[var(--line)] px-2 py-0.5">you score blind: arms and results hidden until it is concluded</span>}
       </div>

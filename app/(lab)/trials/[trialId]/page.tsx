@@ -27,7 +27,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
     listArms({ labId: ctx.labId, trialId }), listTrialMembers({ labId: ctx.labId, trialId }), listTrialNotes({ labId: ctx.labId, trialId }),
     listTrialInspections({ labId: ctx.labId, trialId }), hasAllocation({ labId: ctx.labId, trialId }), listPeopleChoices({ labId: ctx.labId }),
   ]);
-  const open = trial.status !== "concluded";
+  const open = !access.locked;
   const design = can(ctx.role, "trials.write");
   const team = teamRights(ctx.role);
   const technicians = members.filter((m) => m.role === "technician");
@@ -106,7 +106,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
           <ConcludeForm trialId={trial.id} />
         </section>
       )}
-      {trial.status === "concluded" && <p className="text-sm rounded-md px-3 py-2 bg-iron-100 text-iron-800">Concluded {trial.concludedAt ? formatDateTime(trial.concludedAt) : ""}. The record is locked: design, allocation, placements, inspections, photos and scores no longer change. Notes can still be appended.</p>}
+      {access.locked && <p className="text-sm rounded-md px-3 py-2 bg-iron-100 text-iron-800">Concluded {trial.concludedAt ? formatDateTime(trial.concludedAt) : ""}. The record is locked: design, allocation, placements, inspections, photos and scores no longer change. Notes can still be appended.</p>}
       <p className="text-xs muted max-w-3xl">Trial results guide storage decisions; they do not replace a conservator&apos;s judgement of each object.</p>
     </div>
   );

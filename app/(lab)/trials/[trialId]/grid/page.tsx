@@ -21,14 +21,14 @@ function groupCells(cells: GridCell[], byArm: boolean): [string, GridCell[]][] {
 export default async function TrialGridPage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const { trialId } = await params;
   const sp = await searchParams;
-  const { ctx } = await trialPage("/trials/[trialId]/grid", trialId);
+  const { ctx, access } = await trialPage("/trials/[trialId]/grid", trialId);
   const grid = await getTrialGrid({ labId: ctx.labId, trialId, inspectionId: sp.inspection, userId: ctx.userId, role: ctx.role });
   if (!grid) notFound();
   const { trial, inspection, cells } = grid;
   const idx = inspection ? grid.inspections.findIndex((i) => i.id === inspection.id) : -1;
   const prev = idx > 0 ? grid.inspections[idx - 1] : null;
   const next = idx >= 0 && idx < grid.inspections.length - 1 ? grid.inspections[idx + 1] : null;
-  const mayUpload = can(ctx.role, "photos.upload") && trial.status !== "concluded";
+  const mayUpload = can(ctx.role, "photos.upload") && !access.locked;
   const day = (i: { dayNumber: number; plannedAt: string; doneAt: string | null }) => `Day ${i.dayNumber} · ${formatDate(i.doneAt ?? i.plannedAt)}${i.doneAt ? "" : " (not done)"}`;
 
   return (

@@ -28,7 +28,7 @@ const PRINT_CSS = `
 }`;
 
 export default async function ReportPage(props: AnalysisPageProps) {
-  const { ctx, q, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
+  const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const generated = new Date();
 
   return (
@@ -48,7 +48,7 @@ export default async function ReportPage(props: AnalysisPageProps) {
           {analysis.doneInspections} inspections done; {analysis.recordScores} scores of record. Grouped by {c?.groupByLabel.toLowerCase() ?? "treatment"}.
         </p>
         <p className="text-sm">
-          {trial.status === "concluded" && trial.concludedAt
+          {access.locked && trial.concludedAt
             ? `Scoring ended when the trial was concluded on ${formatDateTime(trial.concludedAt)}; the record was locked and unblinded for every scorer then.`
             : "The trial is still open: scores may change, and blind scorers do not see this report until it is concluded."}
         </p>

@@ -14,7 +14,7 @@ export const metadata = { title: "Scoring queue" };
 
 export default async function ScoringQueuePage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const { trialId } = await params;
-  const { ctx, trial } = await trialPage("/trials/[trialId]/scoring", trialId);
+  const { ctx, trial, access } = await trialPage("/trials/[trialId]/scoring", trialId);
   const sp = await searchParams;
   const q = queueQuerySchema.safeParse({ trialId, page: sp.page, show: sp.show });
   const { page, show } = q.success ? q.data : { page: 1, show: "todo" as const };
@@ -96,12 +96,12 @@ export default async function ScoringQueuePage({ params, searchParams }: { param
                 <tbody>{scorers.map((s) => <ScorerRow key={s.userId} trialId={trialId} scorer={s} isPrimary={s.userId === trial.primaryScorerId} />)}</tbody>
               </table>
             )}
-            {trial.status !== "concluded" && <AssignScorerForm trialId={trialId} candidates={staff.filter((m) => !scorers.some((s) => s.userId === m.userId))} />}
+            {!access.locked && <AssignScorerForm trialId={trialId} candidates={staff.filter((m) => !scorers.some((s) => s.userId === m.userId))} />}
           </section>
           <section className="panel p-4 space-y-3" aria-labelledby="rule-h">
             <h2 id="rule-h" className="font-semibold">Score of record</h2>
             <p className="text-sm muted">Analysis uses one score per specimen and inspection. Changing the rule re-derives it for every score already made.</p>
-            {trial.status === "concluded" ? <p className="text-sm">The trial is concluded; the rule is fixed.</p>
+            {access.locked ? <p className="text-sm">The trial is concluded; the rule is fixed.</p>
               : <ScoreRuleForm trialId={trialId} rule={trial.scoreRule} primaryScorerId={trial.primaryScorerId} members={staff.filter((m) => scorers.some((s) => s.userId === m.userId))} />}
           </section>
         </div>

@@ -75,7 +75,7 @@ export default async function InspectionPage({ params }: { params: Promise<{ tri
           {can(ctx.role, "inspections.reschedule") && <section className="panel p-4 space-y-3" aria-labelledby="res-h"><h2 id="res-h" className="font-semibold">Reschedule</h2><RescheduleForm inspectionId={insp.id} plannedAt={insp.plannedAt.toISOString()} /></section>}
         </div>
       )}
-      {trial.status === "concluded" && <p className="text-sm muted">The trial is concluded; this inspection can no longer change.</p>}
+      {access.locked && <p className="text-sm muted">The trial is concluded; this inspection can no longer change.</p>}
     </div>
   );
 }

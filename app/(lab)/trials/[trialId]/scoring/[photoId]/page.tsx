@@ -24,7 +24,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
     redirect(`/trials/${trialId}/inspections/${photo.inspectionId}/score/${photo.specimenId}?photo=${photo.id}`);
   }
   const view = await getBlindPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, photoId }).catch(orNotFound);
-  const canScore = can(ctx.role, "scores.write") && trial.status !== "concluded";
+  const canScore = can(ctx.role, "scores.write") && !access.locked;
 
   return (
     <div className="space-y-4">
@@ -36,7 +36,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
         {view.nextPhotoId && <Link className="link text-sm" href={`/trials/${trialId}/scoring/${view.nextPhotoId}`}>Next photo to score</Link>}
       </div>
       <p className="text-sm muted">Specimen, treatment, chamber, day and earlier scores are hidden on purpose. Score only what the photo shows.</p>
-      {trial.status === "concluded" && <p role="note" className="text-sm">This trial is concluded: scores are locked.</p>}
+      {access.locked && <p role="note" className="text-sm">This trial is concluded: scores are locked.</p>}
       {view.mine && (
         <section className="panel p-3 text-sm" aria-labelledby="saved-h">
           <h2 id="saved-h" className="font-semibold">Your saved score</h2>

@@ -28,7 +28,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
     listInspectionPhotos({ labId: ctx.labId, inspectionId: inspection.id, role: ctx.role, reference: ref }).then((rows) => rows.map((p) => photoInListForViewer(p, access))),
   ]);
   const mayUpload = can(ctx.role, "photos.upload");
-  const locked = trial.status === "concluded";
+  const locked = access.locked;
   const withPhoto = new Set(recorded.map((p) => p.specimenId));
   const missing = specimens.filter((s) => !withPhoto.has(s.id));
   const base = `/trials/${trial.id}`;

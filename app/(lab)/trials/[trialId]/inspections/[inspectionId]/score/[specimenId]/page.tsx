@@ -27,7 +27,7 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   if (data.access.blind) redirect(data.photo ? `/trials/${trialId}/scoring/${data.photo.id}` : `/trials/${trialId}/scoring`);
 
   const { trial, inspection, specimen, placement, mine, record, previous } = data;
-  const concluded = trial.status === "concluded";
+  const concluded = data.access.locked;
   const canScore = can(ctx.role, "scores.write") && !concluded;
   const shown = canScore ? mine : record?.score ?? null;
   const base = `/trials/${trialId}/inspections/${inspectionId}/score`;
