@@ -2,8 +2,12 @@
 // The trial's sub-navigation. Photos grid, Scoring, Agreement, Compare and Report are their own pages.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
+import { PAGE_ROUTES, type PageRule } from "@/lib/auth/page-routes";
 
-const RESULT_TABS = new Set(["agreement", "compare", "report"]);
+// Tabs whose pages show results, as marked in the one page map (hidden from blind scorers).
+const RESULT_TABS = new Set(Object.entries(PAGE_ROUTES as Record<string, PageRule>)
+  .filter(([route, rule]) => rule.results && /^\/trials\/\[trialId\]\/[a-z-]+$/.test(route))
+  .map(([route]) => route.split("/").pop()!));
 const TABS = [
   { seg: "", label: "Overview" },
   { seg: "allocation", label: "Allocation" },
