@@ -10,6 +10,7 @@ import {
 } from "@/experiments/demo-lab";
 import { recordAudit } from "./audit";
 import { closeDb, db } from "./client";
+import { seedLadder } from "./seed-ladder";
 import { seedDemoPhotos } from "./seed-photos";
 import * as s from "./schema";
 
@@ -134,6 +135,7 @@ async function main() {
       { labId: lab.id, chamberId: chambers.sieve, kind: "charged", at: new Date(start.getTime() - DAY), massG: 150, notes: "Fresh sieve, regenerated at 250 °C for 4 h and cooled in a sealed tin.", createdBy: users.technician },
       { labId: lab.id, chamberId: chambers.sieve, kind: "checked", at: new Date(start.getTime() + 28 * DAY), massG: 152.4, notes: "Weighed: +2.4 g taken up.", createdBy: users.technician },
     ]);
+    await seedLadder(tx, { labId: lab.id, users, treatments, now });
     await recordAudit(tx, { labId: lab.id, userId: users.lead, entity: "lab", entityId: lab.id, action: "create", summary: "Demo scenario loaded", after: { specimens: specimenRows.length, inspections: inspectionRows.length } });
     return { labId: lab.id, trialId: trial.id, technicianId: users.technician, start };
   });

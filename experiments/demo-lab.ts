@@ -124,3 +124,77 @@ export function demoReading(chamber: DemoChamber, hoursSinceStart: number, openi
   const tempC = chamber.nominalTempC + Math.sin((hoursSinceStart / 24) * 2 * Math.PI) * 0.6 + randomNormal(rng) * 0.1;
   return { rhPercent: Math.max(0.5, Math.min(100, Math.round(rh * 10) / 10)), tempC: Math.round(tempC * 100) / 100 };
 }
+
+// A second, finished trial: bare and waxed slices at five humidity levels, two jars per level, so the
+// humidity response and a storage threshold have data. Invented, like everything here.
+export type LadderChamber = DemoChamber & { level: number };
+
+const ladderSalts = [
+  { saltId: "LiCl", level: 1 },
+  { saltId: "MgCl2", level: 2 },
+  { saltId: "Mg(NO3)2", level: 3 },
+  { saltId: "NaCl", level: 4 },
+  { saltId: "KCl", level: 5 },
+] as const;
+
+/** Setpoints come from the salt tables at 21 °C by the caller (lib/humidity/salts). */
+export function ladderChambers(setpointOf: (saltId: string) => number): LadderChamber[] {
+  return ladderSalts.flatMap(({ saltId, level }) => (["a", "b"] as const).map((jar) => ({
+    key: `ladder-${level}${jar}`,
+    name: `Ladder ${level}${jar.toUpperCase()} · saturated ${saltId}`,
+    kind: "saturated-salt" as const,
+    saltId: saltId as DemoChamber["saltId"],
+    nominalTempC: 21,
+    volumeL: 1,
+    setpointRhPercent: Math.round(setpointOf(saltId) * 10) / 10,
+    toleranceRhPercent: 2,
+    notes: "Humidity ladder jar: slurry in a dish, slices on a glass stand.",
+    level,
+  })));
+}
+
+export const ladderTreatmentKeys = ["control", "wax"] as const;
+
+export const ladderTrial = {
+  title: "Humidity ladder, bare and waxed slices, 2026",
+  question: "Below what storage humidity do cut iron and stony-iron slices stay free of rust for a decade, bare or waxed?",
+  hypothesis: "Time to first rust falls steeply between 50 and 75 %RH; wax shifts the curve but does not remove the need for dry storage.",
+  replicatesPerArm: 2,
+  allocationSeed: "tarrow-ladder-2026",
+  scheduleDays: [0, 7, 14, 28, 42, 56, 84, 112, 140, 168],
+  startedDaysAgo: 240,
+  concludedAfterDays: 170,
+};
+
+/** Ladder specimen labels and their material (every third is stony-iron). */
+export function ladderSpecimens(): DemoSpecimen[] {
+  const rng = createRng("tarrow-ladder-specimens");
+  return Array.from({ length: 40 }, (_, i) => {
+    const stony = i % 3 === 2;
+    const find = findNames[(i + 2) % findNames.length];
+    return {
+      label: `TV-L-${String(i + 1).padStart(3, "0")}`,
+      materialClass: stony ? "stony-iron" : "iron-meteorite",
+      findName: find,
+      face: stony ? "cut face, metal with olivine" : "cut face, etched",
+      surfacePrep: stony ? "cut, dry-polished" : "cut, polished, etched",
+      massG: Math.round((8 + rng() * 25) * 10) / 10,
+      history: `Thin slice from the ${find} mass, cut in 2025 for the humidity ladder.`,
+      contaminationNotes: "",
+    };
+  });
+}
+
+/**
+ * Onset of rust for a ladder specimen from an invented Weibull model of the kind the product fits:
+ * log T = 9.55 − 0.149·(RH − 35) + 1.0·waxed − 0.3·stony + 0.6·W, W standard minimum extreme value.
+ */
+export function ladderCourse(rhPercent: number, treatmentKey: string, materialClass: string, label: string): DemoSpecimenCourse {
+  const rng: Rng = createRng(`ladder-${label}`);
+  const mu = 9.55 - 0.149 * (rhPercent - 35) + (treatmentKey === "wax" ? 1.0 : 0) + (materialClass === "stony-iron" ? -0.3 : 0);
+  const w = Math.log(-Math.log(1 - rng()));
+  const onset = Math.exp(mu + 0.6 * w);
+  const growth = 0.02 * (1 + rng()) * (rhPercent > 80 ? 2.5 : rhPercent > 70 ? 1.6 : 0.6);
+  const weeping = rhPercent > 70 && rng() < 0.4 ? onset + 5 + rng() * 15 : null;
+  return { onsetDay: onset > 400 ? null : onset, growthPerDay: growth, weepingFromDay: weeping };
+}

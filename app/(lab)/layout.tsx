@@ -43,6 +43,7 @@ export default async function LabLayout({ children }: { children: React.ReactNod
     { href: "/specimens", label: "Specimens" },
     { href: "/treatments", label: "Treatments" },
     { href: "/analysis", label: "Analysis" },
+    { href: "/storage-rules", label: "Storage rules" },
     { href: "/audit", label: "Audit trail" },
     { href: "/settings", label: "Lab settings" },
     ...(process.env.DEMO_MODE === "1" && can(active.role as Role, pageRule("/mailbox").permission) ? [{ href: "/mailbox", label: "Demo mailbox" }] : []),

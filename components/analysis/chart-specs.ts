@@ -3,7 +3,7 @@ import type { VisualizationSpec } from "vega-embed";
 import type { CurveMethod, GroupResult } from "@/lib/analysis/result";
 
 // Our own categorical palette: verdigris, rust and iron first, then tones that stay apart in print.
-const PALETTE = [
+export const PALETTE = [
   "#1b7667", "#c95b1f", "#4a525c", "#6b4fa8", "#2f78b5", "#a8841f",
   "#8a3b5e", "#3faf99", "#e07638", "#8f98a3", "#4f8a2b", "#1f4468",
 ];
@@ -20,7 +20,7 @@ function colour(groups: readonly GroupResult[], legend = true) {
   };
 }
 
-const BASE = {
+export const BASE = {
   $schema: "https://vega.github.io/schema/vega-lite/v6.json",
   width: "container",
   height: 300,

@@ -1,5 +1,5 @@
 "use client";
-// The trial's sub-navigation. Photos grid, Scoring, Agreement, Compare and Report are their own pages.
+// The trial's sub-navigation. Photos grid, Scoring, Agreement, Compare, Humidity response and Report are their own pages.
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { PAGE_ROUTES, type PageRule } from "@/lib/auth/page-routes";
@@ -16,6 +16,7 @@ const TABS = [
   { seg: "scoring", label: "Scoring" },
   { seg: "agreement", label: "Agreement" },
   { seg: "compare", label: "Compare" },
+  { seg: "humidity", label: "Humidity response" },
   { seg: "report", label: "Report" },
 ];
 

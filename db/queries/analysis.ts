@@ -7,7 +7,7 @@ import type { Grouping } from "@/lib/analysis/groups";
 import { trialDataPackage } from "@/lib/export/trial-package";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
-import { chambers, inspections, photos, placements, readings, scores, specimens, treatments, trialArms, trials } from "../schema";
+import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
 
@@ -145,7 +145,7 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
   const specimenIds = [...new Set([...placementRows, ...photoRows, ...scoreRows].map((r) => r.specimenId))];
   const chamberIds = [...new Set(placementRows.map((p) => p.chamberId))];
   const treatmentIds = [...new Set(placementRows.map((p) => p.treatmentId))];
-  const [specimenRows, chamberRows, treatmentRows, readingRows] = await Promise.all([
+  const [specimenRows, chamberRows, treatmentRows, readingRows, storageRuleRows] = await Promise.all([
     db.select().from(specimens).where(and(eq(specimens.labId, labId), specimenIds.length ? inArray(specimens.id, specimenIds) : none)).orderBy(asc(specimens.label)),
     db.select().from(chambers).where(and(eq(chambers.labId, labId), chamberIds.length ? inArray(chambers.id, chamberIds) : none)).orderBy(asc(chambers.name)),
     db.select().from(treatments).where(and(eq(treatments.labId, labId), treatmentIds.length ? inArray(treatments.id, treatmentIds) : none)).orderBy(asc(treatments.name)),
@@ -153,8 +153,10 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
       ? db.select().from(readings).where(and(eq(readings.labId, labId), inArray(readings.chamberId, chamberIds),
         gte(readings.takenAt, trial.startedAt), lte(readings.takenAt, until))).orderBy(asc(readings.chamberId), asc(readings.takenAt))
       : Promise.resolve([] as (typeof readings.$inferSelect)[]),
+    db.select().from(storageRules).where(and(eq(storageRules.labId, labId), sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})`))
+      .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
   ]);
-  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows };
+  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows, storageRuleRows };
 }
 export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 

@@ -121,6 +121,48 @@ const toCandidate = (r: Row): Candidate => ({ t: r.takenAt.getTime(), rh: r.rhPe
 const byFrom = (a: OffsetInUse, b: OffsetInUse) => a.from.getTime() - b.from.getTime();
 
 /**
+ * A chamber's readings over [fromMs, toMs] as lib/climate sees them, with applied hygrometer offsets:
+ * every reading when there are few, else the block summaries plus the hours that cross a band edge.
+ */
+async function windowSeries(snap: Snapshot, { labId, chamberId, band, fromMs, toMs, maxPoints, allRowsLimit }: {
+  labId: string; chamberId: string; band: RhBand; fromMs: number | null; toMs: number | null; maxPoints: number; allRowsLimit: number;
+}) {
+  const key = { labId, chamberId };
+  const timeline = new OffsetTimeline(await loadAppliedChecks(snap, key));
+  const coarse = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(fromMs, COARSE_MS), toMs }] }));
+  const maxGapMinutes = gapLimitMinutes(coarse);
+  let total = 0;
+  for (const block of coarse) for (const b of block) total += b.n;
+
+  let series: readonly ClimateReading[], count: number, instruments: string[], offsets: OffsetInUse[], picked: Candidate[];
+  if (total <= allRowsLimit) {
+    const rows = await loadRows(snap, { ...key, ranges: [{ fromMs, toMs, toInclusive: true }] });
+    offsets = applyOffsets(rows, timeline);
+    series = rows;
+    count = rows.length;
+    instruments = [...new Set(rows.map((r) => r.instrument))];
+    picked = downsample(rows, maxPoints).map(toCandidate);
+  } else {
+    const red = await reduce(snap, { ...key, coarse, range: { fromMs, toMs }, band, timeline, maxGapMinutes, maxPoints });
+    ({ series, count, offsets, points: picked } = red);
+    instruments = [...red.instruments];
+  }
+  return { timeline, maxGapMinutes, series, count, instruments, offsets, picked };
+}
+
+/**
+ * What a chamber measured over one window (a specimen's placement): the same band statistics as the
+ * chamber page (time-weighted mean RH, time in band), from the same readings and offsets.
+ */
+export async function getChamberWindowStats({ labId, chamber, from, to }: { labId: string; chamber: Pick<Chamber, "id" | "setpointRhPercent" | "toleranceRhPercent">; from: Date; to: Date }) {
+  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  return withSnapshot(async (snap) => {
+    const w = await windowSeries(snap, { labId, chamberId: chamber.id, band, fromMs: from.getTime(), toMs: to.getTime(), maxPoints: 200, allRowsLimit: ALL_ROWS_LIMIT });
+    return { ...bandStats(w.series, band, { maxGapMinutes: w.maxGapMinutes }), readings: w.count };
+  });
+}
+
+/**
  * The chamber chart and its band statistics for a period, with applied hygrometer offsets from
  * each check on. Long periods are read from the block summaries plus the hours that cross a band
  * edge; the results equal lib/climate on every reading (tests/integration/chambers-climate-sql.test.ts).
@@ -135,25 +177,8 @@ export async function getChamberSeries({ labId, chamber, period, maxPoints = 160
   const key = { labId, chamberId: chamber.id };
 
   return withSnapshot(async (snap) => {
-    const timeline = new OffsetTimeline(await loadAppliedChecks(snap, key));
-    const coarse = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(fromMs, COARSE_MS), toMs: null }] }));
-    const maxGapMinutes = gapLimitMinutes(coarse);
-    let total = 0;
-    for (const block of coarse) for (const b of block) total += b.n;
-
-    let series: readonly ClimateReading[], count: number, instruments: string[], offsets: OffsetInUse[], picked: Candidate[];
-    if (total <= allRowsLimit) {
-      const rows = await loadRows(snap, { ...key, ranges: [{ fromMs, toMs: null, toInclusive: true }] });
-      offsets = applyOffsets(rows, timeline);
-      series = rows;
-      count = rows.length;
-      instruments = [...new Set(rows.map((r) => r.instrument))];
-      picked = downsample(rows, maxPoints).map(toCandidate);
-    } else {
-      const red = await reduce(snap, { ...key, coarse, range: { fromMs, toMs: null }, band, timeline, maxGapMinutes, maxPoints });
-      ({ series, count, offsets, points: picked } = red);
-      instruments = [...red.instruments];
-    }
+    const { timeline, maxGapMinutes, series, count, instruments, offsets, picked } =
+      await windowSeries(snap, { ...key, band, fromMs, toMs: null, maxPoints, allRowsLimit });
     const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, dewC: dewOf(c), instrument: c.instrument }));
     const stats = bandStats(series, band, { maxGapMinutes });
 

@@ -5,3 +5,4 @@ export * from "./chambers";
 export * from "./specimens";
 export * from "./trials";
 export * from "./photos";
+export * from "./storage-rules";

@@ -6,7 +6,7 @@ import { outcomeRows } from "./outcome-rows";
 import { buildPackageZip, type PackageTable } from "./package-zip";
 import { formatDateTime } from "./table-schema";
 import {
-  CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
+  CHAMBER_TABLE, INSPECTION_TABLE, OUTCOME_TABLE, PHOTO_TABLE, PLACEMENT_TABLE, READING_TABLE, SCORE_TABLE, SPECIMEN_TABLE, STORAGE_RULE_TABLE, TREATMENT_TABLE, TRIAL_TABLE,
 } from "./trial-tables";
 
 /** What the package needs of the trial row (the whole row goes into trial.csv). */
@@ -22,6 +22,8 @@ export type TrialExportRows = {
   photoRows: readonly object[];
   scoreRows: readonly object[];
   readingRows: readonly object[];
+  /** Storage rules accepted from the trial (every version). */
+  storageRuleRows?: readonly { sourceTrialIds: readonly string[] }[];
 };
 
 const packageReadme = (trial: PackagedTrial, created: Date) => `# ${trial.title}
@@ -60,12 +62,13 @@ export async function trialDataPackage({ trial, rows, outcomes, now }: { trial: 
     { spec: SCORE_TABLE, rows: rows.scoreRows },
     { spec: READING_TABLE, rows: rows.readingRows },
     { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes) },
+    { spec: STORAGE_RULE_TABLE, rows: (rows.storageRuleRows ?? []).map((r) => ({ ...r, sourceTrialIdsText: r.sourceTrialIds.join(" ") })) },
   ];
   const name = toPackageName(`rustline-${trial.title}`);
   const result = await buildPackageZip({
     name,
     title: trial.title,
-    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest and per-specimen outcomes.`,
+    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest, per-specimen outcomes and the storage rules accepted from the trial.`,
     created: now,
     keywords: ["corrosion", "relative humidity", "time to first rust", "interval-censored"],
     readme: packageReadme(trial, now),

@@ -127,3 +127,21 @@ export const OUTCOME_TABLE: TableSpec = {
     col("final_day", "number", "finalDay"), col("weeping_seen", "boolean", "weepingSeen"),
   ],
 };
+
+export const STORAGE_RULE_TABLE: TableSpec = {
+  name: "storage_rules", title: "Storage rules", description: "Storage rules the lab accepted from this trial's humidity response, every version (superseded ones have superseded_at).",
+  primaryKey: "id",
+  columns: [
+    id("id", "id"), col("version", "integer", "version"), col("material_class", "string", "materialClass"),
+    ref("treatment_id", "treatmentId"), col("treatment", "string", "treatmentName"),
+    col("threshold_rh_percent", "number", "thresholdRhPercent", { description: "Keep below this relative humidity, %RH." }),
+    col("lower95_rh_percent", "number", "lower95RhPercent", { description: "95 % lower limit, %RH; empty if not bounded." }),
+    col("upper95_rh_percent", "number", "upper95RhPercent", { description: "95 % upper limit, %RH; empty if not bounded." }),
+    col("share_rusted", "number", "shareRusted", { description: "Share of specimens rusted (0–1) the threshold is read at." }),
+    col("horizon_days", "number", "horizonDays", { description: "Storage horizon, days." }),
+    col("method", "string", "method"), col("statement", "string", "statement"),
+    col("source_trial_ids", "string", "sourceTrialIdsText", { description: "Trials the rule rests on: ids separated by spaces." }),
+    col("note", "string", "note"), ref("accepted_by", "acceptedBy", "Pseudonymous user id."), col("accepted_at", "datetime", "acceptedAt"),
+    col("superseded_at", "datetime", "supersededAt"),
+  ],
+};

@@ -1,3 +1,5 @@
+import Link from "next/link";
+import { humidityLevelCount, MIN_HUMIDITY_LEVELS } from "@/lib/analysis/humidity-response";
 import { analysisPage, type AnalysisPageProps } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
@@ -13,6 +15,7 @@ export const metadata = { title: "Compare outcomes" };
 export default async function ComparePage(props: AnalysisPageProps) {
   const { q, analysis, trial, c } = await analysisPage("/trials/[trialId]/compare", props);
   const base = `/trials/${trial.id}/compare`;
+  const levels = humidityLevelCount(analysis.outcomes.map((o) => o.chamberRhPercent));
 
   return (
     <div className="space-y-5">
@@ -31,6 +34,12 @@ export default async function ComparePage(props: AnalysisPageProps) {
         />
       ) : (
         <>
+          {levels >= MIN_HUMIDITY_LEVELS && (
+            <p className="text-sm panel p-3">
+              This trial spans {levels} humidity levels: the <Link className="link" href={`/trials/${trial.id}/humidity`}>humidity response</Link> fits
+              time to first rust against the humidity each jar measured and gives the storage threshold.
+            </p>
+          )}
           <CompareControls base={base} q={q} />
           <ExportLinks trialId={trial.id} q={q} />
           <SummaryPanel c={c} />

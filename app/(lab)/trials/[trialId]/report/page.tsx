@@ -9,6 +9,8 @@ import { OutcomeTable } from "@/components/analysis/outcome-table";
 import { PrintButton } from "@/components/analysis/print-button";
 import { SummaryPanel } from "@/components/analysis/summary-panel";
 import { SurvivalSection } from "@/components/analysis/survival-section";
+import { TrialRules } from "@/components/analysis/trial-rules";
+import { listStorageRules } from "@/db/queries/storage-rules";
 import { EmptyState } from "@/components/ui/empty-state";
 
 export const metadata = { title: "Trial report" };
@@ -30,6 +32,7 @@ const PRINT_CSS = `
 export default async function ReportPage(props: AnalysisPageProps) {
   const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const generated = new Date();
+  const rules = await listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id });
 
   return (
     <article className="report space-y-5 max-w-4xl mx-auto">
@@ -65,6 +68,11 @@ export default async function ReportPage(props: AnalysisPageProps) {
           <section className="panel p-4 space-y-2" aria-labelledby="specimens-h">
             <h2 id="specimens-h" className="font-semibold">Per-specimen outcomes</h2>
             <OutcomeTable outcomes={analysis.outcomes} />
+          </section>
+          <section className="panel p-4 space-y-2" aria-labelledby="rules-h">
+            <h2 id="rules-h" className="font-semibold">Storage rules from this trial</h2>
+            <TrialRules rules={rules} empty="No storage rule has been accepted from this trial." />
+            <p className="text-xs muted no-print"><Link className="link" href={`/trials/${trial.id}/humidity`}>Humidity response and thresholds</Link></p>
           </section>
           <MethodNotes />
           <ExportLinks trialId={trial.id} q={q} withReport={false} />

@@ -1,0 +1,75 @@
+import "server-only";
+import { and, asc, desc, eq, isNull, max, sql } from "drizzle-orm";
+import { AppError } from "@/lib/auth/errors";
+import { formatHorizon } from "@/lib/analysis/humidity-response";
+import { assertResultsVisible } from "@/lib/trials/access";
+import { responseOptions, type AcceptRuleInput } from "@/lib/validation/storage-rules";
+import { recordAudit } from "../audit";
+import { db } from "../client";
+import { storageRules, users } from "../schema";
+import { loadHumidityResponse } from "./humidity-response";
+import { assertAllowed, type Actor } from "./specimens";
+import { blindTrialIds, getTrialAccess } from "./trial-access";
+
+export type StorageRule = typeof storageRules.$inferSelect;
+
+export const RULE_METHOD =
+  "Interval-censored Weibull (accelerated failure time) fit of time to first rust against each jar's measured time-weighted mean RH, with material class, treatment and trial as covariates; 95 % limits where the pointwise delta-method band of the predicted time meets the horizon.";
+
+/**
+ * Accept the threshold of one material class and treatment as the lab's storage rule. The threshold
+ * is computed again here from the same data and choices (never taken from the form), and becomes a
+ * new version; the rule it replaces is kept, marked superseded.
+ */
+export async function acceptStorageRule({ actor, input }: { actor: Actor; input: AcceptRuleInput }) {
+  assertAllowed(actor, "storageRules.accept");
+  const { trial, access } = await getTrialAccess({ labId: actor.labId, trialId: input.trialId, userId: actor.userId });
+  assertResultsVisible(access);
+  const blind = await blindTrialIds(actor);
+  if (input.pool.some((id) => blind.has(id))) throw new AppError("forbidden", "One of the pooled trials is one you score blind.");
+  const options = responseOptions(input);
+  const { response, trials } = await loadHumidityResponse({ labId: actor.labId, trial, poolTrialIds: input.pool, options });
+  if (!response.fit) throw new AppError("invalid", response.reason ?? "The humidity response could not be fitted.");
+  const combo = response.combos.find((c) => c.materialClass === input.materialClass && c.treatmentId === input.treatmentId);
+  if (!combo) throw new AppError("invalid", "That material class and treatment are not in this analysis.", { materialClass: ["Not in this analysis."] });
+  const t = combo.threshold;
+  if (t.status !== "found" || t.rhPercent === null) throw new AppError("invalid", `No threshold to accept: ${combo.sentence}`);
+
+  return db.transaction(async (tx) => {
+    // One acceptance at a time per material and treatment: the version number and the current rule are decided under this lock.
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`storage-rule|${actor.labId}|${combo.materialClass}|${combo.treatmentName}`}))`);
+    const key = and(eq(storageRules.labId, actor.labId), eq(storageRules.materialClass, combo.materialClass), eq(storageRules.treatmentName, combo.treatmentName));
+    const [{ last }] = await tx.select({ last: max(storageRules.version) }).from(storageRules).where(key);
+    const [previous] = await tx.update(storageRules).set({ supersededAt: new Date() }).where(and(key, isNull(storageRules.supersededAt))).returning();
+    const [rule] = await tx.insert(storageRules).values({
+      labId: actor.labId, materialClass: combo.materialClass, treatmentId: combo.treatmentId, treatmentName: combo.treatmentName,
+      version: (last ?? 0) + 1, thresholdRhPercent: t.rhPercent!, lower95RhPercent: t.lower95, upper95RhPercent: t.upper95,
+      shareRusted: options.p, horizonDays: options.horizonDays, method: RULE_METHOD, statement: combo.sentence,
+      sourceTrialIds: trials.map((x) => x.id), note: input.note, acceptedBy: actor.userId,
+    }).returning();
+    if (previous) {
+      await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: previous.id, trialId: trial.id, action: "update", summary: `Storage rule version ${previous.version} superseded`, before: { supersededAt: null }, after: { supersededAt: rule.acceptedAt } });
+    }
+    await recordAudit(tx, {
+      labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: rule.id, trialId: trial.id, action: "create",
+      summary: `Storage rule accepted: ${combo.materialLabel}, ${combo.treatmentName} below ${Math.round(t.rhPercent!)} %RH (version ${rule.version}, ${formatHorizon(options.horizonDays)})`,
+      after: rule,
+    });
+    return rule;
+  });
+}
+
+/** Rules of the lab with who accepted them, current first; rules resting on a trial the viewer scores blind are withheld. */
+export async function listStorageRules({ labId, userId, trialId }: { labId: string; userId: string; trialId?: string }) {
+  const [rows, blind] = await Promise.all([
+    db.select({ rule: storageRules, acceptedByName: users.name }).from(storageRules)
+      .leftJoin(users, eq(users.id, storageRules.acceptedBy))
+      .where(and(eq(storageRules.labId, labId), trialId ? sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})` : undefined))
+      .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), desc(storageRules.version)),
+    blindTrialIds({ labId, userId }),
+  ]);
+  return rows
+    .filter((r) => !r.rule.sourceTrialIds.some((id) => blind.has(id)))
+    .map((r) => ({ ...r.rule, acceptedByName: r.acceptedByName, current: r.rule.supersededAt === null }));
+}
+export type StorageRuleView = Awaited<ReturnType<typeof listStorageRules>>[number];

@@ -1,0 +1,50 @@
+// The humidity response's choices (share rusted, horizon, pooled trials) and accepting a storage
+// rule: one schema each, for the page's URL, the form and the JSON API alike.
+import { z } from "zod";
+import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-response";
+
+const YEAR_DAYS = 365.25;
+
+const sharePercent = z.coerce.number({ error: "Enter the share of specimens rusted, in %." })
+  .min(1, "The share rusted must be at least 1 %.").max(50, "The share rusted must be at most 50 %.");
+const horizonYears = z.coerce.number({ error: "Enter the horizon in years." })
+  .min(0.1, "The horizon must be at least 0.1 years.").max(100, "The horizon must be at most 100 years.");
+const pool = z.preprocess(
+  (v) => (typeof v === "string" ? v.split(",").filter(Boolean) : v ?? []),
+  z.array(z.uuid({ error: "Pick trials from the list." })).max(10, "Pool at most 10 trials."),
+);
+
+export const responseQuerySchema = z.object({
+  share: sharePercent.default(DEFAULT_RESPONSE_OPTIONS.p * 100),
+  horizon: horizonYears.default(DEFAULT_RESPONSE_OPTIONS.horizonDays / YEAR_DAYS),
+  pool,
+});
+export type ResponseQuery = z.infer<typeof responseQuerySchema>;
+
+export function responseOptions(q: Pick<ResponseQuery, "share" | "horizon">): ResponseOptions {
+  return { p: q.share / 100, horizonDays: q.horizon * YEAR_DAYS };
+}
+
+/** For the page: a bad value falls back to its default (the form shows what was used). */
+export function responsePageQuery(raw: Record<string, string | string[] | undefined>): ResponseQuery {
+  const one = (k: string) => (typeof raw[k] === "string" && raw[k] !== "" ? raw[k] : undefined);
+  const out = responseQuerySchema.parse({});
+  const share = sharePercent.safeParse(one("share"));
+  if (share.success) out.share = share.data;
+  const horizon = horizonYears.safeParse(one("horizon"));
+  if (horizon.success) out.horizon = horizon.data;
+  const p = pool.safeParse(raw.pool === undefined ? [] : Array.isArray(raw.pool) ? raw.pool : one("pool"));
+  if (p.success) out.pool = p.data;
+  return out;
+}
+
+export const acceptRuleSchema = z.object({
+  trialId: z.uuid(),
+  materialClass: z.string().min(1, "Pick a material class.").max(60),
+  treatmentId: z.uuid({ error: "Pick a treatment." }),
+  share: sharePercent,
+  horizon: horizonYears,
+  pool,
+  note: z.string().trim().max(2000, "Keep the note under 2,000 characters.").default(""),
+});
+export type AcceptRuleInput = z.infer<typeof acceptRuleSchema>;
