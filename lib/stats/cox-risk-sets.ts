@@ -6,6 +6,9 @@
 
 export type TieMethod = "efron" | "breslow";
 
+/** Re-sum the risk set from its rows once the weight taken out exceeds this multiple of what remains. */
+const RESUM_RATIO = 1e4;
+
 /** Rows sorted by stratum, then by time from latest to earliest; covariates centred on their means. */
 export interface CoxData {
   n: number;
@@ -24,21 +27,21 @@ export interface CoxData {
 }
 
 export interface CoxInput {
-  time: ArrayLike<number>;
-  event: ArrayLike<boolean>;
+  time: Float64Array;
+  /** 1 for an event, 0 for a censored row. */
+  event: Uint8Array;
   /** Row-major n×p covariates in input order. */
-  x: ArrayLike<number>;
-  entry: ArrayLike<number> | null;
+  x: Float64Array;
+  entry: Float64Array | null;
   /** Stratum number per input row (0 … strata − 1). */
-  stratum: ArrayLike<number>;
+  stratum: Int32Array;
   p: number;
 }
 
 export function prepareCoxData(input: CoxInput): CoxData {
   const n = input.time.length;
   const p = input.p;
-  const order = Array.from({ length: n }, (_, i) => i);
-  order.sort((i, j) => input.stratum[i] - input.stratum[j] || input.time[j] - input.time[i] || i - j);
+  const order = orderByStratumThenLatest(input.stratum, input.time);
 
   const means = new Float64Array(p);
   for (let i = 0; i < n; i++) for (let k = 0; k < p; k++) means[k] += input.x[i * p + k];
@@ -53,22 +56,63 @@ export function prepareCoxData(input: CoxInput): CoxData {
     const i = order[r];
     for (let k = 0; k < p; k++) x[r * p + k] = input.x[i * p + k] - means[k];
     time[r] = input.time[i];
-    event[r] = input.event[i] ? 1 : 0;
+    event[r] = input.event[i];
     entry[r] = input.entry ? input.entry[i] : -Infinity;
     if (r === 0 || input.stratum[i] !== input.stratum[order[r - 1]]) strataList.push(r);
   }
   strataList.push(n);
 
-  const entryOrder = new Int32Array(n);
-  for (let r = 0; r < n; r++) entryOrder[r] = r;
+  let entryOrder: Int32Array;
   if (input.entry) {
     const sortedStratum = new Int32Array(n);
     for (let s = 0; s + 1 < strataList.length; s++) sortedStratum.fill(s, strataList[s], strataList[s + 1]);
-    const idx = Array.from(entryOrder);
-    idx.sort((a, b) => sortedStratum[a] - sortedStratum[b] || entry[b] - entry[a] || a - b);
-    entryOrder.set(idx);
+    entryOrder = orderByStratumThenLatest(sortedStratum, entry);
+  } else {
+    entryOrder = new Int32Array(n);
+    for (let r = 0; r < n; r++) entryOrder[r] = r;
   }
   return { n, p, x, time, event, entry, entryOrder, strataStart: Int32Array.from(strataList), hasEntry: input.entry !== null };
+}
+
+/**
+ * Indices ordered by stratum, then by value from largest to smallest, ties in index order. A comparator
+ * sort of 10,000 indices costs far more than the whole fit, so: rank the values with the engine's own
+ * numeric sort, then two stable counting passes (by rank, then by stratum).
+ */
+function orderByStratumThenLatest(stratum: Int32Array, value: Float64Array): Int32Array {
+  const n = value.length;
+  const sorted = Float64Array.from(value).sort();
+  let distinct = 0;
+  for (let i = 0; i < n; i++) if (i === 0 || sorted[i] !== sorted[i - 1]) sorted[distinct++] = sorted[i];
+  // Rank 0 is the largest value, so ascending ranks walk the values from latest to earliest.
+  const rank = new Int32Array(n);
+  for (let i = 0; i < n; i++) {
+    let lo = 0;
+    let hi = distinct - 1;
+    const v = value[i];
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if (sorted[mid] < v) lo = mid + 1;
+      else hi = mid;
+    }
+    rank[i] = distinct - 1 - lo;
+  }
+  let strata = 0;
+  for (let i = 0; i < n; i++) if (stratum[i] + 1 > strata) strata = stratum[i] + 1;
+  const identity = new Int32Array(n);
+  for (let i = 0; i < n; i++) identity[i] = i;
+  const byRank = countingSort(identity, rank, distinct);
+  return countingSort(byRank, stratum, strata);
+}
+
+/** Stable counting sort of `items` by key[item] ∈ [0, buckets). */
+function countingSort(items: Int32Array, key: Int32Array, buckets: number): Int32Array {
+  const start = new Int32Array(buckets + 1);
+  for (let i = 0; i < items.length; i++) start[key[items[i]] + 1]++;
+  for (let b = 0; b < buckets; b++) start[b + 1] += start[b];
+  const out = new Int32Array(items.length);
+  for (let i = 0; i < items.length; i++) out[start[key[items[i]]]++] = items[i];
+  return out;
 }
 
 /** Log partial likelihood, score vector U and information matrix I (full p×p) at one β. */
@@ -136,6 +180,7 @@ export class CoxEvaluator {
     let logLik = 0;
     let s0 = 0;
     let atRisk = 0;
+    let removed = 0; // weight subtracted since the sums were last built from scratch
     s1.fill(0);
     s2.fill(0);
     let leaving = start; // next row (in entry order) to leave the risk set
@@ -148,6 +193,7 @@ export class CoxEvaluator {
           const q = entryOrder[leaving++];
           const w = weight[q];
           s0 -= w;
+          removed += w;
           atRisk--;
           for (let k = 0; k < p; k++) {
             const wx = w * x[q * p + k];
@@ -155,42 +201,60 @@ export class CoxEvaluator {
             for (let l = 0; l <= k; l++) s2[k * p + l] -= wx * x[q * p + l];
           }
         }
-        // An emptied risk set restarts from exact zeros rather than from rounding residue.
-        if (atRisk === 0) {
+        // An emptied risk set restarts from exact zeros rather than from rounding residue; one that has
+        // shed far more weight than it keeps is summed again, as the subtractions' rounding error would
+        // otherwise be a visible part of what is left.
+        if (atRisk === 0 || removed > RESUM_RATIO * s0) {
           s0 = 0;
           s1.fill(0);
           s2.fill(0);
+          removed = 0;
+          for (let q = start; q < r && atRisk > 0; q++) {
+            if (!(entry[q] < t)) continue;
+            const w = weight[q];
+            s0 += w;
+            for (let k = 0; k < p; k++) {
+              const wx = w * x[q * p + k];
+              s1[k] += wx;
+              for (let l = 0; l <= k; l++) s2[k * p + l] += wx * x[q * p + l];
+            }
+          }
         }
       }
 
+      // Rows at t join the risk set; the events among them also go into the tied-event sums D.
       let deaths = 0;
       let dw0 = 0;
       for (; r < end && time[r] === t; r++) {
         const w = weight[r];
-        const isEvent = event[r] === 1;
+        const base = r * p;
         s0 += w;
         atRisk++;
-        if (isEvent) {
-          deaths++;
-          dw0 += w;
-          logLik += eta[r];
-          if (deaths === 1) {
-            d1.fill(0);
-            d2.fill(0);
+        if (event[r] === 0) {
+          for (let k = 0; k < p; k++) {
+            const wx = w * x[base + k];
+            s1[k] += wx;
+            for (let l = 0; l <= k; l++) s2[k * p + l] += wx * x[base + l];
           }
+          continue;
         }
+        if (deaths === 0) {
+          d1.fill(0);
+          d2.fill(0);
+        }
+        deaths++;
+        dw0 += w;
+        logLik += eta[r];
         for (let k = 0; k < p; k++) {
-          const xk = x[r * p + k];
+          const xk = x[base + k];
           const wx = w * xk;
           s1[k] += wx;
-          if (isEvent) {
-            score[k] += xk;
-            d1[k] += wx;
-          }
+          score[k] += xk;
+          d1[k] += wx;
           for (let l = 0; l <= k; l++) {
-            const term = wx * x[r * p + l];
+            const term = wx * x[base + l];
             s2[k * p + l] += term;
-            if (isEvent) d2[k * p + l] += term;
+            d2[k * p + l] += term;
           }
         }
       }

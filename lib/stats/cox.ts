@@ -121,6 +121,7 @@ export function coxRegression(rows: readonly CoxRow[], options: CoxOptions = {})
   const stratum = new Int32Array(n);
   const x = new Float64Array(n * p);
   const time = new Float64Array(n);
+  const event = new Uint8Array(n);
   const entry = anyEntry ? new Float64Array(n) : null;
   rows.forEach((row, i) => {
     const key = row.stratum ?? "";
@@ -128,6 +129,7 @@ export function coxRegression(rows: readonly CoxRow[], options: CoxOptions = {})
     if (id === undefined) strataIds.set(key, (id = strataIds.size));
     stratum[i] = id;
     time[i] = row.time;
+    event[i] = row.event ? 1 : 0;
     if (entry) entry[i] = row.entry ?? -Infinity;
     for (let k = 0; k < p; k++) x[i * p + k] = row.x[k];
   });
@@ -137,7 +139,7 @@ export function coxRegression(rows: readonly CoxRow[], options: CoxOptions = {})
     if (same) throw new RangeError(`coxRegression: column ${k + 1} has the same value in every row, so its effect cannot be estimated`);
   }
 
-  const data = prepareCoxData({ time, event: rows.map((r) => r.event), x, entry, stratum, p });
+  const data = prepareCoxData({ time, event, x, entry, stratum, p });
   const evaluator = new CoxEvaluator(data, ties);
   const factorOrThrow = (evaluation: CoxEvaluation): Float64Array => {
     const factor = Float64Array.from(evaluation.information);
