@@ -59,9 +59,10 @@ const DEFAULT_MAX_ITERATIONS = 20;
 
 function collinearMessage(column: number): string {
   const c = column + 1;
+  const before = c === 2 ? "column 1" : `columns 1–${c - 1}`;
   return c === 1
-    ? "coxRegression: the covariates cannot be told apart: column 1 carries no information (the same value for everyone at risk)"
-    : `coxRegression: the covariates cannot be told apart: column ${c} is constant, or a copy or combination of columns 1–${c - 1}`;
+    ? "coxRegression: the covariates cannot be told apart: column 1 does not vary among the rows at risk (within each stratum)"
+    : `coxRegression: the covariates cannot be told apart: column ${c} is a copy or combination of ${before}, or does not vary among the rows at risk (within each stratum)`;
 }
 
 function validate(rows: readonly CoxRow[]): { p: number; events: number; anyEntry: boolean } {

@@ -283,9 +283,12 @@ describe("coxRegression properties", () => {
   });
 
   it("treats an entry before every time like no entry", () => {
-    // R: Surv(rep(0, n), time, status) and Surv(time, status) give the same coxph fit on lung (every time > 0).
+    // R 4.2.2, survival 3.5-3: coxph(Surv(rep(0, nrow(lung)), time, status) ~ age + sex, data = lung) gives
+    // coef 0.0170453318454, -0.513218517108 and loglik -749.90980139, -742.848245784, as without the entry.
     const fit = coxRegression(lungRows.map((r) => ({ ...r, entry: 0 })));
-    expectClose(fit.coefficients[0], 0.0170453318454, 1e-6); // R: coxph(Surv(time, status) ~ age + sex, data = lung)
+    expectClose(fit.coefficients[0], 0.0170453318454, 1e-6);
+    expectClose(fit.coefficients[1], -0.513218517108, 1e-6);
+    expectClose(fit.nullLogLik, -749.90980139, 1e-9);
     expectClose(fit.logLik, -742.848245784, 1e-9);
   });
 });
@@ -297,7 +300,9 @@ describe("coxRegression refuses what it cannot fit", () => {
     expect(() => coxRegression(copy)).toThrow(RangeError);
     expect(() => coxRegression(copy)).toThrow(/cannot be told apart: column 3/);
     const combination = lungRows.map((r) => ({ ...r, x: [r.x[0], r.x[1], r.x[0] + 2 * r.x[1]] }));
-    expect(() => coxRegression(combination)).toThrow(/cannot be told apart: column 3 is .*combination of columns 1–2/);
+    expect(() => coxRegression(combination)).toThrow(/cannot be told apart: column 3 is a copy or combination of columns 1–2/);
+    const perStratum = veteranRows.map((r) => ({ ...r, x: [...r.x, r.stratum === "adeno" ? 1 : 0] }));
+    expect(() => coxRegression(perStratum)).toThrow(/column 3 .*does not vary among the rows at risk \(within each stratum\)/);
     const constant = lungRows.map((r) => ({ ...r, x: [r.x[0], 1] }));
     expect(() => coxRegression(constant)).toThrow(/column 2 has the same value in every row/);
   });
