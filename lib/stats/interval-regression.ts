@@ -57,8 +57,11 @@ const CODY_D = [
 const CODY_P = [0.21589853405795699, 0.1274011611602473639, 0.022235277870649807, 0.001421619193227893466, 2.9112874951168792e-5, 0.02307344176494017303];
 const CODY_Q = [1.28426009614491121, 0.468238212480865118, 0.0659881378689285515, 0.00378239633202758244, 7.29751555083966205e-5];
 
-/** log Φ(−y) for y ≥ 0.67448975 (the small tail), with Cody's split of exp(−y²/2) for accuracy. */
-function logSmallNormalTail(y: number): number {
+/**
+ * Φ(−y) for y ≥ 0.67448975 (the small tail) as its two factors: exp(−y²/2) split as Cody does (so
+ * the square loses no digits) and the rational factor. Returns [log of the tail, the tail itself].
+ */
+function smallNormalTail(y: number): [number, number] {
   let ratio: number;
   if (y <= 5.656854249492380195) {
     let num = CODY_C[8] * y;
@@ -80,7 +83,8 @@ function logSmallNormalTail(y: number): number {
   }
   const ySplit = Math.trunc(y * 16) / 16;
   const rest = (y - ySplit) * (y + ySplit);
-  return -ySplit * ySplit * 0.5 - rest * 0.5 + Math.log(ratio);
+  const logTail = -ySplit * ySplit * 0.5 - rest * 0.5 + Math.log(ratio);
+  return [logTail, Math.exp(-ySplit * ySplit * 0.5) * Math.exp(-rest * 0.5) * ratio];
 }
 
 /** log Φ(x) for the standard normal, accurate in both tails (far below where Φ underflows). */
@@ -99,8 +103,8 @@ export function logNormalCdf(x: number): number {
     }
     return Math.log(0.5 + (x * (num + CODY_A[3])) / (den + CODY_B[3]));
   }
-  const logTail = logSmallNormalTail(y);
-  return x < 0 ? logTail : Math.log1p(-Math.exp(logTail));
+  const [logTail, tail] = smallNormalTail(y);
+  return x < 0 ? logTail : Math.log1p(-tail);
 }
 
 // M. J. Wichura (1988), "Algorithm AS 241: the percentage points of the normal distribution",
@@ -461,8 +465,9 @@ function newtonFactor(hessian: number[][]): number[][] | null {
 }
 
 /**
- * One more full Newton step once survreg's rule is met, kept only if the loglik does not drop: the
- * estimates then sit at the maximum to about machine precision instead of within the tolerance.
+ * One more full Newton step once survreg's rule is met, kept unless the loglik drops by more than its
+ * rounding noise: the estimates then sit at the maximum to about machine precision instead of anywhere
+ * within the tolerance.
  */
 function polish(d: Design, law: ErrorLaw, optimum: Optimum): Optimum {
   const factor = newtonFactor(optimum.at.hessian);
@@ -470,7 +475,7 @@ function polish(d: Design, law: ErrorLaw, optimum: Optimum): Optimum {
   const step = choleskySolve(factor, optimum.at.gradient);
   const theta = optimum.theta.map((v, i) => v + step[i]);
   const at = evaluate(d, law, theta, true);
-  if (!Number.isFinite(at.logLik) || at.logLik < optimum.at.logLik || !theta.every(Number.isFinite)) return optimum;
+  if (!Number.isFinite(at.logLik) || at.logLik < optimum.at.logLik - 1e-11 * Math.abs(optimum.at.logLik) || !theta.every(Number.isFinite)) return optimum;
   return { ...optimum, theta, at };
 }
 
@@ -517,7 +522,7 @@ function fitWithLaw(rows: IntervalRow[], law: ErrorLaw): IntervalRegressionFit {
   }
   if (!best.converged) {
     throw new RangeError(
-      `The ${law.name} fit did not converge within ${MAX_ITERATIONS} iterations: the data may not pin down every parameter (for example a group in which no specimen rusted, or one in which all had rusted by the first look).`,
+      `The ${law.name} fit did not converge within ${MAX_ITERATIONS} iterations: the data may not pin down every parameter (for example a group in which no specimen rusted, one in which all had rusted by the first look, or times that a line fits exactly).`,
     );
   }
   const factor = choleskyLower(best.at.hessian.map((row) => row.map((v) => -v)));
