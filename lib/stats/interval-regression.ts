@@ -57,12 +57,14 @@ const CODY_D = [
 const CODY_P = [0.21589853405795699, 0.1274011611602473639, 0.022235277870649807, 0.001421619193227893466, 2.9112874951168792e-5, 0.02307344176494017303];
 const CODY_Q = [1.28426009614491121, 0.468238212480865118, 0.0659881378689285515, 0.00378239633202758244, 7.29751555083966205e-5];
 
-/**
- * Φ(−y) for y ≥ 0.67448975 (the small tail) as its two factors: exp(−y²/2) split as Cody does (so
- * the square loses no digits) and the rational factor. Returns [log of the tail, the tail itself].
- */
-function smallNormalTail(y: number): [number, number] {
-  let ratio: number;
+// Φ(−y) for y ≥ 0.67448975 (the small tail) = exp(−split²/2)·exp(−rest/2)·ratio: exp(−y²/2) split
+// as Cody does so the square loses no digits. Set by smallNormalTail (module scratch: no allocation
+// in the fit's inner loop).
+let tailSplitSq = 0;
+let tailRest = 0;
+let tailRatio = 0;
+
+function smallNormalTail(y: number): void {
   if (y <= 5.656854249492380195) {
     let num = CODY_C[8] * y;
     let den = y;
@@ -70,7 +72,7 @@ function smallNormalTail(y: number): [number, number] {
       num = (num + CODY_C[i]) * y;
       den = (den + CODY_D[i]) * y;
     }
-    ratio = (num + CODY_C[7]) / (den + CODY_D[7]);
+    tailRatio = (num + CODY_C[7]) / (den + CODY_D[7]);
   } else {
     const inv = 1 / (y * y);
     let num = CODY_P[5] * inv;
@@ -79,12 +81,11 @@ function smallNormalTail(y: number): [number, number] {
       num = (num + CODY_P[i]) * inv;
       den = (den + CODY_Q[i]) * inv;
     }
-    ratio = (INV_SQRT_2PI - (inv * (num + CODY_P[4])) / (den + CODY_Q[4])) / y;
+    tailRatio = (INV_SQRT_2PI - (inv * (num + CODY_P[4])) / (den + CODY_Q[4])) / y;
   }
-  const ySplit = Math.trunc(y * 16) / 16;
-  const rest = (y - ySplit) * (y + ySplit);
-  const logTail = -ySplit * ySplit * 0.5 - rest * 0.5 + Math.log(ratio);
-  return [logTail, Math.exp(-ySplit * ySplit * 0.5) * Math.exp(-rest * 0.5) * ratio];
+  const split = Math.trunc(y * 16) / 16;
+  tailSplitSq = split * split;
+  tailRest = (y - split) * (y + split);
 }
 
 /** log Φ(x) for the standard normal, accurate in both tails (far below where Φ underflows). */
@@ -103,8 +104,9 @@ export function logNormalCdf(x: number): number {
     }
     return Math.log(0.5 + (x * (num + CODY_A[3])) / (den + CODY_B[3]));
   }
-  const [logTail, tail] = smallNormalTail(y);
-  return x < 0 ? logTail : Math.log1p(-tail);
+  smallNormalTail(y);
+  if (x < 0) return -tailSplitSq * 0.5 - tailRest * 0.5 + Math.log(tailRatio);
+  return Math.log1p(-Math.exp(-tailSplitSq * 0.5) * Math.exp(-tailRest * 0.5) * tailRatio);
 }
 
 // M. J. Wichura (1988), "Algorithm AS 241: the percentage points of the normal distribution",
@@ -163,6 +165,115 @@ export function logExtremeValueBetween(a: number, b: number): number {
   return -ea + Math.log(-Math.expm1(-ea * Math.expm1(b - a)));
 }
 
+// Fit terms of a censored row, from the fewest exponentials (these dominate the cost of a fit).
+// Extreme value: S(w) = exp(−eʷ), f(w) = eʷ·S(w), score 1 − eʷ.
+function extremeValueCensored(wl: number, wu: number, out: Float64Array): void {
+  if (wu === Infinity) {
+    const el = Math.exp(wl); // P = S(wl), f(wl)/P = e^wl
+    out[0] = -el;
+    out[1] = 0;
+    out[2] = el;
+    out[3] = 0;
+    out[4] = 1 - el;
+    return;
+  }
+  const eu = Math.exp(wu);
+  if (wl === -Infinity) {
+    const q = -Math.expm1(-eu); // P = F(wu)
+    out[0] = Math.log(q);
+    out[1] = eu > 700 ? 0 : (eu * Math.exp(-eu)) / q;
+    out[2] = 0;
+    out[3] = 1 - eu;
+    out[4] = 0;
+    return;
+  }
+  // P = S(wl)·q with q = 1 − S(wu)/S(wl) = 1 − exp(−(eu − el)), eu − el = el·expm1(wu − wl).
+  const el = Math.exp(wl);
+  const gap = el * Math.expm1(wu - wl);
+  const q = -Math.expm1(-gap);
+  const ratio = Math.exp(-gap); // S(wu)/S(wl)
+  out[0] = -el + Math.log(q);
+  out[1] = ratio === 0 ? 0 : (eu * ratio) / q;
+  out[2] = el / q;
+  out[3] = 1 - eu;
+  out[4] = 1 - el;
+}
+
+// Φ(x), 1 − Φ(x) and φ(x) as plain numbers (module scratch, set by normalValues): the fit's common
+// case, where no probability underflows, needs no logarithms of tails.
+let valueLower = 0;
+let valueUpper = 0;
+let valueDensity = 0;
+
+function normalValues(x: number): void {
+  if (Math.abs(x) <= 0.67448975) {
+    const sq = x * x;
+    let num = CODY_A[4] * sq;
+    let den = sq;
+    for (let i = 0; i < 3; i++) {
+      num = (num + CODY_A[i]) * sq;
+      den = (den + CODY_B[i]) * sq;
+    }
+    const temp = (x * (num + CODY_A[3])) / (den + CODY_B[3]);
+    valueLower = 0.5 + temp;
+    valueUpper = 0.5 - temp;
+    valueDensity = Math.exp(-0.5 * sq) * INV_SQRT_2PI;
+    return;
+  }
+  smallNormalTail(Math.abs(x));
+  const gauss = Math.exp(-tailSplitSq * 0.5) * Math.exp(-tailRest * 0.5);
+  const small = gauss * tailRatio;
+  valueDensity = gauss * INV_SQRT_2PI;
+  valueLower = x < 0 ? small : 1 - small;
+  valueUpper = x < 0 ? 1 - small : small;
+}
+
+function normalCensored(wl: number, wu: number, out: Float64Array): void {
+  let probability: number;
+  let larger: number; // the larger term of the difference, to see cancellation
+  let fl = 0;
+  let fu = 0;
+  if (wu === Infinity) {
+    normalValues(wl);
+    probability = larger = valueUpper;
+    fl = valueDensity;
+  } else if (wl === -Infinity) {
+    normalValues(wu);
+    probability = larger = valueLower;
+    fu = valueDensity;
+  } else {
+    normalValues(wl);
+    const lowerOfL = valueLower;
+    const upperOfL = valueUpper;
+    fl = valueDensity;
+    normalValues(wu);
+    fu = valueDensity;
+    if (wl >= 0) {
+      probability = upperOfL - valueUpper;
+      larger = upperOfL;
+    } else if (wu <= 0) {
+      probability = valueLower - lowerOfL;
+      larger = valueLower;
+    } else {
+      probability = 1 - lowerOfL - valueUpper;
+      larger = 1;
+    }
+  }
+  if (probability > 1e-280 && probability > 1e-3 * larger) {
+    out[0] = Math.log(probability);
+    out[1] = fu / probability;
+    out[2] = fl / probability;
+  } else {
+    // Far tails or a difference that cancels: the log-scale route.
+    const logP = logNormalBetween(wl, wu);
+    out[0] = logP;
+    out[1] = wu === Infinity ? 0 : Math.exp(-0.5 * wu * wu - LOG_SQRT_2PI - logP);
+    out[2] = wl === -Infinity ? 0 : Math.exp(-0.5 * wl * wl - LOG_SQRT_2PI - logP);
+  }
+  out[3] = -wu;
+  out[4] = -wl;
+}
+
 interface ErrorLaw {
   name: "weibull" | "lognormal";
   logDensity(z: number): number;
@@ -170,7 +281,11 @@ interface ErrorLaw {
   score(z: number): number;
   /** d² log f / dz² */
   scoreSlope(z: number): number;
-  logBetween(a: number, b: number): number;
+  /**
+   * For lower < W ≤ upper (lower may be −Infinity, upper Infinity), writes into `out`: the log of its
+   * probability P, f(upper)/P, f(lower)/P (0 at an open end) and the score at each end.
+   */
+  censored(lower: number, upper: number, out: Float64Array): void;
   quantile(p: number): number;
   mean: number;
   sd: number;
@@ -181,7 +296,7 @@ const EXTREME_VALUE: ErrorLaw = {
   logDensity: (z) => z - Math.exp(z),
   score: (z) => 1 - Math.exp(z),
   scoreSlope: (z) => -Math.exp(z),
-  logBetween: logExtremeValueBetween,
+  censored: extremeValueCensored,
   quantile: (p) => {
     if (!(p > 0 && p < 1)) throw new RangeError(`the probability must be between 0 and 1 (exclusive), got ${p}`);
     return Math.log(-Math.log1p(-p));
@@ -195,7 +310,7 @@ const NORMAL: ErrorLaw = {
   logDensity: (z) => -0.5 * z * z - LOG_SQRT_2PI,
   score: (z) => -z,
   scoreSlope: () => -1,
-  logBetween: logNormalBetween,
+  censored: normalCensored,
   quantile: normalQuantile,
   mean: 0,
   sd: 1,
@@ -223,6 +338,7 @@ interface Design {
   sds: number[];
   /** −Σ log t over exact rows: survreg's correction from log T back to T */
   jacobian: number;
+  exactRows: number;
 }
 
 function describe(value: number): string {
@@ -235,27 +351,28 @@ function prepare(rows: IntervalRow[]): Design {
   const used: number[] = [];
   let rightOnly = true;
   let leftOnly = true;
-  rows.forEach((row, i) => {
-    const at = `Row ${i + 1}`;
+  for (let i = 0; i < rows.length; i++) {
+    const row = rows[i];
     if (!Array.isArray(row.x) || row.x.length !== k) {
-      throw new RangeError(`${at} has ${Array.isArray(row.x) ? row.x.length : "no"} covariates but row 1 has ${k}: every row needs the same covariates.`);
+      throw new RangeError(`Row ${i + 1} has ${Array.isArray(row.x) ? row.x.length : "no"} covariates but row 1 has ${k}: every row needs the same covariates.`);
     }
-    row.x.forEach((v, j) => {
-      if (typeof v !== "number" || !Number.isFinite(v)) throw new RangeError(`${at}: covariate ${j + 1} must be a finite number, got ${describe(v)}.`);
-    });
+    for (let j = 0; j < k; j++) {
+      const v = row.x[j];
+      if (typeof v !== "number" || !Number.isFinite(v)) throw new RangeError(`Row ${i + 1}: covariate ${j + 1} must be a finite number, got ${describe(v)}.`);
+    }
     const { lower, upper } = row;
     if (typeof lower !== "number" || !Number.isFinite(lower) || lower < 0) {
-      throw new RangeError(`${at}: the lower time must be a finite number of 0 or more, got ${describe(lower)}.`);
+      throw new RangeError(`Row ${i + 1}: the lower time must be a finite number of 0 or more, got ${describe(lower)}.`);
     }
     if (typeof upper !== "number" || Number.isNaN(upper) || upper <= 0) {
-      throw new RangeError(`${at}: the upper time must be above 0 (or Infinity when no rust was seen), got ${describe(upper)}.`);
+      throw new RangeError(`Row ${i + 1}: the upper time must be above 0 (or Infinity when no rust was seen), got ${describe(upper)}.`);
     }
-    if (lower > upper) throw new RangeError(`${at}: the lower time ${lower} is above the upper time ${upper}.`);
-    if (lower === 0 && upper === Infinity) return; // says nothing about the time
+    if (lower > upper) throw new RangeError(`Row ${i + 1}: the lower time ${lower} is above the upper time ${upper}.`);
+    if (lower === 0 && upper === Infinity) continue; // says nothing about the time
     used.push(i);
     if (upper !== Infinity) rightOnly = false;
     if (lower !== 0) leftOnly = false;
-  });
+  }
   if (used.length === 0) throw new RangeError("Every row runs from 0 to Infinity: no row says anything about the time, so there is nothing to fit.");
   if (rightOnly) throw new RangeError("Every row is right-censored (no rust seen yet): there is nothing to fit.");
   if (leftOnly) throw new RangeError("Every row is left-censored (rust already at the first look): there is nothing to fit.");
@@ -265,15 +382,17 @@ function prepare(rows: IntervalRow[]): Design {
   const logLower = new Float64Array(n);
   const logUpper = new Float64Array(n);
   let jacobian = 0;
-  used.forEach((r, i) => {
-    const { lower, upper } = rows[r];
+  let exactRows = 0;
+  for (let i = 0; i < n; i++) {
+    const { lower, upper } = rows[used[i]];
     logLower[i] = lower > 0 ? Math.log(lower) : -Infinity;
     logUpper[i] = Math.log(upper);
     if (lower === upper) {
       kind[i] = EXACT;
       jacobian -= logLower[i];
+      exactRows++;
     } else kind[i] = upper === Infinity ? RIGHT : lower === 0 ? LEFT : INTERVAL;
-  });
+  }
 
   const means: number[] = [];
   const sds: number[] = [];
@@ -294,7 +413,7 @@ function prepare(rows: IntervalRow[]): Design {
     const sd = Math.sqrt(ss / n);
     means.push(mean);
     sds.push(sd);
-    used.forEach((r, i) => (z[i * k + j] = (rows[r].x[j] - mean) / sd));
+    for (let i = 0; i < n; i++) z[i * k + j] = (rows[used[i]].x[j] - mean) / sd;
   }
   const gram = Array.from({ length: k }, (_, a) =>
     Array.from({ length: k }, (_, b) => {
@@ -307,7 +426,7 @@ function prepare(rows: IntervalRow[]): Design {
   if (dependent >= 0) {
     throw new RangeError(`Covariate ${dependent + 1} is a copy of another covariate (or a sum of others, or nearly so): its effect cannot be estimated.`);
   }
-  return { n, k, kind, logLower, logUpper, z, means, sds, jacobian };
+  return { n, k, kind, logLower, logUpper, z, means, sds, jacobian, exactRows };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -328,6 +447,7 @@ function evaluate(d: Design, law: ErrorLaw, theta: readonly number[], derivative
   const grad = new Float64Array(p);
   const hess = new Float64Array(p * p);
   const xi = new Float64Array(p - 1);
+  const ends = new Float64Array(5);
   let logLik = d.jacobian;
   for (let i = 0; i < n; i++) {
     let eta = theta[0];
@@ -351,31 +471,24 @@ function evaluate(d: Design, law: ErrorLaw, theta: readonly number[], derivative
     } else {
       const wl = kind[i] === LEFT ? -Infinity : (logLower[i] - eta) / sigma;
       const wu = kind[i] === RIGHT ? Infinity : (logUpper[i] - eta) / sigma;
-      const logP = law.logBetween(wl, wu);
-      logLik += logP;
+      law.censored(wl, wu, ends);
+      logLik += ends[0];
       if (!derivatives) continue;
-      // Density at each end relative to the probability between them (0 at an open end).
-      let fu = 0, fuW = 0, fuSW = 0, fuSWW = 0, fuS = 0;
-      let fl = 0, flW = 0, flSW = 0, flSWW = 0, flS = 0;
-      if (wu !== Infinity) {
-        fu = Math.exp(law.logDensity(wu) - logP);
-        if (fu > 0) {
-          const s = law.score(wu);
-          fuW = fu * wu;
-          fuS = fu * s;
-          fuSW = fuS * wu;
-          fuSWW = fuSW * wu;
-        }
+      const fu = ends[1];
+      const fl = ends[2];
+      let fuW = 0, fuSW = 0, fuSWW = 0, fuS = 0;
+      let flW = 0, flSW = 0, flSWW = 0, flS = 0;
+      if (fu > 0) {
+        fuW = fu * wu;
+        fuS = fu * ends[3];
+        fuSW = fuS * wu;
+        fuSWW = fuSW * wu;
       }
-      if (wl !== -Infinity) {
-        fl = Math.exp(law.logDensity(wl) - logP);
-        if (fl > 0) {
-          const s = law.score(wl);
-          flW = fl * wl;
-          flS = fl * s;
-          flSW = flS * wl;
-          flSWW = flSW * wl;
-        }
+      if (fl > 0) {
+        flW = fl * wl;
+        flS = fl * ends[4];
+        flSW = flS * wl;
+        flSWW = flSW * wl;
       }
       dEta = -(fu - fl) / sigma;
       dTau = -(fuW - flW);
@@ -488,23 +601,28 @@ function maximise(d: Design, law: ErrorLaw, start: number[]): Optimum {
     if (!factor) return { theta, at, iterations: iteration, converged: false };
     const step = choleskySolve(factor, at.gradient);
     if (!step.every(Number.isFinite)) return { theta, at, iterations: iteration, converged: false };
+    // The full step is tried with derivatives (it is nearly always taken); halved steps without.
+    let next: Evaluation | null = null;
+    let nextTheta = theta;
     let length = 1;
-    let next: number[] | null = null;
-    let nextLogLik = -Infinity;
     for (let h = 0; h <= MAX_HALVINGS; h++, length /= 2) {
       const candidate = theta.map((v, i) => v + length * step[i]);
-      const logLik = evaluate(d, law, candidate, false).logLik;
-      if (Number.isFinite(logLik) && logLik >= at.logLik) {
-        next = candidate;
-        nextLogLik = logLik;
+      const tried = evaluate(d, law, candidate, h === 0);
+      if (Number.isFinite(tried.logLik) && tried.logLik >= at.logLik) {
+        next = h === 0 ? tried : evaluate(d, law, candidate, true);
+        nextTheta = candidate;
         break;
       }
     }
-    // No step along the Newton direction improves the loglik: the maximum is reached to machine precision.
-    if (!next) return { theta, at, iterations: iteration, converged: true };
-    const change = Math.abs(1 - at.logLik / nextLogLik);
-    theta = next;
-    at = evaluate(d, law, theta, true);
+    if (!next) {
+      // No step along the Newton direction raises the loglik: at the maximum to machine precision
+      // when the predicted gain there is negligible, stuck otherwise.
+      const gain = step.reduce((s, v, i) => s + v * at.gradient[i], 0);
+      return { theta, at, iterations: iteration, converged: gain <= 1e-8 * (Math.abs(at.logLik) + 1) };
+    }
+    const change = Math.abs(next.logLik - at.logLik) / Math.max(Math.abs(next.logLik), Number.MIN_VALUE);
+    theta = nextTheta;
+    at = next;
     if (change <= REL_TOLERANCE) return polish(d, law, { theta, at, iterations: iteration, converged: true });
   }
   return { theta, at, iterations: MAX_ITERATIONS, converged: false };
@@ -523,6 +641,13 @@ function fitWithLaw(rows: IntervalRow[], law: ErrorLaw): IntervalRegressionFit {
   if (!best.converged) {
     throw new RangeError(
       `The ${law.name} fit did not converge within ${MAX_ITERATIONS} iterations: the data may not pin down every parameter (for example a group in which no specimen rusted, one in which all had rusted by the first look, or times that a line fits exactly).`,
+    );
+  }
+  if (d.exactRows === 0 && best.at.logLik > -1e-9 * d.n) {
+    // Every row's probability is 1 to within rounding: σ has shrunk toward 0 around a line that
+    // threads every interval, which is no fit to report (R stops here without converging).
+    throw new RangeError(
+      `The ${law.name} fit did not converge: a straight line in the covariates passes through every row's interval, so the scale shrinks toward 0 without end.`,
     );
   }
   const factor = choleskyLower(best.at.hessian.map((row) => row.map((v) => -v)));

@@ -343,7 +343,8 @@ describe("bad input", () => {
     // on L = c(NA, 10, 20, 12), R = c(10, 20, Inf, 18), x = c(1, 2, 3, 2.5) warns "Ran out of iterations
     // and did not converge" after 30 iterations with scale 0.047 (lognormal: the same, scale 0.0085).
     const onALine = good.concat({ lower: 12, upper: 18, x: [2.5] });
-    for (const fit of fits) expect(() => fit(onALine)).toThrow(/did not converge within 30 iterations/);
+    // Which of the two refusals comes first depends on rounding (the loglik may reach 0 exactly).
+    for (const fit of fits) expect(() => fit(onALine)).toThrow(/did not converge( within 30 iterations|: a straight line)/);
   });
 
   it("checks the arguments of quantile and never returns NaN", () => {
