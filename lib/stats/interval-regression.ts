@@ -721,3 +721,24 @@ export function weibullIntervalRegression(rows: IntervalRow[]): IntervalRegressi
 export function lognormalIntervalRegression(rows: IntervalRow[]): IntervalRegressionFit {
   return fitWithLaw(rows, NORMAL);
 }
+
+/**
+ * The log-likelihood of `rows` at given parameters (survreg's, exact-time Jacobian included), for
+ * likelihood-ratio comparisons between models; the rows are checked as for a fit.
+ */
+export function intervalLogLik(
+  rows: IntervalRow[],
+  distribution: "weibull" | "lognormal",
+  params: { intercept: number; coefficients: number[]; scale: number },
+): number {
+  const d = prepare(rows);
+  if (params.coefficients.length !== d.k) throw new RangeError(`The rows have ${d.k} covariates but ${params.coefficients.length} coefficients were given.`);
+  if (!(params.scale > 0) || !Number.isFinite(params.scale)) throw new RangeError(`The scale must be a finite number above 0, got ${describe(params.scale)}.`);
+  const values = [params.intercept, ...params.coefficients];
+  if (!values.every(Number.isFinite)) throw new RangeError("The intercept and coefficients must be finite numbers.");
+  // The same parameters on the standardised covariates the fit works with.
+  let c0 = params.intercept;
+  for (let j = 0; j < d.k; j++) c0 += params.coefficients[j] * d.means[j];
+  const theta = [c0, ...params.coefficients.map((b, j) => b * d.sds[j]), Math.log(params.scale)];
+  return evaluate(d, distribution === "weibull" ? EXTREME_VALUE : NORMAL, theta, false).logLik;
+}
