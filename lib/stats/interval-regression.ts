@@ -37,7 +37,8 @@ export interface IntervalRegressionFit {
 }
 
 // ---------------------------------------------------------------------------------------------
-// Tail functions. Everything is kept on the log scale so far tails neither underflow nor cancel.
+// Tail functions. Probabilities of censored rows are taken on the log scale wherever plain numbers
+// would underflow or cancel (far tails, narrow intervals), so a fit never meets log(0) or 0/0.
 
 const LOG_SQRT_2PI = 0.5 * Math.log(2 * Math.PI);
 const INV_SQRT_2PI = 0.3989422804014327;
@@ -316,7 +317,6 @@ const NORMAL: ErrorLaw = {
   sd: 1,
 };
 
-
 // ---------------------------------------------------------------------------------------------
 // Rows → a compact design. Covariates are centred and scaled for the iterations (better
 // conditioned Newton steps); estimates and covariance are mapped back to the caller's units.
@@ -347,14 +347,18 @@ function describe(value: number): string {
 
 function prepare(rows: IntervalRow[]): Design {
   if (!Array.isArray(rows) || rows.length === 0) throw new RangeError("There are no rows to fit.");
-  const k = Array.isArray(rows[0].x) ? rows[0].x.length : -1;
   const used: number[] = [];
   let rightOnly = true;
   let leftOnly = true;
+  let k = 0;
   for (let i = 0; i < rows.length; i++) {
     const row = rows[i];
-    if (!Array.isArray(row.x) || row.x.length !== k) {
-      throw new RangeError(`Row ${i + 1} has ${Array.isArray(row.x) ? row.x.length : "no"} covariates but row 1 has ${k}: every row needs the same covariates.`);
+    if (!row || typeof row !== "object" || !Array.isArray(row.x)) {
+      throw new RangeError(`Row ${i + 1} has no list of covariates (x); give x: [] when there are none.`);
+    }
+    if (i === 0) k = row.x.length;
+    if (row.x.length !== k) {
+      throw new RangeError(`Row ${i + 1} has ${row.x.length} covariates but row 1 has ${k}: every row needs the same covariates.`);
     }
     for (let j = 0; j < k; j++) {
       const v = row.x[j];

@@ -331,6 +331,7 @@ describe("bad input", () => {
     const cases: [IntervalRow[], RegExp][] = [
       [[], /no rows to fit/],
       [[...good, { lower: 5, upper: 9, x: [1, 2] }], /Row 4 has 2 covariates but row 1 has 1/],
+      [[...good, { lower: 5, upper: 9 } as unknown as IntervalRow], /Row 4 has no list of covariates \(x\); give x: \[\] when there are none/],
       [[...good, { lower: 30, upper: 20, x: [1] }], /Row 4: the lower time 30 is above the upper time 20/],
       [[...good, { lower: -1, upper: 20, x: [1] }], /Row 4: the lower time must be a finite number of 0 or more, got -1/],
       [[...good, { lower: Number.NaN, upper: 20, x: [1] }], /Row 4: the lower time must be a finite number of 0 or more, got not a number/],
@@ -390,7 +391,7 @@ describe("bad input", () => {
 describe("odd data never give NaN", () => {
   it("either fits with finite numbers at a maximum or refuses with a RangeError", () => {
     // Seeded random small data sets: few rows, ties, exact rows, far outliers, one or two covariates.
-    // For this seed 9 of the 300 fits are refused; R 4.2.2, survival 3.5-3 survreg on those data sets
+    // When this was written, 9 of the 300 fits for this seed were refused; R 4.2.2, survival 3.5-3 survreg on those data sets
     // either warns "Ran out of iterations and did not converge" or returns a coefficient with a
     // standard error above 2,000 (a group that never or always rusted), checked once by hand.
     const rng = createRng("interval-regression-odd-data");
