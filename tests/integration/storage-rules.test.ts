@@ -83,7 +83,7 @@ describe("accepting a storage rule", () => {
     const listed = await listStorageRules({ labId, userId: lead.userId, trialId: trial.id });
     expect(listed.filter((r) => r.materialClass === "stony-iron" && r.treatmentName === "Microcrystalline wax" && r.current).map((r) => r.id)).toEqual([second.id]);
 
-    const trail = await db.select().from(auditEvents).where(and(eq(auditEvents.labId, labId), eq(auditEvents.entity, "storage_rule"))).orderBy(asc(auditEvents.createdAt));
+    const trail = await db.select().from(auditEvents).where(and(eq(auditEvents.labId, labId), eq(auditEvents.entity, "storage_rule"))).orderBy(asc(auditEvents.id));
     const mine = trail.filter((e) => e.entityId === first.id || e.entityId === second.id);
     expect(mine.map((e) => e.action).sort()).toEqual(["create", "create", "update"]);
     expect(mine.every((e) => e.trialId === trial.id && e.userId === lead.userId)).toBe(true);
