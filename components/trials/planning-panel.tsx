@@ -14,7 +14,7 @@ const FIELDS: { name: keyof Inputs; label: string; hint: string; step: string }[
   { name: "hazardRatio", label: "Hazard ratio to detect", hint: "e.g. 0.5: one arm rusts at half the rate of the other.", step: "0.05" },
   { name: "power", label: "Power", hint: "Chance of detecting that ratio if it is real.", step: "0.05" },
   { name: "alpha", label: "Significance level α (two-sided)", hint: "Chance of a false alarm.", step: "0.01" },
-  { name: "fractionRusting", label: "Expected fraction rusting by the end", hint: "Share of specimens with first rust at the last inspection.", step: "0.05" },
+  { name: "fractionRusting", label: "Expected fraction rusting", hint: "Share of specimens with first rust by the end of the trial.", step: "0.05" },
 ];
 
 function parse(inputs: Inputs): { values?: Record<keyof Inputs, number>; errors: Partial<Record<keyof Inputs, string>> } {
