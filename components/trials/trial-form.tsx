@@ -1,14 +1,16 @@
 "use client";
 // Design a trial (or edit a draft): question, arms = chambers × treatments, replicates, team,
 // photo protocol and inspection plan. Submitted without a form reset, so nothing typed is lost.
-import { useActionState, useEffect, useState, useTransition } from "react";
+import { useActionState, useEffect, useMemo, useState, useTransition } from "react";
 import { useRouter } from "next/navigation";
 import { createTrialAction, updateTrialAction } from "@/app/_actions/trials";
 import { Field, FormMessage, SelectField, TextArea } from "@/components/ui/form";
 import type { InspectionPlan } from "@/lib/schedule/plans";
 import type { TeamFieldName } from "@/lib/trials/team";
+import { crossArms } from "@/lib/trials/design-checks";
 import { PRIMARY_OUTCOMES } from "@/lib/validation/trials";
 import { PlanFields } from "./plan-fields";
+import { PlanningPanel } from "./planning-panel";
 import { ProtocolLines } from "./protocol-lines";
 import { ScorerFields, TechnicianFields, type Person, type ScorerPick } from "./team-fields";
 
@@ -58,6 +60,10 @@ export function TrialForm({ chambers, treatments, people, team, trial }: {
   }, [state, id, trial, router]);
   const e = state?.errors ?? {};
   const arms = chamberIds.length * treatmentIds.length;
+  const designArms = useMemo(
+    () => crossArms(chambers.filter((c) => chamberIds.includes(c.id)), treatments.filter((t) => treatmentIds.includes(t.id))),
+    [chambers, treatments, chamberIds, treatmentIds],
+  );
   const needed = arms * (Number(replicates) || 0);
 
   return (
@@ -92,7 +98,6 @@ export function TrialForm({ chambers, treatments, people, team, trial }: {
         </div>
         <p className="text-sm" aria-live="polite">
           {arms === 0 ? "Pick chambers and treatments to form the arms." : <>{arms} arm{arms === 1 ? "" : "s"}; {needed} specimens needed for {replicates || 0} per arm.</>}
-          {arms > 0 && !treatments.some((t) => t.kind === "control" && treatmentIds.includes(t.id)) && <span className="text-rust-700"> No control treatment is picked; comparisons are clearer with one.</span>}
         </p>
         {arms > 0 && (
           <ul className="text-sm grid gap-1 md:grid-cols-2" aria-label="Arms">
@@ -102,6 +107,8 @@ export function TrialForm({ chambers, treatments, people, team, trial }: {
           </ul>
         )}
       </section>
+
+      <PlanningPanel arms={designArms} replicatesPerArm={replicates} />
 
       <section className="panel p-4 space-y-4" aria-labelledby="team-h">
         <h2 id="team-h" className="font-semibold">Team</h2>

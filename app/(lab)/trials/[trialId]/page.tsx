@@ -4,12 +4,14 @@ import { hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrial
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { teamRights } from "@/lib/trials/team";
+import { designWarnings } from "@/lib/trials/design-checks";
 import { formatDateTime } from "@/lib/format";
 import { GEOMETRIC_RULE_TEXT, planDays, type InspectionPlan } from "@/lib/schedule/plans";
 import { PRIMARY_OUTCOMES, SCORE_RULES, type PrimaryOutcome } from "@/lib/validation/trials";
 import { ConcludeForm, NoteForm, StartForm } from "@/components/trials/lifecycle-forms";
 import { ProtocolForm, ScorersForm, TechniciansForm } from "@/components/trials/team-forms";
 import { EmptyState } from "@/components/ui/empty-state";
+import { DesignWarnings } from "@/components/trials/design-warnings";
 
 export const metadata = { title: "Trial" };
 
@@ -36,6 +38,8 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
   const done = inspections.filter((i) => i.doneAt).length;
   const next = inspections.find((i) => !i.doneAt);
   const base = `/trials/${trial.id}`;
+  // While the design can still change; once running, the design is fixed and the warnings are moot.
+  const warnings = trial.status === "draft" ? designWarnings({ arms, replicatesPerArm: trial.replicatesPerArm }) : [];
 
   return (
     <div className="space-y-6">
@@ -59,6 +63,14 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
           {arms.map((a) => <li key={a.id} className="rounded border border-[var(--line)] px-2 py-1">{a.chamberName} <span className="muted">({a.setpointRhPercent} %RH, {a.nominalTempC} °C)</span> / {a.treatmentName}</li>)}
         </ul>
       </section>
+
+      {trial.status === "draft" && warnings.length > 0 && (
+        <section className="panel p-4 space-y-2" aria-labelledby="checks-h">
+          <h2 id="checks-h" className="font-semibold">Design checks</h2>
+          <DesignWarnings warnings={warnings} id="design-warnings" />
+          {design && <p className="text-xs"><Link className="link" href={`${base}/edit`}>Edit the design</Link> to address them, or start anyway if the trial is a pilot.</p>}
+        </section>
+      )}
 
       {trial.status === "draft" && design && (
         <section className="panel p-4 space-y-3" aria-labelledby="start-h">
