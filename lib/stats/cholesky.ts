@@ -1,4 +1,4 @@
-// Symmetric positive-definite solves for the Newton–Raphson fits in lib/stats (Cox regression first).
+// Symmetric positive-definite solves for the Newton–Raphson fits in lib/stats (Cox and interval regression).
 // The factor is LDLᵀ (Cholesky without square roots), done in place on a p×p row-major Float64Array,
 // with R survival's cholesky2 rule for "singular": a pivot below tolerance × the largest diagonal entry.
 
@@ -75,4 +75,45 @@ export function ldlQuadraticForm(factor: Float64Array, p: number, x: ArrayLike<n
   let value = 0;
   for (let i = 0; i < p; i++) value += x[i] * solved[i];
   return value;
+}
+
+/** An LDLᵀ factor with its size, for callers that keep their matrices as arrays of rows. */
+export interface SpdFactor {
+  p: number;
+  factor: Float64Array;
+}
+
+/** Factors a symmetric matrix given as rows; null when a pivot is not above tolerance × the largest diagonal entry. */
+export function spdFactor(rows: readonly (readonly number[])[], tolerance = 0): SpdFactor | null {
+  const p = rows.length;
+  const factor = new Float64Array(p * p);
+  for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) factor[i * p + j] = rows[i][j];
+  return ldlFactor(factor, p, tolerance) === -1 ? { p, factor } : null;
+}
+
+/** A·x = b for x, as a new array. */
+export function spdSolve({ p, factor }: SpdFactor, b: readonly number[]): number[] {
+  const x = Float64Array.from(b);
+  ldlSolve(factor, p, x);
+  return Array.from(x);
+}
+
+/** A⁻¹ as rows. */
+export function spdInverse({ p, factor }: SpdFactor): number[][] {
+  const inverse = ldlInverse(factor, p);
+  return Array.from({ length: p }, (_, i) => Array.from(inverse.subarray(i * p, (i + 1) * p)));
+}
+
+/**
+ * The first column of a Gram matrix that is (numerically) a combination of the columns before it,
+ * or -1 at full rank. Scaled to unit diagonal first, so the tolerance does not depend on units.
+ */
+export function firstDependentColumn(gram: readonly (readonly number[])[], tolerance = 1e-10): number {
+  const p = gram.length;
+  const scale = gram.map((row, i) => (row[i] > 0 ? 1 / Math.sqrt(row[i]) : 0));
+  const zero = scale.indexOf(0);
+  if (zero >= 0) return zero;
+  const a = new Float64Array(p * p);
+  for (let i = 0; i < p; i++) for (let j = 0; j < p; j++) a[i * p + j] = gram[i][j] * scale[i] * scale[j];
+  return ldlFactor(a, p, tolerance);
 }

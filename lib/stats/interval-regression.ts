@@ -3,7 +3,7 @@
 // (lognormal T). The log-likelihood, parametrisation (β, log σ), Newton–Raphson fit and its
 // convergence rule follow R's survreg (survival package), so estimates, vcov(), loglik and
 // predict(type = "quantile") can be checked against it.
-import { choleskyInverse, choleskyLower, choleskySolve, firstDependentColumn } from "./interval-linear";
+import { firstDependentColumn, spdFactor, spdInverse, spdSolve, type SpdFactor } from "./cholesky";
 
 /**
  * One specimen. `lower = 0`: rust already at the first look (T ≤ upper); `upper = Infinity`: no rust
@@ -549,8 +549,8 @@ function startingValues(d: Design, law: ErrorLaw): number[] {
       for (let b = 0; b < p; b++) gram[a][b] += xi[a] * xi[b];
     }
   }
-  const l = choleskyLower(gram);
-  const beta = l ? choleskySolve(l, rhs) : [rhs[0] / n, ...new Array<number>(k).fill(0)];
+  const l = spdFactor(gram);
+  const beta = l ? spdSolve(l, rhs) : [rhs[0] / n, ...new Array<number>(k).fill(0)];
   let ss = 0;
   for (let i = 0; i < n; i++) {
     let fitted = beta[0];
@@ -571,12 +571,12 @@ interface Optimum {
 }
 
 /** −H made positive definite (a growing ridge where it is not), as its Cholesky factor. */
-function newtonFactor(hessian: number[][]): number[][] | null {
+function newtonFactor(hessian: number[][]): SpdFactor | null {
   const neg = hessian.map((row) => row.map((v) => -v));
-  let factor = choleskyLower(neg);
+  let factor = spdFactor(neg);
   const size = Math.max(...neg.map((row, i) => Math.abs(row[i])), 1e-8);
   for (let ridge = 1e-8 * size; !factor && ridge < 1e8 * size; ridge *= 10) {
-    factor = choleskyLower(neg.map((row, i) => row.map((v, j) => (i === j ? v + ridge : v))));
+    factor = spdFactor(neg.map((row, i) => row.map((v, j) => (i === j ? v + ridge : v))));
   }
   return factor;
 }
@@ -589,7 +589,7 @@ function newtonFactor(hessian: number[][]): number[][] | null {
 function polish(d: Design, law: ErrorLaw, optimum: Optimum): Optimum {
   const factor = newtonFactor(optimum.at.hessian);
   if (!factor) return optimum;
-  const step = choleskySolve(factor, optimum.at.gradient);
+  const step = spdSolve(factor, optimum.at.gradient);
   const theta = optimum.theta.map((v, i) => v + step[i]);
   const at = evaluate(d, law, theta, true);
   if (!Number.isFinite(at.logLik) || at.logLik < optimum.at.logLik - 1e-11 * Math.abs(optimum.at.logLik) || !theta.every(Number.isFinite)) return optimum;
@@ -603,7 +603,7 @@ function maximise(d: Design, law: ErrorLaw, start: number[]): Optimum {
   for (let iteration = 1; iteration <= MAX_ITERATIONS; iteration++) {
     const factor = newtonFactor(at.hessian);
     if (!factor) return { theta, at, iterations: iteration, converged: false };
-    const step = choleskySolve(factor, at.gradient);
+    const step = spdSolve(factor, at.gradient);
     if (!step.every(Number.isFinite)) return { theta, at, iterations: iteration, converged: false };
     // The full step is tried with derivatives (it is nearly always taken); halved steps without.
     let next: Evaluation | null = null;
@@ -654,11 +654,11 @@ function fitWithLaw(rows: IntervalRow[], law: ErrorLaw): IntervalRegressionFit {
       `The ${law.name} fit did not converge: a straight line in the covariates passes through every row's interval, so the scale shrinks toward 0 without end.`,
     );
   }
-  const factor = choleskyLower(best.at.hessian.map((row) => row.map((v) => -v)));
+  const factor = spdFactor(best.at.hessian.map((row) => row.map((v) => -v)));
   if (!factor) {
     throw new RangeError(`The ${law.name} fit found no clear maximum (the information matrix is singular): the data do not pin down every parameter.`);
   }
-  const standardised = choleskyInverse(factor);
+  const standardised = spdInverse(factor);
   // A monotone likelihood (say a group in which no specimen rusted) "converges" as in R, with one
   // coefficient drifting off and a huge standard error. Per standard deviation of its covariate, a
   // real effect's standard error is of the order σ/√(rows), far below a thousand σ.
