@@ -23,7 +23,7 @@ export function AuditChanges({ before, after, hidden }: { before: unknown; after
           {changes.map((c) => (
             <li key={c.field}>
               <span className="font-medium">{c.label}:</span>{" "}
-              {c.before !== null && <><span>{c.before}</span> <span aria-label="changed to">→</span> </>}
+              {c.before !== null && <><span>{c.before}</span> → </>}
               {c.after ?? <span className="muted">removed</span>}
             </li>
           ))}
