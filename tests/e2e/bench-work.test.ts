@@ -40,9 +40,10 @@ describe("logger files with 12-hour times and a zone in the header", () => {
     await page.getByLabel("Salt", { exact: true }).selectOption("NaCl");
     await page.getByLabel("Nominal temperature (°C)").fill("22");
     await page.getByRole("button", { name: "Save chamber" }).click();
-    await page.waitForURL(/\/chambers\/[0-9a-f-]{36}$/, { timeout: 20_000 });
-    chamberUrl = page.url();
-  });
+    await page.waitForURL(/\/chambers\/[0-9a-f-]{36}/, { timeout: 20_000 });
+    const saved = new URL(page.url());
+    chamberUrl = `${saved.origin}${saved.pathname}`;
+  }, 60_000);
 
   it("names the line, column and token of a time that cannot be read", async () => {
     await page.goto(`${chamberUrl}/import`);
@@ -56,7 +57,7 @@ describe("logger files with 12-hour times and a zone in the header", () => {
     await problems.waitFor();
     await expect(page.getByText('Line 4, column "Date Time, GMT+01:00": "13:00:00 PM" — hour 13 with PM; expected 1–12 before AM/PM').count()).resolves.toBe(1);
     await expect(page.getByRole("button", { name: /^Import/ }).isDisabled()).resolves.toBe(true);
-  });
+  }, 60_000);
 
   it("warns when the chosen zone disagrees with the header, then imports in the header's zone", async () => {
     await chooseFile("jar-logger.csv", loggerFile(['1,"11/18/2026 12:00:00 AM",20.5,44.0', '2,"11/18/2026 1:05 PM",20.7,45.5', '3,"11/18/2026 12:00:00 PM",20.6,45.0']));
@@ -82,7 +83,7 @@ describe("logger files with 12-hour times and a zone in the header", () => {
     await page.goto(chamberUrl);
     const recent = page.locator("table.data tbody tr").filter({ hasText: "logger A" });
     await expect(recent.allInnerTexts()).resolves.toEqual(expect.arrayContaining([expect.stringMatching(/2026-11-17 23:00 UTC/), expect.stringMatching(/2026-11-18 12:05 UTC/)]));
-  });
+  }, 120_000);
 
   it("colours a second instrument from the product palette, not the chart library's", async () => {
     await page.goto(`${chamberUrl}/import`);
@@ -107,14 +108,14 @@ describe("logger files with 12-hour times and a zone in the header", () => {
     // The first two colours of the product palette (verdigris, rust); vega's default scheme would start #4c78a8, #f58518.
     expect(legend).toEqual({ labels: ["logger A", "logger B"], colours: [CATEGORY_PALETTE[0], CATEGORY_PALETTE[1]] });
     await screenshot(page, "chamber-two-instruments");
-  });
+  }, 120_000);
 });
 
 describe("the audit trail", () => {
   it("shows an edit as 'field: before → after' lines with the raw record behind a toggle", async () => {
     await page.goto(`${chamberUrl}/edit`);
     await page.getByLabel("Tolerance (± %RH)").fill("3");
-    await page.getByRole("button", { name: "Save chamber" }).click();
+    await page.getByRole("button", { name: "Save changes" }).click();
     await page.waitForURL((u) => !u.pathname.endsWith("/edit"), { timeout: 20_000 });
 
     await page.goto(`${APP_URL}/audit?entity=chamber`);
@@ -131,7 +132,7 @@ describe("the audit trail", () => {
     await expect(imported.getByTestId("audit-changes").innerText()).resolves.toMatch(/Options › time zone: \+01:00/);
     expect(await axeViolations(page)).toEqual([]);
     await screenshot(page, "audit-changes");
-  });
+  }, 90_000);
 });
 
 describe("example names", () => {
@@ -151,5 +152,5 @@ describe("example names", () => {
     // experiments/demo-lab.ts gives every sixth of the 24 demo specimens this find.
     expect(rows.filter((r) => /^TV-/.test(r))).toHaveLength(4);
     expect(rows.every((r) => r.includes("Corvenlow Tarn"))).toBe(true);
-  });
+  }, 60_000);
 });
