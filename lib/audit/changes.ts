@@ -39,6 +39,11 @@ export function fieldLabel(key: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
+/** "Temp (°C)" → "temp (°C)" inside a path; abbreviations ("RH (%)") stay as they are. */
+function lowerFirst(label: string): string {
+  return /^[A-Z0-9-]{2,}\b/.test(label) ? label : label.charAt(0).toLowerCase() + label.slice(1);
+}
+
 const ISO_DATETIME = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(?::\d{2}(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})$/;
 
 /** One value as text: dates as elsewhere in the product (UTC with the zone named), yes/no, lists joined. */
@@ -75,7 +80,7 @@ function walk(before: unknown, after: unknown, path: string[], labels: string[],
       if (depth === 0 && SKIPPED.has(key)) continue;
       const inB = beforeExists && before != null && key in b;
       const inA = afterExists && after != null && key in a;
-      walk(b[key], a[key], [...path, key], [...labels, depth === 0 ? fieldLabel(key) : fieldLabel(key).toLowerCase()], out, inB, inA);
+      walk(b[key], a[key], [...path, key], [...labels, depth === 0 ? fieldLabel(key) : lowerFirst(fieldLabel(key))], out, inB, inA);
     }
     return;
   }

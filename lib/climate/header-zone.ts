@@ -113,5 +113,5 @@ export function zoneDisagreementMessage(stated: StatedZone, chosen: string, d: Z
   const at = new Date(d.wallMs).toISOString().slice(0, 16).replace("T", " ");
   const shiftMinutes = d.statedMinutes - d.chosenMinutes;
   const shift = Math.abs(shiftMinutes) % 60 === 0 ? `${Math.abs(shiftMinutes) / 60} h` : `${Math.abs(shiftMinutes)} min`;
-  return `The file's header states ${stated.label} (UTC${formatOffsetMinutes(d.statedMinutes)}), but the zone chosen, ${chosen}, is UTC${formatOffsetMinutes(d.chosenMinutes)} at ${at}: readings would be stored ${shift} ${shiftMinutes > 0 ? "later" : "earlier"} than the header says. Choose the zone the logger was set to.`;
+  return `The file's header states ${stated.label} (UTC${formatOffsetMinutes(d.statedMinutes)}), but the zone chosen, ${chosen}, is UTC${formatOffsetMinutes(d.chosenMinutes)} at ${at} on the file's clock: readings would be stored ${shift} ${shiftMinutes > 0 ? "later" : "earlier"} than the header says. Choose the zone the logger was set to.`;
 }

@@ -27,12 +27,14 @@ describe("audit change lines", () => {
 
   it("follows nested records two levels down and counts deeper structures", () => {
     const changes = auditChanges(
-      { status: "draft", options: { mapping: { time: 0, rhPercent: 1 }, timeZone: "UTC" }, assignments: [{ a: 1 }] },
-      { status: "running", options: { mapping: { time: 2, rhPercent: 1 }, timeZone: "Europe/Berlin" }, assignments: [{ a: 1 }, { a: 2 }] },
+      { status: "draft", options: { mapping: { time: 0, rhPercent: 1, tempC: 2 }, timeZone: "UTC" }, assignments: [{ a: 1 }] },
+      { status: "running", options: { mapping: { time: 2, rhPercent: 3, tempC: 4 }, timeZone: "Europe/Berlin" }, assignments: [{ a: 1 }, { a: 2 }] },
     );
     expect(changes).toEqual([
       { field: "status", label: "Status", before: "draft", after: "running" },
       { field: "options.mapping.time", label: "Options › mapping › time", before: "0", after: "2" },
+      { field: "options.mapping.rhPercent", label: "Options › mapping › RH (%)", before: "1", after: "3" },
+      { field: "options.mapping.tempC", label: "Options › mapping › temp (°C)", before: "2", after: "4" },
       { field: "options.timeZone", label: "Options › time zone", before: "UTC", after: "Europe/Berlin" },
       { field: "assignments", label: "Assignments", before: "1 entry", after: "2 entries" },
     ]);

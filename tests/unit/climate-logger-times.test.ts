@@ -96,7 +96,7 @@ describe("zone stated in the header", () => {
     const d = zoneDisagreement("-05:00", "UTC", [january]);
     expect(d).toEqual({ wallMs: january, statedMinutes: -300, chosenMinutes: 0 });
     expect(zoneDisagreementMessage({ zone: "-05:00", label: "UTC-05:00", header: "Time (UTC-05:00)" }, "UTC", d!)).toBe(
-      "The file's header states UTC-05:00 (UTC\u221205:00), but the zone chosen, UTC, is UTC±00:00 at 2026-01-15 12:00: readings would be stored 5 h earlier than the header says. Choose the zone the logger was set to.",
+      "The file's header states UTC-05:00 (UTC\u221205:00), but the zone chosen, UTC, is UTC±00:00 at 2026-01-15 12:00 on the file's clock: readings would be stored 5 h earlier than the header says. Choose the zone the logger was set to.",
     );
     expect(formatOffsetMinutes(330)).toBe("+05:30");
   });
