@@ -42,7 +42,7 @@ export const demoTreatments = [
   { key: "lacquer", name: "Acrylic lacquer", kind: "coating", description: "Two brushed coats of an acrylic lacquer in solvent.", protocol: "Two thin coats 1 h apart in a fume cupboard; cure 48 h before exposure." },
 ] as const;
 
-const findNames = ["Quillan Tarn", "Esker Holloway", "Marrowby Sands", "Fennick Lowe", "Drumcairn Scar", "Velloby Rigg"];
+const findNames = ["Corvenlow Tarn", "Esker Holloway", "Marrowby Sands", "Fennick Lowe", "Drumcairn Scar", "Velloby Rigg"];
 
 export type DemoSpecimen = { label: string; materialClass: "iron-meteorite" | "stony-iron"; findName: string; face: string; surfacePrep: string; massG: number; history: string; contaminationNotes: string };
 

@@ -21,7 +21,7 @@ export function SignUpForm() {
       <Field name="name" label="Your name" state={state} autoComplete="name" />
       <Field name="email" label="E-mail" type="email" state={state} autoComplete="email" />
       <Field name="password" label="Password" type="password" state={state} autoComplete="new-password" hint="At least 10 characters, mixing letters with digits or symbols." />
-      <Field name="labName" label="Lab or collection name" state={state} hint="For example: Hillcrest Museum meteorite store" />
+      <Field name="labName" label="Lab or collection name" state={state} hint="For example: Stellbrack Museum meteorite store" />
       <FormMessage state={state} />
       <SubmitButton pendingText="Sending…">Create lab</SubmitButton>
       <p className="text-sm muted">Already have an account? <a className="link" href="/sign-in">Sign in</a></p>

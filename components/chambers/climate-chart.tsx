@@ -4,6 +4,7 @@
 import { useEffect, useMemo, useRef, useState } from "react";
 import { VegaEmbed } from "react-vega";
 import type { VisualizationSpec } from "vega-embed";
+import { categoryScale } from "@/components/ui/chart-palette";
 import { EMBED_OPTIONS } from "./vega-embed-options";
 
 export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
@@ -23,7 +24,8 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
   }, []);
   const width = Math.max(240, boxWidth - 80);
   const spec = useMemo<VisualizationSpec>(() => {
-    const several = new Set(points.map((p) => p.instrument)).size > 1;
+    const instruments = [...new Set(points.map((p) => p.instrument))].sort((a, b) => a.localeCompare(b, "en"));
+    const several = instruments.length > 1;
     const label = (t: number) => `${new Date(t).toISOString().slice(0, 16).replace("T", " ")} UTC`;
     const rhPoints = points.map((p) => ({ ...p, time: label(p.t) }));
     const temps = points.flatMap((p) => [
@@ -56,7 +58,7 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
               encoding: {
                 x,
                 y: { field: "rh", type: "quantitative", title: "RH (%RH)", scale: { zero: false } },
-                ...(several ? { color: { field: "instrument", type: "nominal" as const, title: "Instrument" } } : { color: { value: "#1b7667" } }),
+                ...(several ? { color: { field: "instrument", type: "nominal" as const, title: "Instrument", scale: categoryScale(instruments) } } : { color: { value: "#1b7667" } }),
                 tooltip: rhTooltip,
               },
             },

@@ -4,8 +4,10 @@
 // again (the check that counts) and stores everything in one transaction — or nothing.
 import Link from "next/link";
 import { useEffect, useMemo, useState } from "react";
-import { importCsv, type CsvImportError } from "@/lib/climate/csv-import";
+import { importCsv, type CsvImportError, type CsvImportResult } from "@/lib/climate/csv-import";
 import { previewCsv } from "@/lib/climate/csv-preview";
+import { zoneDisagreement, zoneDisagreementMessage, zoneFromHeader } from "@/lib/climate/header-zone";
+import { readLocalTime } from "@/lib/climate/time-parse";
 import { CsvMappingFields, type MappingState } from "./csv-mapping-fields";
 import { useBrowserZone } from "./form-controls";
 
@@ -14,6 +16,8 @@ type Phase = { kind: "idle" } | { kind: "uploading"; pct: number } | { kind: "pa
 
 const MAX_FILE_BYTES = 9.5 * 1024 * 1024; // as the import route
 
+type Check = { rows: number; dup: number; errors: CsvImportError[]; total: number; first?: Date; last?: Date; zoneWarning?: string };
+
 const idx = (header: string[] | null, ref: unknown): string => (typeof ref === "string" && header ? String(Math.max(-1, header.indexOf(ref))) : typeof ref === "number" ? String(ref) : "-1");
 
 export function CsvImport({ chamberId, instruments }: { chamberId: string; instruments: string[] }) {
@@ -21,12 +25,31 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
   const [file, setFile] = useState<File | null>(null);
   const [text, setText] = useState("");
   const [m, setM] = useState<MappingState | null>(null);
-  const [check, setCheck] = useState<{ rows: number; dup: number; errors: CsvImportError[]; total: number; first?: Date; last?: Date } | null>(null);
+  const [check, setCheck] = useState<Check | null>(null);
   const [phase, setPhase] = useState<Phase>({ kind: "idle" });
 
-  useEffect(() => setM((cur) => (cur && cur.timeZone === "UTC" ? { ...cur, timeZone: zone } : cur)), [zone]);
+  const [zoneFromFile, setZoneFromFile] = useState(false);
+  useEffect(() => setM((cur) => (cur && cur.timeZone === "UTC" && !zoneFromFile ? { ...cur, timeZone: zone } : cur)), [zone, zoneFromFile]);
 
   const preview = useMemo(() => (text && m ? previewCsv(text, 12, { skipLines: m.skipLines, delimiter: m.delimiter }) : null), [text, m]);
+  // The zone the header of the chosen time column(s) states, and whether the chosen zone agrees with it
+  // at the times shown (the check repeats this over every row).
+  const stated = useMemo(() => {
+    if (!m || !preview || !m.hasHeader) return null;
+    const header = preview.rows[0] ?? [];
+    return zoneFromHeader([m.timeCol, m.timeCol2].filter((c) => c !== "-1").map((c) => header[Number(c)] ?? ""));
+  }, [m, preview]);
+  const previewZoneWarning = useMemo(() => {
+    if (!m || !preview || !stated) return null;
+    const chosen = m.timeZone.trim() || "UTC";
+    const cols = [m.timeCol, m.timeCol2].filter((c) => c !== "-1").map(Number);
+    const walls = preview.rows.slice(m.hasHeader ? 1 : 0).flatMap((r) => {
+      const t = readLocalTime(cols.map((c) => (r[c] ?? "").trim()).join(" "), m.dateFormat);
+      return t.ok && t.value.offsetMinutes === null ? [t.value.wallMs] : [];
+    });
+    const d = zoneDisagreement(stated.zone, chosen, walls.length > 0 ? walls : [Date.now()]);
+    return d ? zoneDisagreementMessage(stated, chosen, d) : null;
+  }, [m, preview, stated]);
 
   async function onFile(f: File | null) {
     setFile(f);
@@ -43,11 +66,12 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
     setText(t);
     const p = previewCsv(t, 12);
     const time = p.guessedMapping.time;
+    setZoneFromFile(p.statedZone !== null);
     setM({
       delimiter: p.delimiter, skipLines: p.guessedSkipLines, hasHeader: p.header !== null,
       timeCol: Array.isArray(time) ? idx(p.header, time[0]) : idx(p.header, time), timeCol2: Array.isArray(time) ? idx(p.header, time[1]) : "-1",
       rhCol: idx(p.header, p.guessedMapping.rhPercent), tempCol: idx(p.header, p.guessedMapping.tempC), dewCol: idx(p.header, p.guessedMapping.dewPointC),
-      temperatureUnit: p.guessedTemperatureUnit, dateFormat: p.guessedDateFormat ?? "auto", timeZone: zone, instrument: instruments[0] ?? "logger",
+      temperatureUnit: p.guessedTemperatureUnit, dateFormat: p.guessedDateFormat ?? "auto", timeZone: p.statedZone?.zone ?? zone, instrument: instruments[0] ?? "logger",
     });
   }
 
@@ -65,8 +89,9 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
   function runCheck() {
     if (!m || mappingProblem) return;
     try {
-      const r = importCsv(text, options(m) as Parameters<typeof importCsv>[1]);
-      setCheck({ rows: r.rows.length, dup: r.duplicatesSkipped, errors: r.errors.slice(0, 200), total: r.errors.length, first: r.rows[0]?.takenAt, last: r.rows[r.rows.length - 1]?.takenAt });
+      const opts = options(m);
+      const r = importCsv(text, opts as Parameters<typeof importCsv>[1]);
+      setCheck({ rows: r.rows.length, dup: r.duplicatesSkipped, errors: r.errors.slice(0, 200), total: r.errors.length, first: r.rows[0]?.takenAt, last: r.rows[r.rows.length - 1]?.takenAt, zoneWarning: fileZoneWarning(r, opts.timeZone) });
     } catch (err) {
       setCheck({ rows: 0, dup: 0, errors: [{ line: 0, message: (err as Error).message }], total: 1 });
     }
@@ -133,9 +158,14 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
                 ))}
               </tbody>
             </table>
+            <p className="text-sm mt-2" data-testid="stated-zone">
+              {stated ? <>The header states the times are in <strong>{stated.label}</strong> (“{stated.header}”); that zone is the default below.</>
+                : "The header states no time zone: times without an offset are read in the zone chosen below."}
+            </p>
           </section>
           <CsvMappingFields m={m} setM={(next) => { setM(next); setCheck(null); }} header={m.hasHeader ? preview.rows[0] ?? null : null} columnCount={Math.max(0, ...preview.rows.map((r) => r.length))} text={text} />
           {mappingProblem && <p className="text-sm text-rust-600" role="alert">{mappingProblem}</p>}
+          {(check ? check.zoneWarning : previewZoneWarning) && <p className="text-sm text-rust-700 panel p-3" role="alert" data-testid="zone-warning">{check ? check.zoneWarning : previewZoneWarning}</p>}
           <div className="flex flex-wrap gap-3">
             <button type="button" className="btn-quiet" onClick={runCheck} disabled={busy || !!mappingProblem}>Check the file</button>
             <button type="button" className="btn" onClick={upload} disabled={busy || !!mappingProblem || !check || check.total > 0 || check.rows === 0}>
@@ -162,7 +192,13 @@ export function CsvImport({ chamberId, instruments }: { chamberId: string; instr
   );
 }
 
-function CheckResult({ check }: { check: { rows: number; dup: number; errors: CsvImportError[]; total: number; first?: Date; last?: Date } }) {
+/** The header-versus-chosen zone warning over every row of the file, naming the first row affected. */
+function fileZoneWarning(r: CsvImportResult, chosen: string): string | undefined {
+  if (!r.statedZone || !r.zoneDisagreement) return undefined;
+  return `Line ${r.zoneDisagreement.line}: ${zoneDisagreementMessage(r.statedZone, chosen, r.zoneDisagreement)}`;
+}
+
+function CheckResult({ check }: { check: Check }) {
   if (check.total > 0) {
     return (
       <section className="panel p-3 space-y-2" aria-labelledby="check-h">
@@ -182,9 +218,15 @@ function ErrorList({ errors, total }: { errors: CsvImportError[]; total: number 
   return (
     <>
       <ul className="text-sm font-mono max-h-64 overflow-auto space-y-0.5">
-        {errors.map((e, i) => <li key={i}>{e.line > 0 ? `Line ${e.line}: ` : ""}{e.message}</li>)}
+        {errors.map((e, i) => <li key={i}>{errorText(e)}</li>)}
       </ul>
       {total > errors.length && <p className="text-xs muted">…and {(total - errors.length).toLocaleString("en")} more.</p>}
     </>
   );
+}
+
+/** "Line 4, column "Date Time": …" when the message names a column, else "Line 4: …". */
+function errorText(e: CsvImportError): string {
+  if (e.line <= 0) return e.message;
+  return /^Columns? /.test(e.message) ? `Line ${e.line}, c${e.message.slice(1)}` : `Line ${e.line}: ${e.message}`;
 }

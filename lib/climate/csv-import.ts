@@ -4,7 +4,8 @@
 // papaparse does the splitting (quotes, embedded delimiters); everything else is ours.
 
 import { detectDelimiter, eachRow, parseLoggerNumber, prepareText, type ColumnRef, type CsvColumnMapping } from "@/lib/climate/csv-rows";
-import { parseLocalTime, zoneResolver, type DateFormat } from "@/lib/climate/time-parse";
+import { zoneFromHeader, type StatedZone, type ZoneDisagreement } from "@/lib/climate/header-zone";
+import { readLocalTime, zoneResolver, type DateFormat, type ZoneResolver } from "@/lib/climate/time-parse";
 
 export type CsvDelimiter = "auto" | "," | ";" | "\t";
 
@@ -15,7 +16,10 @@ export interface CsvImportOptions {
   skipLines?: number;
   /** Whether the first row after the skipped lines is a header. Default true. */
   hasHeader?: boolean;
-  /** Zone for timestamps without an offset: IANA name ("Europe/Berlin") or offset ("+02:00"). Default UTC. */
+  /**
+   * Zone for timestamps without an offset: IANA name ("Europe/Berlin") or offset ("+02:00"). Default: the
+   * zone the time column's header states ("Date Time, GMT+01:00"), else UTC.
+   */
   timeZone?: string;
   /** Unit of the temperature and dew point columns. Default "C". */
   temperatureUnit?: "C" | "F";
@@ -40,12 +44,20 @@ export interface CsvImportResult {
   rows: ImportedReading[];
   errors: CsvImportError[];
   duplicatesSkipped: number;
+  /** The zone the time column's header states, if any. */
+  statedZone: StatedZone | null;
+  /** The first row at which the zone used gives another offset than the stated one (a warning, not an error). */
+  zoneDisagreement: (ZoneDisagreement & { line: number }) | null;
 }
 
 export const TEMP_LIMITS_C: readonly [number, number] = [-60, 90];
 
 interface ResolvedColumns {
   time: number[];
+  /** How errors name the time column(s): 'column "Date Time"' or 'column 1'. */
+  timeLabel: string;
+  /** Header cells of the time column(s), empty without a header. */
+  timeHeaders: string[];
   rh: number;
   temp: number | null;
   dew: number | null;
@@ -65,8 +77,12 @@ function resolveColumn(ref: ColumnRef, header: string[] | null, label: string): 
 
 function resolveColumns(mapping: CsvColumnMapping, header: string[] | null): ResolvedColumns {
   const timeRefs: readonly ColumnRef[] = Array.isArray(mapping.time) ? mapping.time : [mapping.time as ColumnRef];
+  const time = timeRefs.map((ref) => resolveColumn(ref, header, "Time"));
+  const names = time.map((i) => (header?.[i]?.trim() ? `"${header[i].trim()}"` : `${i + 1}`));
   return {
-    time: timeRefs.map((ref) => resolveColumn(ref, header, "Time")),
+    time,
+    timeLabel: names.length === 1 ? `column ${names[0]}` : `columns ${names.join(" and ")}`,
+    timeHeaders: header ? time.map((i) => header[i] ?? "") : [],
     rh: resolveColumn(mapping.rhPercent, header, "RH"),
     temp: mapping.tempC == null ? null : resolveColumn(mapping.tempC, header, "Temperature"),
     dew: mapping.dewPointC == null ? null : resolveColumn(mapping.dewPointC, header, "Dew point"),
@@ -78,7 +94,11 @@ export function importCsv(text: string, options: CsvImportOptions): CsvImportRes
   if (!Number.isInteger(skipLines) || skipLines < 0) throw new RangeError("skipLines must be a whole number ≥ 0");
   const { body, lineOffset } = prepareText(text, skipLines);
   const delimiter = !options.delimiter || options.delimiter === "auto" ? detectDelimiter(body) : options.delimiter;
-  const zone = zoneResolver(options.timeZone ?? "UTC");
+  // A zone given in the options is checked before any row is read; without one, the header decides.
+  let zone: ZoneResolver | null = options.timeZone ? zoneResolver(options.timeZone) : null;
+  let statedZone: StatedZone | null = null;
+  let stated: ZoneResolver | null = null;
+  let zoneDisagreement: CsvImportResult["zoneDisagreement"] = null;
   const dateFormat = options.dateFormat ?? "auto";
   const fahrenheit = options.temperatureUnit === "F";
   const toC = (value: number) => (fahrenheit ? ((value - 32) * 5) / 9 : value);
@@ -91,6 +111,7 @@ export function importCsv(text: string, options: CsvImportOptions): CsvImportRes
   let sorted = true;
   let lastMs = -Infinity;
   let columns: ResolvedColumns | null = options.hasHeader === false ? resolveColumns(options.mapping, null) : null;
+  if (columns) zone ??= zoneResolver("UTC");
   let needed = columns ? Math.max(...columns.time, columns.rh, columns.temp ?? 0, columns.dew ?? 0) + 1 : 0;
   let failed = false;
 
@@ -105,6 +126,9 @@ export function importCsv(text: string, options: CsvImportOptions): CsvImportRes
         return;
       }
       needed = Math.max(...columns.time, columns.rh, columns.temp ?? 0, columns.dew ?? 0) + 1;
+      statedZone = zoneFromHeader(columns.timeHeaders);
+      zone ??= zoneResolver(statedZone?.zone ?? "UTC");
+      if (statedZone && options.timeZone) stated = zoneResolver(statedZone.zone);
       return;
     }
     if (parseError) {
@@ -117,9 +141,19 @@ export function importCsv(text: string, options: CsvImportOptions): CsvImportRes
     }
     const problems: string[] = [];
     const timeText = columns.time.length === 1 ? cells[columns.time[0]] : columns.time.map((i) => cells[i].trim()).join(" ");
-    const local = parseLocalTime(timeText, dateFormat);
-    const takenMs = local === null ? Number.NaN : local.offsetMinutes === null ? zone.toUtcMs(local.wallMs) : local.wallMs - local.offsetMinutes * 60_000;
-    if (Number.isNaN(takenMs)) problems.push(`time "${timeText.trim()}" is not a recognised date and time`);
+    const local = readLocalTime(timeText, dateFormat);
+    let takenMs = Number.NaN;
+    if (!local.ok) problems.push(`${columns.timeLabel}: ${local.problem}`);
+    else if (local.value.offsetMinutes !== null) takenMs = local.value.wallMs - local.value.offsetMinutes * 60_000;
+    else {
+      takenMs = (zone as ZoneResolver).toUtcMs(local.value.wallMs);
+      if (stated && !zoneDisagreement) {
+        const statedMs = stated.toUtcMs(local.value.wallMs);
+        if (statedMs !== takenMs) {
+          zoneDisagreement = { line, wallMs: local.value.wallMs, statedMinutes: (local.value.wallMs - statedMs) / 60_000, chosenMinutes: (local.value.wallMs - takenMs) / 60_000 };
+        }
+      }
+    }
 
     const rh = parseLoggerNumber(cells[columns.rh]);
     if (rh === null) problems.push("RH is empty");
@@ -164,7 +198,7 @@ export function importCsv(text: string, options: CsvImportOptions): CsvImportRes
     errors.push({ line: lineOffset + 1, message: "The file has no header row after the skipped lines" });
   }
   if (!sorted) rows.sort((a, b) => a.takenAt.getTime() - b.takenAt.getTime());
-  return { rows, errors, duplicatesSkipped };
+  return { rows, errors, duplicatesSkipped, statedZone, zoneDisagreement };
 }
 
 function round1(value: number): number {

@@ -3,6 +3,7 @@
 // form; the user confirms them.
 
 import { detectDelimiter, eachRow, prepareText, type CsvColumnMapping } from "@/lib/climate/csv-rows";
+import { zoneFromHeader, type StatedZone } from "@/lib/climate/header-zone";
 import { guessDateFormat, type DateFormat } from "@/lib/climate/time-parse";
 
 export interface CsvPreview {
@@ -18,6 +19,8 @@ export interface CsvPreview {
   guessedMapping: Partial<CsvColumnMapping>;
   guessedTemperatureUnit: "C" | "F";
   guessedDateFormat: Exclude<DateFormat, "auto"> | null;
+  /** The zone the guessed time column's header states ("Date Time, GMT+01:00"), if any. */
+  statedZone: StatedZone | null;
 }
 
 const HEADER_SCAN_ROWS = 30;
@@ -65,11 +68,14 @@ export function previewCsv(text: string, n = 10, options: { skipLines?: number; 
   const { mapping, unit } = header ? guessMapping(header) : { mapping: {}, unit: "C" as const };
 
   let guessedDateFormat: Exclude<DateFormat, "auto"> | null = null;
-  const firstData = scanned[headerIndex + 1];
-  if (header && firstData && mapping.time !== undefined) {
+  let statedZone: StatedZone | null = null;
+  if (header && mapping.time !== undefined) {
     const refs = Array.isArray(mapping.time) ? mapping.time : [mapping.time];
-    const sample = refs.map((ref) => firstData.cells[header.indexOf(String(ref))] ?? "").join(" ");
-    guessedDateFormat = guessDateFormat(sample);
+    const columns = refs.map((ref) => header.indexOf(String(ref)));
+    // Every scanned data row: "11/18/2026" on a later row settles an order the first row leaves open.
+    const samples = scanned.slice(headerIndex + 1).map((r) => columns.map((i) => r.cells[i] ?? "").join(" "));
+    guessedDateFormat = guessDateFormat(samples);
+    statedZone = zoneFromHeader(columns.map((i) => header[i] ?? ""));
   }
   const fromRow = Math.max(0, headerIndex);
   const shown = scanned.slice(fromRow, fromRow + n);
@@ -82,5 +88,6 @@ export function previewCsv(text: string, n = 10, options: { skipLines?: number; 
     guessedMapping: mapping,
     guessedTemperatureUnit: unit,
     guessedDateFormat,
+    statedZone,
   };
 }

@@ -230,7 +230,8 @@ export const csvImportOptionsSchema = z.object({
   delimiter: z.enum(["auto", ",", ";", "\t"]).default("auto"),
   skipLines: z.number().int().min(0).max(1000).default(0),
   hasHeader: z.boolean().default(true),
-  timeZone: z.string().trim().min(1).max(64).default("UTC"),
+  // Without a zone, the one the time column's header states ("Date Time, GMT+01:00"), else UTC (importCsv).
+  timeZone: z.string().trim().min(1).max(64).optional(),
   temperatureUnit: z.enum(["C", "F"]).default("C"),
   dateFormat: z.enum(["auto", "iso", "ymd", "dmy", "mdy"]).default("auto"),
 });

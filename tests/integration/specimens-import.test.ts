@@ -26,8 +26,8 @@ describe("specimen CSV import", () => {
   it("imports nothing when any row is wrong and reports each problem by line", async () => {
     const csv = [
       "label,material_class,find_name,mass_g,description", // 1
-      "NEW-1,iron meteorite,Quillan Tarn,12.5,fine", //        2 ok
-      "NEW-2,meteorite,Quillan Tarn,3,x", //                  3 unknown class
+      "NEW-1,iron meteorite,Corvenlow Tarn,12.5,fine", //        2 ok
+      "NEW-2,meteorite,Corvenlow Tarn,3,x", //                  3 unknown class
       "", //                                                   4 blank, skipped
       "NEW-3,stony-iron,Esker Holloway,-4,x", //              5 negative mass
       'NEW-4,chondrite,Velloby Rigg,8,"two', //               6 quoted cell over two lines

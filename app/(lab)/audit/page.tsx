@@ -3,15 +3,10 @@ import { listAuditEntities, listAuditEvents } from "@/db/queries/audit";
 import { listMembers } from "@/db/queries/memberships";
 import { labPage } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
+import { AuditChanges } from "@/components/audit/audit-changes";
 import { EmptyState } from "@/components/ui/empty-state";
 
 export const metadata = { title: "Audit trail" };
-
-function Json({ value, label }: { value: unknown; label: string }) {
-  if (value == null) return <span className="muted">—</span>;
-  // Focusable so keyboard users can scroll a long record.
-  return <pre tabIndex={0} aria-label={label} className="text-xs font-mono whitespace-pre-wrap break-all max-h-40 overflow-auto">{JSON.stringify(value, null, 1)}</pre>;
-}
 
 export default async function AuditPage({ searchParams }: { searchParams: Promise<Record<string, string | undefined>> }) {
   const ctx = await labPage("/audit");
@@ -52,7 +47,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
       {events.length === 0 ? <EmptyState text="No events match this filter." /> : (
         <div className="panel overflow-x-auto">
           <table className="data">
-            <thead><tr><th>When</th><th>Who</th><th>What</th><th>Entity</th><th>Before</th><th>After</th></tr></thead>
+            <thead><tr><th>When</th><th>Who</th><th>What</th><th>Entity</th><th>Changes</th></tr></thead>
             <tbody>
               {events.map((e) => (
                 <tr key={e.id}>
@@ -60,8 +55,7 @@ export default async function AuditPage({ searchParams }: { searchParams: Promis
                   <td>{e.userName ?? "System"}</td>
                   <td>{e.summary ?? e.action}</td>
                   <td><span className="font-mono text-xs">{e.entity}</span><br /><span className="text-xs muted">{e.action}</span></td>
-                  <td><Json value={e.before} label="Record before" /></td>
-                  <td><Json value={e.after} label="Record after" /></td>
+                  <td className="min-w-[18rem]"><AuditChanges before={e.before} after={e.after} hidden={e.hidden} /></td>
                 </tr>
               ))}
             </tbody>

@@ -28,7 +28,7 @@ export default async function SpecimensPage({ searchParams }: { searchParams: Pr
       </div>
       <form method="get" className="flex flex-wrap items-end gap-3" role="search" aria-label="Filter specimens">
         <label className="text-sm">Label or find name
-          <input name="q" defaultValue={params.q ?? ""} className="field" placeholder="e.g. TV-M or Quillan" />
+          <input name="q" defaultValue={params.q ?? ""} className="field" placeholder="e.g. TV-M or Corvenlow" />
         </label>
         <label className="text-sm">Material class
           <select name="materialClass" defaultValue={params.materialClass ?? ""} className="field">
