@@ -1,12 +1,8 @@
 // vega-lite specs for the comparison charts, built on the server from the analysis result.
 import type { VisualizationSpec } from "vega-embed";
 import type { CurveMethod, GroupResult } from "@/lib/analysis/result";
+import { categoryScale } from "@/components/ui/chart-palette";
 
-// Our own categorical palette: verdigris, rust and iron first, then tones that stay apart in print.
-export const PALETTE = [
-  "#1b7667", "#c95b1f", "#4a525c", "#6b4fa8", "#2f78b5", "#a8841f",
-  "#8a3b5e", "#3faf99", "#e07638", "#8f98a3", "#4f8a2b", "#1f4468",
-];
 
 /** The shared colour encoding; the legend is drawn once, from the layer that asks for it. */
 function colour(groups: readonly GroupResult[], legend = true) {
@@ -14,7 +10,7 @@ function colour(groups: readonly GroupResult[], legend = true) {
     field: "group",
     type: "nominal" as const,
     title: null,
-    scale: { domain: groups.map((g) => g.label), range: groups.map((_, i) => PALETTE[i % PALETTE.length]) },
+    scale: categoryScale(groups.map((g) => g.label)),
     // Layers share one legend; a layer with `legend: null` would switch it off for all of them.
     ...(legend ? { legend: { orient: "bottom" as const, columns: groups.length > 4 ? 2 : groups.length, labelLimit: 320, symbolType: "stroke", symbolStrokeWidth: 3, symbolOpacity: 1 } } : {}),
   };

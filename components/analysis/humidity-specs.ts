@@ -2,11 +2,12 @@
 // model check (fitted share rusted over the Turnbull estimate, per humidity level).
 import type { VisualizationSpec } from "vega-embed";
 import type { HumidityResponse } from "@/lib/analysis/humidity-response";
-import { BASE, PALETTE } from "./chart-specs";
+import { categoryScale } from "@/components/ui/chart-palette";
+import { BASE } from "./chart-specs";
 
 const colourOf = (domain: readonly string[]) => ({
   field: "group", type: "nominal" as const, title: null,
-  scale: { domain: [...domain], range: domain.map((_, i) => PALETTE[i % PALETTE.length]) },
+  scale: categoryScale(domain),
 });
 
 export function responseSpec(r: HumidityResponse): VisualizationSpec {
