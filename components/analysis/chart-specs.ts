@@ -3,7 +3,6 @@ import type { VisualizationSpec } from "vega-embed";
 import type { CurveMethod, GroupResult } from "@/lib/analysis/result";
 import { categoryScale } from "@/components/ui/chart-palette";
 
-
 /** The shared colour encoding; the legend is drawn once, from the layer that asks for it. */
 function colour(groups: readonly GroupResult[], legend = true) {
   return {
