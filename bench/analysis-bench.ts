@@ -48,6 +48,7 @@ function syntheticOutcomes(): SpecimenOutcome[] {
       observations,
       interval: first < 0 ? { lower: days[days.length - 1], upper: null } : { lower: first === 0 ? 0 : days[first - 1], upper: days[first] },
       rusted: first >= 0, finalAreaPercent: observations[observations.length - 1].areaPercent, finalDay: 224, weepingSeen: false,
+      entry: 0, weepingInterval: { lower: 224, upper: null }, rustedEarlier: false, weptEarlier: false,
     });
   }
   return out;

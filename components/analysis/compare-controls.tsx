@@ -40,7 +40,7 @@ export function CompareControls({ base, q }: { base: string; q: AnalysisQuery })
     <nav aria-label="Comparison options" className="panel p-3 flex flex-wrap gap-6 no-print">
       <Choice id="groupby-l" label="Group by" options={GROUPINGS} labels={GROUPING_LABELS} current={q.groupBy} href={(v) => hrefFor(base, q, { groupBy: v })} />
       <Choice id="outcome-l" label="Outcome" options={OUTCOMES} labels={OUTCOME_LABELS} current={q.outcome} href={(v) => hrefFor(base, q, { outcome: v })} />
-      {q.outcome === "first-rust" && (
+      {(q.outcome === "first-rust" || q.outcome === "weeping") && (
         <Choice id="method-l" label="Curves" options={CURVE_METHODS} labels={METHOD_LABELS} current={q.method} href={(v) => hrefFor(base, q, { method: v })} />
       )}
     </nav>

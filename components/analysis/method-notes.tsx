@@ -1,4 +1,5 @@
 // How the numbers in the report were made, with the published sources of each method.
+import { MOVED_SPECIMEN_NOTE } from "@/lib/analysis/sentences";
 export function MethodNotes() {
   return (
     <section className="panel p-4 space-y-3 text-sm break-inside-avoid-page" aria-labelledby="method-h">
@@ -8,21 +9,31 @@ export function MethodNotes() {
           <strong>Outcome.</strong> Each specimen placement is scored at every done inspection; only the score of record counts.
           A score shows rust when it has any spot, any rusted area or weeping. Time to first rust is the interval
           (last clean inspection, first rusted inspection] in days since the trial start, from the times inspections were done;
-          a specimen never seen rusted is right-censored at its last clean inspection.
+          a specimen never seen rusted is right-censored at its last clean inspection. Time to first weeping is read the same way
+          from the inspections with weeping.
         </li>
         <li>
-          <strong>Curves.</strong> Turnbull&apos;s nonparametric maximum-likelihood estimate for interval-censored data, drawn with each
+          <strong>Moved specimens.</strong> {MOVED_SPECIMEN_NOTE} In the estimates and tests each later placement enters at the move
+          (delayed entry, i.e. left truncation: at risk only between the move and its last inspection).
+        </li>
+        <li>
+          <strong>Curves.</strong> Turnbull&apos;s nonparametric maximum-likelihood estimate for interval-censored data (with the moved
+          specimens&apos; truncation handled by Turnbull&apos;s self-consistency algorithm), drawn with each
           drop at the right end of its interval; no confidence band is drawn for it. Kaplan–Meier on right-endpoint times with
           Greenwood variance and log-transformed 95 % limits; the median&apos;s interval is read off those limits (Brookmeyer–Crowley).
+          Medians follow R&apos;s rule: where the curve sits exactly at one half, the median is the midpoint to the next drop.
         </li>
         <li>
           <strong>Tests.</strong> k-group log-rank test on right-endpoint times, which places each first rust at the inspection where it
-          was seen; pairwise log-rank tests with Holm&apos;s step-down adjustment. Fisher&apos;s exact test (r × 2) of rusted by the last
+          was seen; pairwise log-rank tests with Holm&apos;s step-down adjustment. Treatments and material classes are compared with the
+          log-rank test stratified by chamber (within each chamber, then combined), so jars at different humidities are not pooled;
+          chambers, and chamber × treatment groups, are compared unstratified. Fisher&apos;s exact test (r × 2) of rusted by the last
           inspection; Kruskal–Wallis test of the final rusted area. All two-sided, α = 0.05.
         </li>
         <li>
-          <strong>Scorer agreement.</strong> Cohen&apos;s κ between the scorer of record and a blind second scorer on ASTM D610 grades
-          (0–10) of the same photos, unweighted and quadratic-weighted; described with Landis and Koch&apos;s bands.
+          <strong>Scorer agreement.</strong> Cohen&apos;s κ between the scorer of record and a blind second scorer on the rust / no-rust
+          call of the same photos (the call that defines first rust: any spot, any rusted area or weeping); then κ on ASTM D610
+          grades (0–10), unweighted and quadratic-weighted; described with Landis and Koch&apos;s bands.
         </li>
         <li>Implementations are checked against R&apos;s survival package (survfit, survdiff), fisher.test and p.adjust on published data sets.</li>
       </ul>

@@ -1,4 +1,5 @@
-// Per-specimen outcomes: the rows behind every curve and test, as in outcomes.csv.
+// Per-specimen outcomes: the rows behind every curve and test, as in outcomes.csv. A moved specimen
+// has one row per jar; a row after the specimen had already rusted is listed but marked not at risk.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { MATERIAL_LABELS } from "@/lib/analysis/groups";
 import { fmtDay, fmtPercent } from "./format";
@@ -10,7 +11,7 @@ export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[
         <thead>
           <tr>
             <th scope="col">Specimen</th><th scope="col">Material</th><th scope="col">Chamber</th><th scope="col">Treatment</th>
-            <th scope="col" className="text-right!">scored</th><th scope="col">First rust (days)</th><th scope="col" className="text-right!">final area</th>
+            <th scope="col" className="text-right!">scored</th><th scope="col">First rust (days)</th><th scope="col">First weeping (days)</th><th scope="col" className="text-right!">final area</th>
           </tr>
         </thead>
         <tbody>
@@ -22,9 +23,17 @@ export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[
               <td>{o.treatmentName}</td>
               <td className="text-right tabular-nums">{o.observations.length}</td>
               <td className="tabular-nums">
-                {!o.interval ? "not scored yet"
+                {o.entry > 0 && <span className="block text-xs muted">moved in on day {fmtDay(o.entry)}</span>}
+                {o.rustedEarlier ? <span data-testid="rusted-earlier">rusted before the move: not at risk, left out of the curves and tests</span>
+                  : !o.interval ? "not scored yet"
                   : o.interval.upper === null ? `clean through day ${fmtDay(o.interval.lower)}`
-                  : `(${fmtDay(o.interval.lower)}, ${fmtDay(o.interval.upper)}]${o.weepingSeen ? " · weeping" : ""}`}
+                  : `(${fmtDay(o.interval.lower)}, ${fmtDay(o.interval.upper)}]`}
+              </td>
+              <td className="tabular-nums">
+                {o.weptEarlier ? "wept before the move"
+                  : !o.weepingInterval ? "—"
+                  : o.weepingInterval.upper === null ? "none seen"
+                  : `(${fmtDay(o.weepingInterval.lower)}, ${fmtDay(o.weepingInterval.upper)}]`}
               </td>
               <td className="text-right tabular-nums">{fmtPercent(o.finalAreaPercent)}</td>
             </tr>

@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, gte, inArray, isNotNull, lte, or, sql } from "drizzle-orm";
 import { compareGroups, scorerAgreement, type GradePair } from "@/lib/analysis/compare";
-import type { ComparisonResult, CurveMethod } from "@/lib/analysis/result";
+import type { ComparisonResult, CurveMethod, Endpoint } from "@/lib/analysis/result";
 import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
 import type { Grouping } from "@/lib/analysis/groups";
 import { trialDataPackage } from "@/lib/export/trial-package";
@@ -80,24 +80,31 @@ export async function loadSpecimenOutcomes({ labId, trial, specimenId }: { labId
 }
 
 /**
- * ASTM grade pairs (score of record, blind second score) on the same inspection and specimen. With
- * several blind scorers, the one who scored most photos is taken: kappa compares exactly two raters.
+ * Score pairs (score of record, blind second score) on the same inspection and specimen: the rust
+ * evidence of each (spot count, area, weeping: the rust call) and the ASTM grades where both gave
+ * one. With several blind scorers, the one who scored most photos is taken: kappa compares exactly
+ * two raters.
  */
 export async function loadGradePairs({ labId, trialId }: { labId: string; trialId: string }): Promise<GradePair[]> {
   const rows = await db
-    .select({ inspectionId: scores.inspectionId, specimenId: scores.specimenId, scorerId: scores.scorerId, isRecord: scores.isRecord, blind: scores.blind, grade: scores.astmGrade })
+    .select({
+      inspectionId: scores.inspectionId, specimenId: scores.specimenId, scorerId: scores.scorerId, isRecord: scores.isRecord, blind: scores.blind,
+      grade: scores.astmGrade, spotCount: scores.spotCount, areaPercent: scores.areaPercent, weeping: scores.weeping,
+    })
     .from(scores)
     .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
-    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), isNotNull(inspections.doneAt), isNotNull(scores.astmGrade)));
-  const record = new Map<string, { scorerId: string | null; grade: number }>();
-  for (const r of rows) if (r.isRecord) record.set(`${r.inspectionId}|${r.specimenId}`, { scorerId: r.scorerId, grade: r.grade! });
+    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), isNotNull(inspections.doneAt)));
+  type Row = (typeof rows)[number];
+  const evidence = (r: Row) => ({ spotCount: r.spotCount, areaPercent: r.areaPercent, weeping: r.weeping });
+  const record = new Map<string, Row>();
+  for (const r of rows) if (r.isRecord) record.set(`${r.inspectionId}|${r.specimenId}`, r);
   const byScorer = new Map<string, GradePair[]>();
   for (const r of rows) {
     if (r.isRecord || !r.blind || !r.scorerId) continue;
     const rec = record.get(`${r.inspectionId}|${r.specimenId}`);
     if (!rec || rec.scorerId === r.scorerId) continue;
     const list = byScorer.get(r.scorerId) ?? [];
-    list.push({ recordGrade: rec.grade, blindGrade: r.grade! });
+    list.push({ recordGrade: rec.grade, blindGrade: r.grade, record: evidence(rec), blind: evidence(r) });
     byScorer.set(r.scorerId, list);
   }
   return [...byScorer.values()].sort((a, b) => b.length - a.length)[0] ?? [];
@@ -115,13 +122,13 @@ export interface TrialAnalysis {
 
 /** Everything the compare page, the report and the JSON endpoint show; another lab's trial is not found. */
 export async function getTrialAnalysis(
-  { labId, trialId, groupBy, method }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod },
+  { labId, trialId, groupBy, method, endpoint }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod; endpoint?: Endpoint },
 ): Promise<TrialAnalysis> {
   const trial = await getTrial({ labId, trialId });
   const [loaded, pairs] = await Promise.all([loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId })]);
   const scored = loaded.outcomes.some((o) => o.interval);
   const comparison = scored
-    ? compareGroups(loaded.outcomes, { groupBy, method, agreement: scorerAgreement(pairs) })
+    ? compareGroups(loaded.outcomes, { groupBy, method, endpoint, agreement: scorerAgreement(pairs) })
     : null;
   return { trial, ...loaded, comparison };
 }

@@ -3,6 +3,7 @@ import "server-only";
 import { and, asc, eq, isNotNull } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { blandAltman, cohensKappa, type BlandAltmanResult } from "@/lib/stats/agreement";
+import { isRusted } from "@/lib/stats/outcomes";
 import { assertWritable } from "@/lib/trials/lock";
 import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
@@ -83,6 +84,8 @@ export type PairAgreement = {
   b: { id: string; name: string };
   /** Items (specimen × inspection) both scored with a grade. */
   n: number;
+  /** Kappa on the rust / no-rust call (isRusted) over every item both scored; null when undefined. */
+  rustCall: { n: number; kappa: number | null; agreed: number };
   kappa: { none: number; linear: number; quadratic: number } | null;
   /** Area % of a minus b; null when fewer than two paired areas. */
   blandAltman: BlandAltmanResult | null;
@@ -91,17 +94,20 @@ export type PairAgreement = {
   points: { mean: number; diff: number }[];
 };
 
-/** Kappa (ASTM grades) and Bland–Altman (area %) for every pair of scorers who scored the same items. */
+/** Kappa on the rust call and on ASTM grades, and Bland–Altman (area %), for every pair of scorers who scored the same items. */
 export async function scorerAgreement({ labId, trialId }: { labId: string; trialId: string }): Promise<{ scorers: { id: string; name: string; n: number }[]; pairs: PairAgreement[] }> {
   const rows = await db
-    .select({ scorerId: scores.scorerId, name: users.name, inspectionId: scores.inspectionId, specimenId: scores.specimenId, grade: scores.astmGrade, area: scores.areaPercent })
+    .select({
+      scorerId: scores.scorerId, name: users.name, inspectionId: scores.inspectionId, specimenId: scores.specimenId,
+      grade: scores.astmGrade, area: scores.areaPercent, spotCount: scores.spotCount, weeping: scores.weeping,
+    })
     .from(scores)
     .innerJoin(users, eq(users.id, scores.scorerId))
     .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), isNotNull(scores.scorerId)));
-  const byScorer = new Map<string, { name: string; items: Map<string, { grade: number | null; area: number }> }>();
+  const byScorer = new Map<string, { name: string; items: Map<string, { grade: number | null; area: number; rusted: boolean }> }>();
   for (const r of rows) {
     const s = byScorer.get(r.scorerId!) ?? { name: r.name, items: new Map() };
-    s.items.set(`${r.inspectionId}|${r.specimenId}`, { grade: r.grade, area: r.area });
+    s.items.set(`${r.inspectionId}|${r.specimenId}`, { grade: r.grade, area: r.area, rusted: isRusted({ spotCount: r.spotCount, areaPercent: r.area, weeping: r.weeping }) });
     byScorer.set(r.scorerId!, s);
   }
   const scorers = [...byScorer.entries()].map(([id, s]) => ({ id, name: s.name, n: s.items.size })).sort((x, y) => x.name.localeCompare(y.name) || x.id.localeCompare(y.id));
@@ -122,9 +128,13 @@ export async function scorerAgreement({ labId, trialId }: { labId: string; trial
         quadratic: cohensKappa(ga, gb, { categories: ASTM_CATEGORIES, weights: "quadratic" }),
       };
       if (keys.length === 0) continue;
+      const ca = keys.map((k) => (A.get(k)!.rusted ? 1 : 0));
+      const cb = keys.map((k) => (B.get(k)!.rusted ? 1 : 0));
+      const callKappa = cohensKappa(ca, cb, { categories: 2 });
       pairs.push({
         a: { id: scorers[i].id, name: scorers[i].name }, b: { id: scorers[j].id, name: scorers[j].name },
         n: graded.length, kappa, exactMatches: ga.filter((g, k) => g === gb[k]).length,
+        rustCall: { n: keys.length, kappa: Number.isFinite(callKappa) ? callKappa : null, agreed: ca.filter((x, k) => x === cb[k]).length },
         blandAltman: keys.length >= 2 ? blandAltman(aa, ab) : null,
         points: aa.map((x, k) => ({ mean: (x + ab[k]) / 2, diff: x - ab[k] })),
       });

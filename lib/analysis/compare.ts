@@ -1,41 +1,75 @@
 // A full comparison of groups of specimens: curves, medians, tests, growth and final state, plus
 // the plain-language summary. Pure: the caller loads outcomes (db/queries/analysis.ts).
 import { cohensKappa } from "@/lib/stats/agreement";
-import { areaOverTime, quantileType7 } from "@/lib/stats/outcomes";
+import { areaOverTime, isRusted, quantileType7, type RustEvidence } from "@/lib/stats/outcomes";
 import { summarizeComparison } from "@/lib/stats/summary";
 import { chiSquareUpperTail } from "@/lib/stats/distributions";
-import { logRank } from "@/lib/stats/survival";
+import { logRank, stratifiedLogRank } from "@/lib/stats/survival";
 import { rightEndpointKm, type IntervalObservation } from "@/lib/stats/turnbull";
-import { fisherExact, kruskalWallis, pairwiseLogRank } from "@/lib/stats/tests";
+import { fisherExact, kruskalWallis, pairwiseLogRank, pairwiseStratifiedLogRank } from "@/lib/stats/tests";
 import { kmSummary, numbersAtRisk, turnbullSummary } from "./curves";
 import type { SpecimenOutcome } from "./derive";
-import { GROUPING_LABELS, groupOutcomes, type Grouping } from "./groups";
+import { GROUPING_LABELS, GROUPING_STRATA, groupOutcomes, type Grouping } from "./groups";
 import { extraSentences } from "./sentences";
-import { type AgreementResult, type ComparisonResult, type CurveMethod, type FinalStateTest, type GroupResult } from "./result";
+import { ENDPOINT_EVENT, type AgreementResult, type ComparisonResult, type CurveMethod, type Endpoint, type FinalStateTest, type GroupResult } from "./result";
 
-export function intervalsOf(members: readonly SpecimenOutcome[]): IntervalObservation[] {
-  return members
-    .filter((m) => m.interval)
-    .map((m) => ({ lower: m.interval!.lower, upper: m.interval!.upper ?? Infinity }));
+/** Whether a placement is at risk of the endpoint's first event (not already shown in an earlier placement). */
+export function atRiskOf(o: SpecimenOutcome, endpoint: Endpoint = "rust"): boolean {
+  return endpoint === "rust" ? !o.rustedEarlier : !o.weptEarlier;
 }
 
-/** ASTM D610 grades (0…10) of the score of record and the blind second score of one photo. */
+/** The endpoint's interval of one placement. */
+export function endpointInterval(o: SpecimenOutcome, endpoint: Endpoint = "rust") {
+  return endpoint === "rust" ? o.interval : o.weepingInterval;
+}
+
+/** Interval observations of the placements at risk; a moved specimen's placement carries its entry. */
+export function intervalsOf(members: readonly SpecimenOutcome[], endpoint: Endpoint = "rust"): IntervalObservation[] {
+  const out: IntervalObservation[] = [];
+  for (const m of members) {
+    const iv = endpointInterval(m, endpoint);
+    if (!iv || !atRiskOf(m, endpoint)) continue;
+    const row: IntervalObservation = { lower: iv.lower, upper: iv.upper ?? Infinity };
+    if (m.entry > 0) row.entry = m.entry;
+    out.push(row);
+  }
+  return out;
+}
+
+/** One photo scored twice: the score of record and the blind second score (ASTM grade when given). */
 export interface GradePair {
-  recordGrade: number;
-  blindGrade: number;
+  recordGrade: number | null;
+  blindGrade: number | null;
+  record: RustEvidence;
+  blind: RustEvidence;
 }
 
+const isGrade = (g: number | null): g is number => g !== null && Number.isInteger(g) && g >= 0 && g <= 10;
+
+/**
+ * Agreement between the score of record and the blind second score: the headline is Cohen's kappa on
+ * the rust / no-rust call (isRusted, the call that defines the endpoint); kappa on ASTM D610 grades
+ * (unweighted and quadratic) follows on the pairs graded by both.
+ */
 export function scorerAgreement(pairs: readonly GradePair[]): AgreementResult | null {
-  const usable = pairs.filter((p) => Number.isInteger(p.recordGrade) && Number.isInteger(p.blindGrade)
-    && p.recordGrade >= 0 && p.recordGrade <= 10 && p.blindGrade >= 0 && p.blindGrade <= 10);
-  if (usable.length === 0) return null;
-  const a = usable.map((p) => p.recordGrade);
-  const b = usable.map((p) => p.blindGrade);
+  if (pairs.length === 0) return null;
   const finite = (x: number) => (Number.isFinite(x) ? x : null);
+  const recordCall = pairs.map((p) => (isRusted(p.record) ? 1 : 0));
+  const blindCall = pairs.map((p) => (isRusted(p.blind) ? 1 : 0));
+  const graded = pairs.filter((p) => isGrade(p.recordGrade) && isGrade(p.blindGrade));
+  const a = graded.map((p) => p.recordGrade!);
+  const b = graded.map((p) => p.blindGrade!);
   return {
-    pairs: usable.length,
-    kappa: finite(cohensKappa(a, b, { categories: 11 })),
-    kappaQuadratic: finite(cohensKappa(a, b, { categories: 11, weights: "quadratic" })),
+    rustCall: {
+      pairs: pairs.length,
+      kappa: finite(cohensKappa(recordCall, blindCall, { categories: 2 })),
+      agreed: recordCall.filter((x, i) => x === blindCall[i]).length,
+      recordRusted: recordCall.filter((x) => x === 1).length,
+      blindRusted: blindCall.filter((x) => x === 1).length,
+    },
+    pairs: graded.length,
+    kappa: graded.length ? finite(cohensKappa(a, b, { categories: 11 })) : null,
+    kappaQuadratic: graded.length ? finite(cohensKappa(a, b, { categories: 11, weights: "quadratic" })) : null,
   };
 }
 
@@ -92,16 +126,22 @@ const MAX_PAIRS_IN_SUMMARY = 6;
 
 export function compareGroups(
   outcomes: readonly SpecimenOutcome[],
-  options: { groupBy: Grouping; method?: CurveMethod; agreement?: AgreementResult | null },
+  options: { groupBy: Grouping; method?: CurveMethod; agreement?: AgreementResult | null; endpoint?: Endpoint },
 ): ComparisonResult {
   const method = options.method ?? "turnbull";
-  const grouped = groupOutcomes(outcomes, options.groupBy);
+  const endpoint = options.endpoint ?? "rust";
+  const stratifiedBy = GROUPING_STRATA[options.groupBy];
+  // A placement of a specimen that already showed the event in an earlier placement is not at risk:
+  // it is left out here (and listed in the per-specimen table), so each specimen counts once.
+  const atRisk = outcomes.filter((o) => atRiskOf(o, endpoint));
+  const grouped = groupOutcomes(atRisk, options.groupBy);
   const inspectionDays = [...new Set(outcomes.flatMap((o) => o.observations.map((x) => x.day)))].sort((a, b) => a - b);
 
   const perGroup = grouped.map((g) => {
-    const intervals = intervalsOf(g.members);
-    const scored = g.members.filter((m) => m.interval);
-    const events = scored.filter((m) => m.rusted).length;
+    const intervals = intervalsOf(g.members, endpoint);
+    const scored = g.members.filter((m) => endpointInterval(m, endpoint));
+    const events = scored.filter((m) => endpointInterval(m, endpoint)!.upper !== null).length;
+    const finalRusted = scored.filter((m) => m.rusted).length;
     const finalAreas = scored.map((m) => m.finalAreaPercent).filter((x): x is number => x !== null).sort((a, b) => a - b);
     const result: GroupResult = {
       key: g.key,
@@ -120,23 +160,31 @@ export function compareGroups(
         })),
       }])[0].points,
       final: {
-        rusted: events,
-        notRusted: scored.length - events,
+        rusted: finalRusted,
+        notRusted: scored.length - finalRusted,
         medianAreaPercent: finalAreas.length ? quantileType7(finalAreas, 0.5) : null,
       },
     };
-    return { result, intervals, finalAreas };
+    // Stratified tests take each placement's chamber as its stratum.
+    const right = rightEndpointKm(intervals);
+    const strata = scored.filter((m) => atRiskOf(m, endpoint)).map((m) => m.chamberId);
+    return { result, intervals, finalAreas, right, strata };
   });
   const groups = perGroup.map((g) => g.result);
 
   // Groups with nothing scored yet take no part in the tests.
   const tested = perGroup.filter((g) => g.result.n > 0);
-  const right = tested.map((g) => rightEndpointKm(g.intervals));
+  const right = tested.map((g) => g.right);
+  const withStrata = tested.map((g) => g.right.map((r, i) => ({ ...r, stratum: g.strata[i] })));
   const totalEvents = groups.reduce((s, g) => s + g.events, 0);
-  const lr = tested.length >= 2 && totalEvents > 0 ? logRank(right) : null;
+  const lr = tested.length < 2 || totalEvents === 0 ? null
+    : stratifiedBy
+      ? stratifiedLogRank(withStrata.flatMap((rows, j) => rows.map((r) => ({ ...r, group: String(j).padStart(4, "0") }))))
+      : logRank(right);
   const order = pairOrder(tested.length);
+  const labels = tested.map((g) => g.result.label);
   const pairwise = tested.length >= 2
-    ? pairwiseLogRank(right, tested.map((g) => g.result.label))
+    ? (stratifiedBy ? pairwiseStratifiedLogRank(withStrata, labels) : pairwiseLogRank(right, labels))
       .map((p, i) => ({ ...p, events: tested[order[i][0]].result.events + tested[order[i][1]].result.events }))
     : [];
 
@@ -160,16 +208,20 @@ export function compareGroups(
     // With two groups the pairwise test is the overall one; with many, the table lists them.
     pairwise: tested.length > 2 && pairwise.length <= MAX_PAIRS_IN_SUMMARY ? pairwise : undefined,
     intervalCensored: true,
-    kappa: options.agreement?.kappa ?? null,
+    kappa: options.agreement?.rustCall.kappa ?? null,
+    eventLabel: ENDPOINT_EVENT[endpoint],
+    stratifiedBy: stratifiedBy ?? undefined,
   });
 
   const result: ComparisonResult = {
     groupBy: options.groupBy,
     groupByLabel: GROUPING_LABELS[options.groupBy],
     method,
+    endpoint,
+    stratifiedBy,
     groups,
     atRisk: { times: [], counts: [] },
-    logRank: lr && lr.df > 0 ? { chiSquare: lr.chiSquare, df: lr.df, pValue: lr.pValue } : null,
+    logRank: lr && lr.df > 0 ? { chiSquare: lr.chiSquare, df: lr.df, pValue: lr.pValue, stratifiedBy } : null,
     pairwise,
     finalStateTest,
     kruskal,
@@ -179,6 +231,8 @@ export function compareGroups(
       scored: groups.reduce((s, g) => s + g.n, 0),
       rusted: totalEvents,
       inspectionDays,
+      moved: outcomes.filter((o) => o.entry > 0).length,
+      notAtRisk: outcomes.length - atRisk.length,
     },
     summary,
     notes: [],

@@ -1,7 +1,7 @@
 // Rust-free fraction curves for charts and tables: Turnbull (interval data) and right-endpoint
 // Kaplan–Meier with Greenwood log limits, censoring marks, medians and numbers at risk.
 import type { SurvivalObservation } from "@/lib/stats/observations";
-import { kaplanMeier } from "@/lib/stats/survival";
+import { kaplanMeier, kmQuantile } from "@/lib/stats/survival";
 import { medianFromTurnbull, rightEndpointKm, survivalCurveFromTurnbull, turnbullFit, type IntervalObservation } from "@/lib/stats/turnbull";
 
 export interface CurvePoint {
@@ -91,24 +91,25 @@ export function kmSummary(intervals: readonly IntervalObservation[]): KmSummary 
     points.push({ time: s.time, survival: s.survival, lower: s.lower95, upper: s.upper95 });
   }
   extend(points, maxTimeOf(right));
-  const firstBelowHalf = (key: "lower95" | "upper95") => km.steps.find((s) => s.events > 0 && s[key] <= 0.5 + 1e-12)?.time ?? null;
   return {
     points,
     censorMarks: marks(right, points),
     median: km.median,
-    // The lower band falls through 0.5 first, so it gives the lower limit (as R's quantile.survfit).
-    medianLower: firstBelowHalf("lower95"),
-    medianUpper: firstBelowHalf("upper95"),
+    // The lower band falls through 0.5 first, so it gives the lower limit (as R's quantile.survfit),
+    // read by the same rule as the median.
+    medianLower: kmQuantile(km.steps, 0.5, { curve: "lower95" }),
+    medianUpper: kmQuantile(km.steps, 0.5, { curve: "upper95" }),
   };
 }
 
 /**
- * Numbers at risk at each time: specimens still under observation and not yet seen rusted, i.e.
- * whose right-endpoint time (first rusted or last clean inspection) is at or after t.
+ * Numbers at risk at each time: specimens under observation and not yet seen rusted, i.e. that
+ * entered before t (or at the start) and whose right-endpoint time (first rusted or last clean
+ * inspection) is at or after t.
  */
 export function numbersAtRisk(groups: readonly (readonly IntervalObservation[])[], times: readonly number[]): number[][] {
   return groups.map((intervals) => {
     const right = rightEndpointKm(intervals);
-    return times.map((t) => right.filter((o) => o.time >= t).length);
+    return times.map((t) => right.filter((o) => o.time >= t && (o.entry === undefined || o.entry < t)).length);
   });
 }

@@ -1,6 +1,12 @@
 // From database rows to one outcome per placement (a specimen in the trial under one chamber and
-// treatment): its scored inspections, its first-rust interval and its final state. Scores of record
-// only; the caller passes done inspections only.
+// treatment): its scored inspections, its first-rust and first-weeping intervals and its final state.
+// Scores of record only; the caller passes done inspections only.
+//
+// A specimen moved to another jar has one placement per jar. Its first placement runs from the trial
+// start (entry 0); a later one enters at its from-time (delayed entry: at risk only after the move).
+// Clean at the move, the specimen is right-censored in the old placement at its last clean look
+// before the move and enters the new one at the move. Rusted in an earlier placement, it stays
+// rusted: its later placements are not at risk (rustedEarlier) and the survival analysis leaves them out.
 import { firstRustInterval, isRusted } from "@/lib/stats/outcomes";
 
 const MS_PER_DAY = 86_400_000;
@@ -45,10 +51,22 @@ export interface ScoredInspection {
   weeping: boolean;
 }
 
+export type OutcomeInterval = { lower: number; upper: number | null };
+
 export interface SpecimenOutcome extends Omit<PlacementInput, "fromAt" | "toAt"> {
   observations: ScoredInspection[];
+  /** Days since the trial start when this placement came under observation: 0 for a specimen's
+   * first placement, the move's day for a later one (at risk only after it). */
+  entry: number;
   /** (lower, upper] in days; upper null = right-censored at lower (never seen rusted). */
-  interval: { lower: number; upper: number | null } | null;
+  interval: OutcomeInterval | null;
+  /** The same for the first look with weeping (time to weeping). */
+  weepingInterval: OutcomeInterval | null;
+  /** Seen rusted in an earlier placement of the same specimen: not at risk here, left out of the
+   * survival analysis (the per-specimen table still lists it). */
+  rustedEarlier: boolean;
+  /** Seen weeping in an earlier placement: left out of the time-to-weeping analysis. */
+  weptEarlier: boolean;
   rusted: boolean;
   finalAreaPercent: number | null;
   finalDay: number | null;
@@ -61,6 +79,20 @@ export interface SpecimenOutcome extends Omit<PlacementInput, "fromAt" | "toAt">
  * survival tallies expect. The score page and the comparison both use it. */
 export function dayOf(at: Date, startAt: Date): number {
   return Math.round(Math.max(0, (at.getTime() - startAt.getTime()) / MS_PER_DAY) * 10) / 10;
+}
+
+/**
+ * (last look without the event, first look with it] in days since the trial start, for a placement
+ * under observation from `entry`: firstRustInterval (the one rule) on the looks after the entry, on
+ * the entry's scale. A later placement's look at or before its entry (the move's own day) belongs
+ * to the move, not to the time at risk.
+ */
+function eventInterval(observations: readonly ScoredInspection[], entry: number, isFirst: boolean, hit: (o: ScoredInspection) => boolean): OutcomeInterval | null {
+  const looks = isFirst ? observations : observations.filter((o) => o.day > entry);
+  const raw = firstRustInterval(looks.map((o) => ({ inspectedAt: o.day, rusted: hit(o), areaPercent: o.areaPercent })), isFirst ? 0 : entry);
+  if (!raw) return null;
+  const shift = isFirst ? 0 : entry;
+  return { lower: raw.lower + shift, upper: Number.isFinite(raw.upper) ? raw.upper + shift : null };
 }
 
 export function deriveSpecimenOutcomes(input: {
@@ -85,7 +117,7 @@ export function deriveSpecimenOutcomes(input: {
     firstFrom.set(p.specimenId, Math.min(firstFrom.get(p.specimenId) ?? Infinity, t));
   }
 
-  return input.placements.map((p) => {
+  const derived = input.placements.map((p) => {
     const from = p.fromAt?.getTime() ?? -Infinity;
     const isFirst = from === firstFrom.get(p.specimenId);
     const observations: ScoredInspection[] = [];
@@ -104,21 +136,41 @@ export function deriveSpecimenOutcomes(input: {
       });
     }
     observations.sort((a, b) => a.day - b.day);
-    const raw = firstRustInterval(
-      observations.map((o) => ({ inspectedAt: o.day, rusted: o.rusted, areaPercent: o.areaPercent })),
-      0,
-    );
-    const interval = raw ? { lower: raw.lower, upper: Number.isFinite(raw.upper) ? raw.upper : null } : null;
+    const entry = isFirst || !p.fromAt ? 0 : dayOf(p.fromAt, startAt);
+    const interval = eventInterval(observations, entry, isFirst, (o) => o.rusted);
+    const weepingInterval = eventInterval(observations, entry, isFirst, (o) => o.weeping);
     const last = observations[observations.length - 1];
     const { fromAt: _from, toAt: _to, ...rest } = p;
-    return {
-      ...rest,
-      observations,
-      interval,
-      rusted: interval?.upper != null,
-      finalAreaPercent: last ? last.areaPercent : null,
-      finalDay: last ? last.day : null,
-      weepingSeen: observations.some((o) => o.weeping),
+    const outcome: SpecimenOutcome = {
+        ...rest,
+        observations,
+        entry,
+        interval,
+        weepingInterval,
+        rustedEarlier: false,
+        weptEarlier: false,
+        rusted: interval?.upper != null,
+        finalAreaPercent: last ? last.areaPercent : null,
+        finalDay: last ? last.day : null,
+        weepingSeen: observations.some((o) => o.weeping),
     };
+    return { from, outcome };
   });
+
+  // Rust and weeping carry over a move: a later placement of a specimen already seen rusted
+  // (weeping) in an earlier one is not at risk of a first rust (weeping).
+  const bySpecimen = new Map<string, typeof derived>();
+  for (const d of derived) bySpecimen.set(d.outcome.specimenId, [...(bySpecimen.get(d.outcome.specimenId) ?? []), d]);
+  for (const list of bySpecimen.values()) {
+    if (list.length < 2) continue;
+    let rusted = false;
+    let wept = false;
+    for (const d of [...list].sort((a, b) => a.from - b.from)) {
+      d.outcome.rustedEarlier = rusted;
+      d.outcome.weptEarlier = wept;
+      rusted ||= d.outcome.observations.some((o) => o.rusted);
+      wept ||= d.outcome.observations.some((o) => o.weeping);
+    }
+  }
+  return derived.map((d) => d.outcome);
 }

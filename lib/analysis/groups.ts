@@ -20,6 +20,18 @@ export const MATERIAL_LABELS: Record<string, string> = {
   other: "Other material",
 };
 
+/**
+ * The stratum of each grouping's log-rank tests: treatments and material classes are compared within
+ * each chamber (jars from 2 % to 96 %RH must not be pooled); chambers, and arms that are already
+ * chamber × treatment, are compared as they are.
+ */
+export const GROUPING_STRATA: Record<Grouping, "chamber" | null> = {
+  treatment: "chamber",
+  material: "chamber",
+  chamber: null,
+  arm: null,
+};
+
 export interface GroupOf<T> {
   key: string;
   label: string;

@@ -1,24 +1,45 @@
 // The comparison's choices as URL search parameters, shared by the pages and the JSON endpoint.
+// The outcome view a trial opens on comes from its primary outcome when the URL does not name one.
 import { z } from "zod";
 import { AppError } from "@/lib/auth/errors";
-import { CURVE_METHODS } from "./result";
+import type { PrimaryOutcome } from "@/lib/validation/trials";
+import { CURVE_METHODS, type Endpoint } from "./result";
 import { GROUPINGS } from "./groups";
 
-export const OUTCOMES = ["first-rust", "area", "final"] as const;
+export const OUTCOMES = ["first-rust", "weeping", "area", "final"] as const;
 export type OutcomeView = (typeof OUTCOMES)[number];
 
 export const OUTCOME_LABELS: Record<OutcomeView, string> = {
   "first-rust": "Time to first rust",
+  weeping: "Time to first weeping",
   area: "Rusted area over time",
   final: "Final state",
 };
 
+/** The view that shows each primary outcome of a trial (lib/validation/trials.ts PRIMARY_OUTCOMES). */
+export const PRIMARY_OUTCOME_VIEWS: Record<PrimaryOutcome, OutcomeView> = {
+  "time-to-first-rust": "first-rust",
+  "rusted-area-growth": "area",
+  "final-rust-grade": "final",
+  "time-to-weeping": "weeping",
+};
+
+/** The default view for a trial's primary outcome; an unknown value opens on time to first rust. */
+export function defaultOutcomeView(primaryOutcome: string | null | undefined): OutcomeView {
+  return PRIMARY_OUTCOME_VIEWS[primaryOutcome as PrimaryOutcome] ?? "first-rust";
+}
+
+/** The survival part of a view times first weeping on the weeping view, first rust otherwise. */
+export function endpointOf(outcome: OutcomeView): Endpoint {
+  return outcome === "weeping" ? "weeping" : "rust";
+}
+
 const querySchema = z.object({
   groupBy: z.enum(GROUPINGS).default("treatment"),
   method: z.enum(CURVE_METHODS).default("turnbull"),
-  outcome: z.enum(OUTCOMES).default("first-rust"),
+  outcome: z.enum(OUTCOMES).optional(),
 });
-export type AnalysisQuery = z.infer<typeof querySchema>;
+export type AnalysisQuery = { groupBy: (typeof GROUPINGS)[number]; method: (typeof CURVE_METHODS)[number]; outcome: OutcomeView };
 
 function toObject(params: URLSearchParams | Record<string, string | string[] | undefined>) {
   const entries = params instanceof URLSearchParams ? [...params.entries()] : Object.entries(params);
@@ -27,22 +48,24 @@ function toObject(params: URLSearchParams | Record<string, string | string[] | u
   return out;
 }
 
-/** For the API: a bad value is a 422 with the field named. */
-export function analysisQuery(params: URLSearchParams): AnalysisQuery {
+/** For the API: a bad value is a 422 with the field named; no outcome → the trial's primary one. */
+export function analysisQuery(params: URLSearchParams, primaryOutcome?: string | null): AnalysisQuery {
   const parsed = querySchema.safeParse(toObject(params));
   if (!parsed.success) {
     throw new AppError("invalid", "Unknown grouping, method or outcome.", z.flattenError(parsed.error).fieldErrors as Record<string, string[]>);
   }
-  return parsed.data;
+  return { ...parsed.data, outcome: parsed.data.outcome ?? defaultOutcomeView(primaryOutcome) };
 }
 
 /** For pages: a bad or missing value falls back to the default, so an old link still opens. */
-export function pageQuery(params: Record<string, string | string[] | undefined>): AnalysisQuery {
+export function pageQuery(params: Record<string, string | string[] | undefined>, primaryOutcome?: string | null): AnalysisQuery {
   const raw = toObject(params);
-  const out = querySchema.parse({});
-  for (const key of Object.keys(out) as (keyof AnalysisQuery)[]) {
-    const one = querySchema.shape[key].safeParse(raw[key]);
-    if (one.success) (out as Record<string, string>)[key] = one.data;
-  }
+  const out: AnalysisQuery = { groupBy: "treatment", method: "turnbull", outcome: defaultOutcomeView(primaryOutcome) };
+  const groupBy = querySchema.shape.groupBy.safeParse(raw.groupBy);
+  if (groupBy.success) out.groupBy = groupBy.data;
+  const method = querySchema.shape.method.safeParse(raw.method);
+  if (method.success) out.method = method.data;
+  const outcome = z.enum(OUTCOMES).safeParse(raw.outcome);
+  if (outcome.success) out.outcome = outcome.data;
   return out;
 }

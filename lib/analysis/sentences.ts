@@ -1,6 +1,43 @@
 // Caveats and secondary results that follow the plain-language summary of time to first rust.
 import { describeKappa, formatPValue } from "@/lib/stats/summary";
-import type { ComparisonResult } from "./result";
+import type { AgreementResult, ComparisonResult } from "./result";
+
+/** How a moved specimen is grouped and timed, in one plain sentence (compare page, report, method notes). */
+export const MOVED_SPECIMEN_NOTE =
+  "A specimen moved to another jar counts in the group of each jar it was in: it is counted as still clean in the old jar " +
+  "up to its last inspection before the move and is at risk in the new jar only from the day of the move; once seen rusted, " +
+  "its later placements are not counted again.";
+
+/** The headline (kappa on the rust / no-rust call) and kappa on ASTM D610 grades, or why there is none. */
+export function agreementSentences(a: AgreementResult | null): string[] {
+  if (!a) {
+    return ["No blind second scores exist for this trial, so agreement between scorers was not checked; every rust call rests on one scorer."];
+  }
+  const out: string[] = [];
+  const call = a.rustCall;
+  if (call.kappa === null) {
+    out.push(
+      `Scorer agreement on the rust / no-rust call could not be expressed as kappa: on the ${call.pairs} photos scored twice ` +
+        `both scorers made the same single call every time (${call.agreed} of ${call.pairs} agree), so chance agreement is already complete.`,
+    );
+  } else {
+    out.push(
+      `Scorer agreement on the rust / no-rust call (the call that defines first rust) is Cohen's κ = ${call.kappa.toFixed(2)}, ` +
+        `${describeKappa(call.kappa)}, over ${call.pairs} photos scored by the scorer of record and a blind second scorer ` +
+        `(${call.agreed} of ${call.pairs} calls agree; rust called ${call.recordRusted} times by the scorer of record, ${call.blindRusted} by the second scorer).`,
+    );
+  }
+  if (a.pairs === 0) out.push("No photo scored twice has an ASTM D610 grade from both scorers, so there is no kappa on ASTM D610 grades.");
+  else if (a.kappa === null) {
+    out.push(`Kappa on ASTM D610 grades is undefined: on the ${a.pairs} photos graded twice both scorers used a single grade.`);
+  } else {
+    out.push(
+      `Kappa on ASTM D610 grades over ${a.pairs} photos: κ = ${a.kappa.toFixed(2)}, ${describeKappa(a.kappa)}` +
+        (a.kappaQuadratic !== null ? `; quadratic-weighted κ = ${a.kappaQuadratic.toFixed(2)}` : "") + ".",
+    );
+  }
+  return out;
+}
 
 export const STANDING_NOTE =
   "These results guide storage decisions; they do not replace a conservator's judgement of each specimen.";
@@ -14,7 +51,7 @@ export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: numb
   if (r.pairwise.length > opts.pairsInSummary) {
     const differ = r.pairwise.filter((p) => p.adjustedPValue < 0.05);
     out.push(
-      `${r.pairwise.length} pairwise log-rank comparisons, Holm-adjusted, are listed in the table; ` +
+      `${r.pairwise.length} pairwise log-rank comparisons${r.stratifiedBy ? ` stratified by ${r.stratifiedBy}` : ""}, Holm-adjusted, are listed in the table; ` +
         (differ.length === 0
           ? "none of them differs at the 0.05 level."
           : `${differ.length} differ at the 0.05 level: ${differ.map((p) => `${p.groupA} vs ${p.groupB}`).join("; ")}.`),
@@ -40,22 +77,16 @@ export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: numb
     );
   }
 
-  if (!r.agreement) {
-    out.push("No blind second scores exist for this trial, so agreement between scorers was not checked; every rust call rests on one scorer.");
-  } else if (r.agreement.kappa === null) {
+  out.push(...agreementSentences(r.agreement));
+
+  if (r.totals.moved > 0) {
     out.push(
-      `Scorer agreement could not be expressed as kappa: on the ${r.agreement.pairs} photos scored twice both scorers used ` +
-        "a single ASTM grade, so chance agreement is already complete.",
-    );
-  } else {
-    out.push(
-      `Scorer agreement is Cohen's κ on ASTM D610 grades over ${r.agreement.pairs} photos scored by the scorer of record ` +
-        `and a blind second scorer (κ = ${r.agreement.kappa.toFixed(2)}, ${describeKappa(r.agreement.kappa)}` +
-        (r.agreement.kappaQuadratic !== null ? `; quadratic-weighted κ = ${r.agreement.kappaQuadratic.toFixed(2)}` : "") +
-        ").",
+      `${r.totals.moved} placement${r.totals.moved === 1 ? " is" : "s are"} of specimens moved to another jar during the trial. ${MOVED_SPECIMEN_NOTE}` +
+        (r.totals.notAtRisk > 0
+          ? ` ${r.totals.notAtRisk} later placement${r.totals.notAtRisk === 1 ? " was" : "s were"} left out because the specimen had already ${r.endpoint === "rust" ? "rusted" : "wept"} before the move.`
+          : ""),
     );
   }
-
   const unscored = r.groups.reduce((s, g) => s + g.unscored, 0);
   if (unscored > 0) {
     out.push(`${unscored} of ${r.totals.placements} specimens have no scored inspection yet and are left out.`);

@@ -19,5 +19,9 @@ export function outcomeRows(outcomes: readonly SpecimenOutcome[]) {
     finalAreaPercent: o.finalAreaPercent,
     finalDay: o.finalDay,
     weepingSeen: o.weepingSeen,
+    entryDay: o.entry,
+    rustedEarlier: o.rustedEarlier,
+    weepingLowerDay: o.weepingInterval?.lower ?? null,
+    weepingUpperDay: o.weepingInterval?.upper ?? null,
   }));
 }

@@ -125,6 +125,10 @@ export const OUTCOME_TABLE: TableSpec = {
     col("rusted", "boolean", "rusted"), col("right_censored", "boolean", "rightCensored"),
     col("final_area_percent", "number", "finalAreaPercent", { description: "Rusted area % at the last scored inspection." }),
     col("final_day", "number", "finalDay"), col("weeping_seen", "boolean", "weepingSeen"),
+    col("entry_day", "number", "entryDay", { description: "Days since start when this placement came under observation: 0 for a specimen's first jar, the move's day for a later one." }),
+    col("rusted_earlier", "boolean", "rustedEarlier", { description: "Seen rusted in an earlier placement: not at risk here, left out of the survival analysis." }),
+    col("weeping_lower_day", "number", "weepingLowerDay", { description: "Last inspection without weeping, days since start." }),
+    col("weeping_upper_day", "number", "weepingUpperDay", { description: "First inspection with weeping, days since start; empty if none." }),
   ],
 };
 

@@ -26,8 +26,12 @@ export interface ComparisonSummaryInput {
   pairwise?: readonly PairwiseSummary[];
   /** Rust is only seen at inspections, so times are intervals (the default for this product). */
   intervalCensored?: boolean;
-  /** Scorer agreement on the rust calls, when a second scorer re-scored a sample. */
+  /** Scorer agreement (Cohen's kappa) on the rust / no-rust calls, when a blind second scorer re-scored a sample. */
   kappa?: number | null;
+  /** The event timed, in words: "first rust" (default) or "first weeping". */
+  eventLabel?: string;
+  /** The log-rank tests were stratified by this ("chamber"). */
+  stratifiedBy?: string;
   alpha?: number;
   timeUnit?: string;
 }
@@ -73,34 +77,37 @@ export function summarizeComparison(input: ComparisonSummaryInput): string[] {
   const alpha = input.alpha ?? 0.05;
   const unit = input.timeUnit ?? "days";
   const intervalCensored = input.intervalCensored ?? true;
+  const event = input.eventLabel ?? "first rust";
+  const seen = event === "first rust" ? "seen to rust" : `seen ${event.replace(/^first /, "")}`;
+  const test = input.stratifiedBy ? `log-rank test stratified by ${input.stratifiedBy}` : "log-rank test";
   const sentences: string[] = [];
   const total = groups.reduce((s, g) => s + g.n, 0);
   const rusted = groups.reduce((s, g) => s + g.events, 0);
 
   sentences.push(
-    `${total} specimens in ${groups.length} groups, ${rusted} of them seen to rust: ` +
+    `${total} specimens in ${groups.length} groups, ${rusted} of them ${seen}: ` +
       `${groups.map((g) => `${g.name} ${g.events} of ${g.n}`).join(", ")}.`,
   );
-  sentences.push(`Median time to first rust: ${groups.map((g) => describeMedian(g, unit)).join("; ")}.`);
+  sentences.push(`Median time to ${event}: ${groups.map((g) => describeMedian(g, unit)).join("; ")}.`);
 
   if (logRankP === null || Number.isNaN(logRankP)) {
-    sentences.push("No log-rank test could be run (it needs at least two groups and at least one rusted specimen).");
+    sentences.push(`No log-rank test could be run (it needs at least two groups and at least one specimen ${seen}).`);
   } else {
     const stat =
       input.chiSquare !== undefined && input.df !== undefined
         ? `χ² = ${input.chiSquare.toFixed(2)} on ${input.df} df, `
         : "";
-    sentences.push(`Log-rank test of time to first rust across the ${groups.length} groups: ${stat}${formatPValue(logRankP)}.`);
+    sentences.push(`${test[0].toUpperCase()}${test.slice(1)} of time to ${event} across the ${groups.length} groups: ${stat}${formatPValue(logRankP)}.`);
     if (logRankP < alpha) {
       const withMedian = groups.filter((g) => g.median !== null);
       const soonest = withMedian.sort((a, b) => a.median!.time - b.median!.time)[0];
       sentences.push(
-        `The groups differ in time to first rust at the ${alpha} level` +
-          (soonest ? `; ${soonest.name} rusted soonest (median ${fmt(soonest.median!.time)} ${unit}).` : "."),
+        `The groups differ in time to ${event} at the ${alpha} level` +
+          (soonest ? `; ${soonest.name} ${event === "first rust" ? "rusted" : "reached it"} soonest (median ${fmt(soonest.median!.time)} ${unit}).` : "."),
       );
     } else {
       sentences.push(
-        `These data show no clear difference in time to first rust at the ${alpha} level; ` +
+        `These data show no clear difference in time to ${event} at the ${alpha} level; ` +
           "that is not evidence that the treatments perform the same.",
       );
     }
@@ -110,7 +117,8 @@ export function summarizeComparison(input: ComparisonSummaryInput): string[] {
     const parts = input.pairwise.map(
       (p) => `${p.groupA} vs ${p.groupB} ${formatPValue(p.adjustedPValue)}${p.adjustedPValue < alpha ? " (differ)" : ""}`,
     );
-    sentences.push(`Pairwise log-rank tests, Holm-adjusted for ${parts.length} comparisons: ${parts.join("; ")}.`);
+    const tests = input.stratifiedBy ? `log-rank tests stratified by ${input.stratifiedBy}` : "log-rank tests";
+    sentences.push(`Pairwise ${tests}, Holm-adjusted for ${parts.length} comparisons: ${parts.join("; ")}.`);
   }
 
   // Caveats: what a reader must weigh before acting on the result.
@@ -124,21 +132,25 @@ export function summarizeComparison(input: ComparisonSummaryInput): string[] {
   const noEvents = groups.filter((g) => g.events === 0).map((g) => g.name);
   if (noEvents.length > 0) {
     sentences.push(
-      `No specimen in ${listNames(noEvents)} rusted during follow-up, so ${noEvents.length === 1 ? "its" : "their"} ` +
+      `No specimen in ${listNames(noEvents)} ${event === "first rust" ? "rusted" : `was ${seen}`} during follow-up, so ${noEvents.length === 1 ? "its" : "their"} ` +
         "median cannot be estimated; it is only known to be longer than the time observed.",
     );
   }
   if (intervalCensored) {
     sentences.push(
-      "Rust is only seen at inspections, so each time to first rust is known only to lie between the last " +
-        "clean and the first rusted inspection; the log-rank test counts it at the first rusted inspection, " +
-        "and medians are precise only to the inspection spacing.",
+      event === "first rust"
+        ? "Rust is only seen at inspections, so each time to first rust is known only to lie between the last " +
+            "clean and the first rusted inspection; the log-rank test counts it at the first rusted inspection, " +
+            "and medians are precise only to the inspection spacing."
+        : `Weeping is only seen at inspections, so each time to ${event} is known only to lie between the last ` +
+            "inspection without it and the first with it; the log-rank test counts it at the first inspection with weeping, " +
+            "and medians are precise only to the inspection spacing.",
     );
   }
   if (input.kappa !== undefined && input.kappa !== null && !Number.isNaN(input.kappa)) {
     const k = input.kappa;
     sentences.push(
-      `Agreement between scorers on the rust calls: κ = ${k.toFixed(2)}, ${describeKappa(k)}` +
+      `Agreement between the scorer of record and a blind second scorer on the rust / no-rust call: κ = ${k.toFixed(2)}, ${describeKappa(k)}` +
         (k <= 0.6 ? "; disagreement between scorers may blur real differences." : "."),
     );
   }

@@ -1,7 +1,7 @@
 // Hypothesis tests used when comparing treatments. Fisher and the rank tests live in their own
 // files; this module is the one place the product imports tests from.
 import type { SurvivalObservation } from "./observations";
-import { logRank } from "./survival";
+import { logRank, stratifiedLogRank } from "./survival";
 
 export {
   fisherExact,
@@ -61,6 +61,27 @@ export function pairwiseLogRank(
   for (let a = 0; a < groups.length; a++) {
     for (let b = a + 1; b < groups.length; b++) {
       const { chiSquare, pValue } = logRank([groups[a], groups[b]]);
+      pairs.push({ groupA: labels[a], groupB: labels[b], chiSquare, pValue });
+    }
+  }
+  const adjusted = holm(pairs.map((p) => p.pValue));
+  return pairs.map((p, i) => ({ ...p, adjustedPValue: adjusted[i] }));
+}
+
+/**
+ * Stratified log-rank test for every pair of groups (each group's rows carry their stratum), with
+ * Holm's adjustment across the pairs: the pairwise companion of stratifiedLogRank.
+ */
+export function pairwiseStratifiedLogRank(
+  groups: readonly (readonly (SurvivalObservation & { stratum: string })[])[],
+  labels: readonly string[],
+): PairwiseLogRank[] {
+  if (labels.length !== groups.length) throw new RangeError("pairwiseStratifiedLogRank: one label per group");
+  const pairs: Omit<PairwiseLogRank, "adjustedPValue">[] = [];
+  for (let a = 0; a < groups.length; a++) {
+    for (let b = a + 1; b < groups.length; b++) {
+      const rows = [...groups[a].map((r) => ({ ...r, group: "a" })), ...groups[b].map((r) => ({ ...r, group: "b" }))];
+      const { chiSquare, pValue } = stratifiedLogRank(rows);
       pairs.push({ groupA: labels[a], groupB: labels[b], chiSquare, pValue });
     }
   }

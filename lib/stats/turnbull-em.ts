@@ -6,6 +6,13 @@
  * Plain EM crawls (thousands of steps) when intervals overlap heavily, so steps are accelerated with
  * SQUAREM (Varadhan & Roland 2008, scheme S3), falling back to plain EM whenever an extrapolated
  * point would lower the likelihood. Convergence is still judged on one plain EM step.
+ *
+ * With truncation (row i observable only when the time falls in (entry_i, ∞), innermost intervals
+ * truncStart[i]…count−1) this is Turnbull's (1976) self-consistency algorithm: besides its own
+ * weight spread over (L_i, R_i], each row adds "ghost" weight w_i·p_j / P(B_i) on every innermost
+ * interval j outside its truncation set B_i — the unseen specimens that would have failed before
+ * they could enter — and the new masses are the normalized sums. The likelihood maximized is
+ * Σ w_i·log(P(A_i) / P(B_i)).
  */
 export class SelfConsistency {
   private readonly prefix: Float64Array;
@@ -17,6 +24,7 @@ export class SelfConsistency {
     private readonly first: Int32Array,
     private readonly last: Int32Array,
     private readonly count: number,
+    private readonly truncStart: Int32Array | null = null,
   ) {
     this.prefix = new Float64Array(count + 1);
     this.spread = new Float64Array(count + 1);
@@ -26,14 +34,20 @@ export class SelfConsistency {
     for (let j = 0; j < this.count; j++) this.prefix[j + 1] = this.prefix[j] + p[j];
   }
 
-  /** Log-likelihood Σ w·log(mass covered); −Infinity if an observation is left with no mass. */
+  /** P(T > entry) for row i from the filled prefix sums (1 without truncation). */
+  private observable(i: number): number {
+    const start = this.truncStart ? this.truncStart[i] : 0;
+    return start === 0 ? 1 : this.prefix[this.count] - this.prefix[start];
+  }
+
+  /** Log-likelihood Σ w·log(mass covered / mass observable); −Infinity if a row is left with no mass. */
   logLikelihood(p: Float64Array): number {
     this.fillPrefix(p);
     let ll = 0;
     for (let i = 0; i < this.weights.length; i++) {
       const covered = this.prefix[this.last[i] + 1] - this.prefix[this.first[i]];
       if (!(covered > 0)) return -Infinity;
-      ll += this.weights[i] * Math.log(covered);
+      ll += this.weights[i] * (Math.log(covered) - Math.log(this.observable(i)));
     }
     return ll;
   }
@@ -49,6 +63,13 @@ export class SelfConsistency {
       const share = this.weights[i] / covered;
       spread[this.first[i]] += share;
       spread[this.last[i] + 1] -= share;
+      const start = this.truncStart ? this.truncStart[i] : 0;
+      if (start > 0) {
+        // Ghosts: weight w/P(B) on the intervals before the row's entry.
+        const ghost = this.weights[i] / this.observable(i);
+        spread[0] += ghost;
+        spread[start] -= ghost;
+      }
     }
     let running = 0;
     let sum = 0;

@@ -1,5 +1,6 @@
 // Turnbull's NPMLE for interval-censored times: rust is only ever seen at an inspection, so each
 // specimen's first-rust time is known to lie in (last clean inspection, first rusted inspection].
+// A specimen moved into a jar after the start is left-truncated at its entry (Turnbull 1976).
 import type { SurvivalObservation } from "./observations";
 import { SelfConsistency } from "./turnbull-em";
 
@@ -9,6 +10,11 @@ export interface IntervalObservation {
   upper: number;
   /** How many identical observations this row stands for (default 1); lets tabulated data in. */
   count?: number;
+  /**
+   * Delayed entry (left truncation): the specimen came under observation at this time, clean, so
+   * only failure times after it could have been seen. Absent: under observation from the start.
+   */
+  entry?: number;
 }
 
 export interface TurnbullInterval {
@@ -55,35 +61,40 @@ function compareEndpoints(a: Endpoint, b: Endpoint): number {
 interface Collapsed {
   lowers: number[];
   uppers: number[];
+  /** −Infinity: no truncation. */
+  entries: number[];
   weights: number[];
   total: number;
 }
 
-// Identical (lower, upper] rows are merged with summed weights: with a fixed inspection schedule a
-// group of thousands of specimens has only a few hundred distinct intervals.
+// Identical (lower, upper], entry rows are merged with summed weights: with a fixed inspection
+// schedule a group of thousands of specimens has only a few hundred distinct intervals.
 function collapse(obs: readonly IntervalObservation[]): Collapsed {
-  const byLower = new Map<number, Map<number, number>>();
-  let total = 0;
+  const byKey = new Map<string, number>();
+  const out: Collapsed = { lowers: [], uppers: [], entries: [], weights: [], total: 0 };
   for (const o of obs) {
     const w = o.count ?? 1;
+    const entry = o.entry ?? -Infinity;
     if (!Number.isFinite(o.lower)) throw new RangeError(`turnbull: lower must be finite, got ${o.lower}`);
     if (Number.isNaN(o.upper) || o.upper < o.lower) {
       throw new RangeError(`turnbull: need lower ≤ upper, got (${o.lower}, ${o.upper}]`);
     }
+    if (Number.isNaN(entry) || entry > o.lower) {
+      throw new RangeError(`turnbull: an entry time must not be after the interval's lower end, got entry ${entry} for (${o.lower}, ${o.upper}]`);
+    }
     if (!(w >= 0) || !Number.isFinite(w)) throw new RangeError(`turnbull: count must be ≥ 0, got ${w}`);
     if (w === 0) continue;
-    let inner = byLower.get(o.lower);
-    if (!inner) byLower.set(o.lower, (inner = new Map()));
-    inner.set(o.upper, (inner.get(o.upper) ?? 0) + w);
-    total += w;
-  }
-  const out: Collapsed = { lowers: [], uppers: [], weights: [], total };
-  for (const [lower, inner] of byLower) {
-    for (const [upper, w] of inner) {
-      out.lowers.push(lower);
-      out.uppers.push(upper);
+    const key = `${o.lower}|${o.upper}|${entry}`;
+    const at = byKey.get(key);
+    if (at !== undefined) out.weights[at] += w;
+    else {
+      byKey.set(key, out.weights.length);
+      out.lowers.push(o.lower);
+      out.uppers.push(o.upper);
+      out.entries.push(entry);
       out.weights.push(w);
     }
+    out.total += w;
   }
   return out;
 }
@@ -129,7 +140,21 @@ export function turnbullFit(obs: readonly IntervalObservation[], options: Turnbu
     last[i] = b;
   }
 
-  const em = new SelfConsistency(Float64Array.from(data.weights), data.total, first, last, count);
+  // Truncation (Turnbull 1976, §3): a row that entered at e could only have been seen to fail after
+  // e, so its likelihood is P(interval) / P(T > e). Innermost intervals inside (e, ∞) form a suffix
+  // of the sorted list; truncStart is where it begins (0: the row was at risk from the start).
+  const truncStart = new Int32Array(m);
+  let truncated = false;
+  for (let i = 0; i < m; i++) {
+    if (data.entries[i] === -Infinity) continue;
+    const entryEnd: Endpoint = { value: data.entries[i], kind: LEFT_OPEN };
+    let a = 0;
+    while (a < count && compareEndpoints(innerLeft[a], entryEnd) < 0) a++;
+    truncStart[i] = a;
+    if (a > 0) truncated = true;
+  }
+
+  const em = new SelfConsistency(Float64Array.from(data.weights), data.total, first, last, count, truncated ? truncStart : null);
   const { p, iterations, converged } = em.solve(tolerance, maxIterations);
 
   const intervals = innerLeft.map((l, j) => ({ lower: l.value, upper: innerRight[j].value, probability: p[j] }));
@@ -220,7 +245,9 @@ export function rightEndpointKm(intervalObs: readonly IntervalObservation[]): Su
     const count = o.count ?? 1;
     if (!Number.isInteger(count) || count < 0) throw new RangeError(`rightEndpointKm: count must be a whole number, got ${count}`);
     const row = Number.isFinite(o.upper) ? { time: o.upper, event: true } : { time: o.lower, event: false };
-    for (let c = 0; c < count; c++) out.push({ time: row.time, event: row.event });
+    for (let c = 0; c < count; c++) {
+      out.push(o.entry === undefined ? { time: row.time, event: row.event } : { time: row.time, event: row.event, entry: o.entry });
+    }
   }
   return out;
 }

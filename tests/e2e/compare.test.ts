@@ -36,6 +36,12 @@ describe("compare treatment outcomes", () => {
     await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await expect(page.locator("[data-testid=survival-chart] svg").first().textContent()).resolves.toContain("Uncoated control");
     await expect(page.getByRole("table").filter({ hasText: "Numbers at risk" }).count()).resolves.toBe(1);
+    // The demo trial's primary outcome is time to first rust, so that is the view it opens on; the
+    // page says how a moved specimen is grouped and timed, and that treatments are compared within chambers.
+    await expect(page.getByTestId("primary-outcome").textContent()).resolves.toMatch(/primary outcome is time to first rust; it is the view shown/);
+    await expect(page.getByTestId("moved-note").textContent()).resolves.toMatch(/at risk in the new jar only from the day of the move/);
+    await expect(summary.textContent()).resolves.toMatch(/Log-rank test stratified by chamber of time to first rust/);
+    await expect(summary.textContent()).resolves.toMatch(/rust \/ no-rust call/);
     await screenshot(page, "compare-treatment");
   });
 
@@ -63,7 +69,8 @@ describe("compare treatment outcomes", () => {
     const lines = text.trimEnd().split("\r\n");
     expect(lines[0]).toBe(
       "placement_id,specimen_id,specimen_label,material_class,chamber,treatment,arm,inspections_scored,interval_lower_day," +
-        "interval_upper_day,rusted,right_censored,final_area_percent,final_day,weeping_seen",
+        "interval_upper_day,rusted,right_censored,final_area_percent,final_day,weeping_seen,entry_day,rusted_earlier," +
+        "weeping_lower_day,weeping_upper_day",
     );
     expect(lines).toHaveLength(25);
     expect(lines.filter((l) => l.includes(",TV-M-") || l.includes(",TV-S-"))).toHaveLength(24);
@@ -79,6 +86,12 @@ describe("compare treatment outcomes", () => {
     for (const r of descriptor.resources) expect(zip.file(r.path), r.path).not.toBeNull();
   });
 
+  it("shows the rust-call kappa as the headline on the agreement tab", async () => {
+    await page.goto(compareUrl.replace(/\/compare$/, "/agreement"));
+    await expect(page.getByTestId("agreement-headline").textContent()).resolves.toMatch(/rust \/ no-rust call .*Cohen's κ = \d\.\d\d/);
+    await expect(page.getByTestId("agreement-headline").textContent()).resolves.toMatch(/Kappa on ASTM D610 grades/);
+  });
+
   it("opens the printable report with the summary, a chart and the method notes", async () => {
     await page.goto(compareUrl);
     await page.getByRole("link", { name: "Printable report" }).click();
@@ -87,6 +100,7 @@ describe("compare treatment outcomes", () => {
     await expect(page.getByTestId("plain-summary").textContent()).resolves.toMatch(/24 specimens/);
     await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await expect(page.getByRole("heading", { name: "Method notes" }).isVisible()).resolves.toBe(true);
+    await expect(page.locator("section[aria-labelledby=method-h]").textContent()).resolves.toMatch(/Moved specimens\..*at risk in the new jar only from the day of the move/);
     expect(await axeViolations(page)).toEqual([]);
     await page.emulateMedia({ media: "print" });
     await expect(page.getByRole("button", { name: "Print / save as PDF" }).isVisible()).resolves.toBe(false);

@@ -75,6 +75,11 @@ describe("outcomes from scores of record", () => {
     // (Cohen 1960, computed by hand).
     expect(c.agreement?.pairs).toBe(3);
     expect(c.agreement?.kappa).toBeCloseTo(0.5, 12);
+    // The headline is kappa on the rust / no-rust call of the same three pairs: (clean, rust),
+    // (clean, clean), (rust, rust). Observed 2/3; chance 1/3·2/3 + 2/3·1/3 = 4/9; κ = (2/3 − 4/9)/(5/9)
+    // = 0.4 (Cohen 1960, by hand).
+    expect(c.agreement?.rustCall).toMatchObject({ pairs: 3, agreed: 2, recordRusted: 1, blindRusted: 2 });
+    expect(c.agreement?.rustCall.kappa).toBeCloseTo(0.4, 12);
     expect(c.summary[0]).toMatch(/^3 specimens in 2 groups, 2 of them seen to rust/);
     expect(c.notes.at(-1)).toMatch(/do not replace a conservator's judgement/);
     expect(c.notes.join(" ")).toMatch(/1 of 4 specimens have no scored inspection yet/);

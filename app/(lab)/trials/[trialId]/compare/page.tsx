@@ -2,6 +2,8 @@ import Link from "next/link";
 import { humidityLevelCount, MIN_HUMIDITY_LEVELS } from "@/lib/analysis/humidity-response";
 import { analysisPage, type AnalysisPageProps } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
+import { defaultOutcomeView, OUTCOME_LABELS } from "@/lib/analysis/params";
+import { MOVED_SPECIMEN_NOTE } from "@/lib/analysis/sentences";
 import { AreaSection } from "@/components/analysis/area-section";
 import { CompareControls, ExportLinks } from "@/components/analysis/compare-controls";
 import { FinalSection } from "@/components/analysis/final-section";
@@ -25,6 +27,11 @@ export default async function ComparePage(props: AnalysisPageProps) {
           {trial.question} {analysis.startAt ? `Day 0 is ${formatDateTime(analysis.startAt)}.` : ""} {analysis.doneInspections} inspections done,
           {" "}{analysis.recordScores} scores of record.
         </p>
+        <p className="text-sm" data-testid="primary-outcome">
+          This trial&apos;s primary outcome is {OUTCOME_LABELS[defaultOutcomeView(trial.primaryOutcome)].toLowerCase()}
+          {q.outcome === defaultOutcomeView(trial.primaryOutcome) ? "; it is the view shown." : "; the comparison opens on it."}
+        </p>
+        <p className="text-sm muted" data-testid="moved-note">{MOVED_SPECIMEN_NOTE}</p>
       </div>
 
       {!c ? (
@@ -43,7 +50,7 @@ export default async function ComparePage(props: AnalysisPageProps) {
           <CompareControls base={base} q={q} />
           <ExportLinks trialId={trial.id} q={q} />
           <SummaryPanel c={c} />
-          {q.outcome === "first-rust" && <SurvivalSection c={c} />}
+          {(q.outcome === "first-rust" || q.outcome === "weeping") && <SurvivalSection c={c} />}
           {q.outcome === "area" && <AreaSection c={c} />}
           {q.outcome === "final" && <FinalSection c={c} />}
           <details className="panel p-4">

@@ -1,8 +1,9 @@
-// GET /api/trials/[trialId]/analysis?groupBy=treatment&method=turnbull — the comparison as JSON:
-// groups with curves, medians and tests, the plain-language summary, and per-specimen outcomes.
+// GET /api/trials/[trialId]/analysis?groupBy=treatment&method=turnbull&outcome=weeping — the comparison
+// as JSON: groups with curves, medians and tests, the plain-language summary, and per-specimen
+// outcomes. Without an outcome, the trial's primary outcome picks it (as on the compare page).
 import { NextResponse } from "next/server";
 import { getTrialAnalysis } from "@/db/queries/analysis";
-import { analysisQuery } from "@/lib/analysis/params";
+import { analysisQuery, endpointOf } from "@/lib/analysis/params";
 import { getTrialAccess } from "@/db/queries/trial-access";
 import { labRoute } from "@/lib/auth/route";
 import { assertResultsVisible } from "@/lib/trials/access";
@@ -11,14 +12,17 @@ import { outcomeRows } from "@/lib/export/outcome-rows";
 export const dynamic = "force-dynamic";
 
 export const GET = labRoute<{ trialId: string }>("analysis.read", async (ctx, req, { trialId }) => {
-  const { groupBy, method } = analysisQuery(new URL(req.url).searchParams);
-  const { access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
+  const searchParams = new URL(req.url).searchParams;
+  analysisQuery(searchParams); // a bad value answers 422 before anything is loaded
+  const { access, trial: accessTrial } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
   assertResultsVisible(access);
-  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy, method });
+  const { groupBy, method, outcome } = analysisQuery(searchParams, accessTrial.primaryOutcome);
+  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId, groupBy, method, endpoint: endpointOf(outcome) });
   const { trial } = analysis;
   return NextResponse.json(
     {
-      trial: { id: trial.id, title: trial.title, status: trial.status, startedAt: trial.startedAt },
+      trial: { id: trial.id, title: trial.title, status: trial.status, startedAt: trial.startedAt, primaryOutcome: trial.primaryOutcome },
+      outcome,
       startAt: analysis.startAt,
       doneInspections: analysis.doneInspections,
       recordScores: analysis.recordScores,
