@@ -171,7 +171,8 @@ export function ladderSpecimens(): DemoSpecimen[] {
   const rng = createRng("tarrow-ladder-specimens");
   return Array.from({ length: 40 }, (_, i) => {
     const stony = i % 3 === 2;
-    const find = findNames[(i + 2) % findNames.length];
+    // Other finds than the running trial's first one, so a search by find name keeps to one trial's slices.
+    const find = findNames[1 + (i % (findNames.length - 1))];
     return {
       label: `TV-L-${String(i + 1).padStart(3, "0")}`,
       materialClass: stony ? "stony-iron" : "iron-meteorite",

@@ -25,7 +25,7 @@ describe("from the humidity response to a storage rule", () => {
     await page.waitForURL(/\/trials\/[0-9a-f-]+$/);
     await page.getByRole("navigation", { name: "Trial sections" }).getByRole("link", { name: "Compare" }).click();
     await page.waitForURL(/\/compare/);
-    await page.getByRole("link", { name: "humidity response" }).click();
+    await page.getByRole("link", { name: "humidity response", exact: true }).click();
     await page.waitForURL(/\/humidity/);
     humidityUrl = page.url().split("?")[0];
     await page.getByRole("heading", { name: "Humidity response", level: 1 }).waitFor();

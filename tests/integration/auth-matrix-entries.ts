@@ -47,6 +47,7 @@ const SCORE = "app/_actions/scores.ts";
 const SCHEDULE = "app/_actions/inspections.ts";
 const SCORING = "app/_actions/scorers.ts";
 const TRIALS = "app/_actions/trials.ts";
+const RULES = "app/_actions/storage-rules.ts";
 
 export const ENTRY_POINTS: Record<string, Entry> = {
   // ---- server actions ----
@@ -75,6 +76,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SCORING}#assignScorerAction`]: { permission: "scorers.assign", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, userId: f.users.technician, blind: "on" }) },
   [`${SCORING}#removeScorerAction`]: { permission: "scorers.assign", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, userId: f.users.technician }) },
   [`${SCORING}#setScoreRuleAction`]: { permission: "scorers.assign", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, scoreRule: "consensus" }) },
+  [`${RULES}#acceptStorageRuleAction`]: { permission: "storageRules.accept", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, materialClass: "iron-meteorite", treatmentId: f.treatmentId, share: "10", horizon: "10" }) },
   // Creating a trial in the caller's lab from another lab's chambers and treatments: refused as invalid input.
   [`${TRIALS}#createTrialAction`]: { permission: "trials.write", empty: "invalid", foreign: trialForm, foreignAnswer: "invalid" },
   [`${TRIALS}#updateTrialAction`]: { permission: "trials.write", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, ...trialForm(f) }) },

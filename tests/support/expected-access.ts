@@ -9,8 +9,8 @@ const BENCH: Permission[] = ["readings.write", "desiccant.write", "inspections.r
 // Researchers: design trials, chambers (and their logger tokens), specimens, treatments; move inspections;
 // record the agreed score after scorers discussed a disagreement.
 const DESIGN: Permission[] = ["chambers.write", "chambers.tokens", "specimens.write", "treatments.write", "trials.write", "inspections.reschedule", "scores.consensus"];
-// Lead: everything, including members, scorer assignment and concluding trials.
-const LEAD: Permission[] = ["members.manage", "scorers.assign", "trials.conclude"];
+// Lead: everything, including members, scorer assignment, concluding trials and accepting the lab's storage rules.
+const LEAD: Permission[] = ["members.manage", "scorers.assign", "trials.conclude", "storageRules.accept"];
 
 export const ROLE_PERMISSIONS: Record<Role, readonly Permission[]> = {
   lead: [...READ, ...BENCH, ...DESIGN, ...LEAD],
@@ -39,6 +39,7 @@ export const PAGE_PERMISSIONS: Record<string, Permission> = {
   "/mailbox": "members.manage",
   "/settings": "lab.read",
   "/specimens": "lab.read",
+  "/storage-rules": "lab.read",
   "/specimens/new": "specimens.write",
   "/specimens/import": "specimens.write",
   "/specimens/[specimenId]": "lab.read",
@@ -58,6 +59,7 @@ export const PAGE_PERMISSIONS: Record<string, Permission> = {
   "/trials/[trialId]/scoring/[photoId]": "scores.write",
   "/trials/[trialId]/agreement": "analysis.read",
   "/trials/[trialId]/compare": "analysis.read",
+  "/trials/[trialId]/humidity": "analysis.read",
   "/trials/[trialId]/report": "analysis.read",
   "/trials/[trialId]/inspections/[inspectionId]": "lab.read",
   "/trials/[trialId]/inspections/[inspectionId]/photos": "lab.read",
