@@ -1,4 +1,5 @@
 "use client";
+import { formatCaptureTime } from "@/lib/format";
 import { formatBytes } from "@/lib/photos/config";
 import { TimeCheckNote } from "./time-check-note";
 import type { UploadItem } from "./use-upload-queue";
@@ -65,7 +66,7 @@ export function UploadRow({ item, index, specimens, onSpecimen, onCancel, onRetr
         <div className="space-y-1 text-sm" role="status">
           <p>
             {item.result.alreadyFinalized ? "Already recorded" : "Recorded"} for {item.result.specimenLabel}
-            {item.result.capturedAtRaw ? ` · taken ${item.result.capturedAtRaw}${item.result.capturedOffset ? ` (UTC${item.result.capturedOffset})` : " (no zone)"}` : ""}.
+            {item.result.capturedAtRaw ? ` · taken ${formatCaptureTime(item.result)}` : ""}.
           </p>
           <TimeCheckNote check={item.result.check} />
           {item.result.warnings.filter((w) => w !== item.result?.check.message).map((w) => (
