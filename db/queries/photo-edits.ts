@@ -2,10 +2,11 @@ import "server-only";
 // Looking after a recorded photo: acknowledge its capture-time warning with a note, move it to
 // another inspection or specimen of the same trial, or delete it. Each is one transaction with its
 // audit events, under the trial's share lock (a concluded trial refuses with the lock message).
-import { and, count, eq, inArray } from "drizzle-orm";
+import { and, asc, count, eq, inArray } from "drizzle-orm";
 import { recordAudit } from "@/db/audit";
 import { db, type DbOrTx, type Tx } from "@/db/client";
-import { inspections, marks, photos, scores, specimens } from "@/db/schema";
+import { inspections, marks, photos, placements, scores, specimens } from "@/db/schema";
+import { formatDate } from "@/lib/format";
 import { AppError } from "@/lib/auth/errors";
 import { checkCaptureTime } from "@/lib/photos/capture-check";
 import { readPhotoConfig } from "@/lib/photos/config";
@@ -54,6 +55,21 @@ export async function photoWorkCounts({ labId, photoIds }: { labId: string; phot
   for (const r of s) if (r.photoId) out.get(r.photoId)!.scores = Number(r.n);
   for (const r of m) out.get(r.photoId)!.marks = Number(r.n);
   return out;
+}
+
+/** Where a photo of the trial may be moved: its inspections and every specimen ever placed in it. */
+export async function moveTargets({ labId, trialId }: { labId: string; trialId: string }) {
+  const [insp, spec] = await Promise.all([
+    db.select({ id: inspections.id, dayNumber: inspections.dayNumber, plannedAt: inspections.plannedAt }).from(inspections)
+      .where(and(eq(inspections.labId, labId), eq(inspections.trialId, trialId))).orderBy(asc(inspections.plannedAt)),
+    db.selectDistinct({ id: specimens.id, label: specimens.label }).from(placements)
+      .innerJoin(specimens, eq(specimens.id, placements.specimenId))
+      .where(and(eq(placements.labId, labId), eq(placements.trialId, trialId))),
+  ]);
+  return {
+    inspections: insp.map((i) => ({ id: i.id, label: `Day ${i.dayNumber} (planned ${formatDate(i.plannedAt)})` })),
+    specimens: spec.sort((a, b) => a.label.localeCompare(b.label, undefined, { numeric: true })),
+  };
 }
 
 /** Record that someone looked at the capture-time warning, with their note. Editing the note is allowed. */
