@@ -44,7 +44,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   return (
     <div className="space-y-6">
       <nav aria-label="Breadcrumb" className="text-sm muted">
-        <Link className="link" href={base}>{trial.title}</Link> › <Link className="link" href={`${base}/inspections/${inspection.id}`}>Day {inspection.dayNumber}</Link> › Photos
+        <Link className="link" href={base}>{trial.title}</Link> › <Link className="link" href={`${base}/schedule`}>Schedule</Link> › <Link className="link" href={`${base}/inspections/${inspection.id}`}>Inspection day {inspection.dayNumber}</Link> › <span aria-current="page">Photos</span>
       </nav>
       <header className="space-y-1">
         <h1 className="text-2xl font-semibold">Photos · day {inspection.dayNumber}</h1>
