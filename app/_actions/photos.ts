@@ -27,7 +27,7 @@ export const movePhotoAction = labAction("photos.upload", movePhotoSchema, async
 export const deletePhotoAction = labAction("photos.upload", deletePhotoSchema, async (ctx, d) => {
   const r = await deletePhoto({ actor: ctx, photoId: d.photoId, confirmScores: d.confirmScores });
   revalidatePhotos(r.trialId, r.inspectionId);
-  const kept = r.scoresKept ? ` ${r.scoresKept} score${r.scoresKept === 1 ? "" : "s"} made on it stay recorded without the photo.` : "";
+  const kept = r.scoresKept ? ` ${r.scoresKept === 1 ? "The score made on it stays" : `The ${r.scoresKept} scores made on it stay`} recorded without the photo.` : "";
   const files = r.filesRemoved ? "" : " Storage could not be reached; the files will be removed by the hourly sweep.";
   return { ok: true, message: `Photo deleted.${kept}${files}` };
 });

@@ -22,7 +22,7 @@ export function describeDeletion(w: PhotoWork): string | null {
   const day = w.dayNumber == null ? "" : ` at day ${w.dayNumber}`;
   const parts: string[] = [];
   if (w.scores > 0) {
-    parts.push(`${plural(w.scores, "score was", "scores were")} made on this photo. ${w.scores === 1 ? "It stays" : "They stay"} recorded for ${w.specimenLabel}${day} with ${w.scores === 1 ? "its" : "their"} area, grades and notes, but no longer point to a photo`);
+    parts.push(`${plural(w.scores, "score was", "scores were")} made on this photo. ${w.scores === 1 ? "It stays" : "They stay"} recorded for ${w.specimenLabel}${day} with ${w.scores === 1 ? "its" : "their"} area, grades and notes, but no longer ${w.scores === 1 ? "points" : "point"} to a photo`);
   }
   if (w.marks > 0) {
     parts.push(`the ${plural(w.marks, "mark", "marks")} drawn on it (face outline${w.marks === 1 ? "" : "s"} and spots) ${w.marks === 1 ? "is" : "are"} deleted with the photo`);
