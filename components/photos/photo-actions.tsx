@@ -121,11 +121,13 @@ function DeleteButton() {
 export function PhotoActions(p: Props) {
   return (
     <div className="space-y-2">
-      {p.photo.warn && <AcknowledgeForm photo={p.photo} name={p.name} />}
+      {/* Keyed by what they show: after a save the forms start again from the photo's new state
+          (React resets a form after its action, which would otherwise bring back the old choices). */}
+      {p.photo.warn && <AcknowledgeForm key={p.photo.ackNote ?? ""} photo={p.photo} name={p.name} />}
       <details className="text-sm">
         <summary className="cursor-pointer">Move or delete</summary>
         <div className="space-y-3 pt-2">
-          <MoveForm photo={p.photo} name={p.name} targets={p.targets} />
+          <MoveForm key={`${p.photo.inspectionId}|${p.photo.specimenId}`} photo={p.photo} name={p.name} targets={p.targets} />
           <hr className="border-[var(--line)]" />
           <DeleteForm photo={p.photo} name={p.name} deletionImpact={p.deletionImpact} />
         </div>

@@ -130,7 +130,9 @@ describe("looking after recorded photos", () => {
     const page = await context.newPage();
     await signIn(page, lab.users.technician.email, TEST_PASSWORD);
     await openPhotos(page);
-    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: { r: 150, g: 90, b: 40 } } }).jpeg().toBuffer();
+    // Noise keeps the JPEG above a few kilobytes, so its size reads in KB.
+    const jpeg = await sharp({ create: { width: 320, height: 240, channels: 3, background: { r: 150, g: 90, b: 40 }, noise: { type: "gaussian", mean: 128, sigma: 50 } } }).jpeg({ quality: 90 }).toBuffer();
+    expect(jpeg.byteLength).toBeGreaterThan(10 * 1024);
     const name = `${labels[1]}_preview.jpg`;
     await page.getByLabel("Choose photos").setInputFiles([{ name, mimeType: "image/jpeg", buffer: jpeg }]);
     const row = page.locator(`li[data-filename="${name}"]`);
