@@ -2,7 +2,7 @@
 // What a photographer can do about a recorded photo: acknowledge its capture-time warning with a
 // note, move it to another inspection or specimen of the trial, or delete it (asking first, and
 // saying what happens to scores and marks made on it).
-import { useActionState, useEffect } from "react";
+import { useActionState } from "react";
 import { useFormStatus } from "react-dom";
 import { acknowledgeCheckAction, deletePhotoAction, movePhotoAction } from "@/app/_actions/photos";
 import type { ActionState } from "@/lib/auth/action";
@@ -33,17 +33,24 @@ function Message({ state }: { state?: ActionState }) {
   return <p role="alert" className="text-sm rounded-md px-2 py-1 bg-rust-50 text-rust-800 dark:bg-rust-900/40 dark:text-rust-100">{state.message}</p>;
 }
 
-/** Tell the page-level status line once an action succeeded (the card may leave the list). */
-function useAnnounce(state?: ActionState) {
+type Action = (prev: ActionState | undefined, fd: FormData) => Promise<ActionState>;
+
+/**
+ * The action, telling the page-level status line when it succeeded. Said from inside the action, not
+ * from an effect: the card (or the form, keyed by the photo's place) is replaced in the same render
+ * that brings the answer.
+ */
+function useAnnouncing(action: Action) {
   const announce = usePhotoNotice();
-  useEffect(() => {
-    if (state?.ok && state.message) announce(state.message);
-  }, [state, announce]);
+  return useActionState(async (prev: ActionState | undefined, fd: FormData) => {
+    const r = await action(prev, fd);
+    if (r.ok && r.message) announce(r.message);
+    return r;
+  }, undefined);
 }
 
 export function AcknowledgeForm({ photo, name }: Pick<Props, "photo" | "name">) {
-  const [state, action] = useActionState(acknowledgeCheckAction, undefined);
-  useAnnounce(state);
+  const [state, action] = useAnnouncing(acknowledgeCheckAction);
   const id = `ack-${photo.id}`;
   const err = state?.errors?.note ? `${id}-err` : undefined;
   return (
@@ -61,8 +68,7 @@ export function AcknowledgeForm({ photo, name }: Pick<Props, "photo" | "name">) 
 }
 
 function MoveForm({ photo, name, targets }: Pick<Props, "photo" | "name" | "targets">) {
-  const [state, action] = useActionState(movePhotoAction, undefined);
-  useAnnounce(state);
+  const [state, action] = useAnnouncing(movePhotoAction);
   const id = `move-${photo.id}`;
   return (
     <form action={action} className="space-y-2" aria-label={`Move ${name}`}>
@@ -90,8 +96,7 @@ function MoveForm({ photo, name, targets }: Pick<Props, "photo" | "name" | "targ
 }
 
 function DeleteForm({ photo, name, deletionImpact }: Pick<Props, "photo" | "name" | "deletionImpact">) {
-  const [state, action] = useActionState(deletePhotoAction, undefined);
-  useAnnounce(state);
+  const [state, action] = useAnnouncing(deletePhotoAction);
   const id = `del-${photo.id}`;
   return (
     <form action={action} className="space-y-2" aria-label={`Delete ${name}`}>
