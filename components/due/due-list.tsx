@@ -1,6 +1,7 @@
 "use client";
 // The lab-wide due list, fetched from /api/inspections so it stays current: refreshed every 60 s and
-// whenever the tab comes back into view. Grouped: overdue, today, the rest of the coming week.
+// whenever the tab comes back into view. Grouped by the legend's own words: overdue, due, upcoming
+// (the API lists the coming week).
 import { useCallback, useEffect, useRef, useState } from "react";
 import Link from "next/link";
 import { formatDateTime } from "@/lib/format";
@@ -12,14 +13,11 @@ const REFRESH_MS = 60_000;
 const DUE_MAX = 500; // the API's largest page
 const WEEK_MS = 7 * 86_400_000;
 
-function startOfTomorrowUtc(now: Date) {
-  return Date.UTC(now.getUTCFullYear(), now.getUTCMonth(), now.getUTCDate() + 1);
-}
-
-function Group({ id, title, items, empty }: { id: string; title: string; items: Item[]; empty: string }) {
+function Group({ id, title, scope, items, empty }: { id: string; title: string; scope: string; items: Item[]; empty: string }) {
   return (
     <section className="panel p-4 space-y-2" aria-labelledby={id}>
       <h2 id={id} className="font-semibold">{title} <span className="muted font-normal">({items.length})</span></h2>
+      <p className="text-xs muted">{scope}</p>
       {items.length === 0 ? <p className="text-sm muted">{empty}</p> : (
         <ul className="divide-y divide-[var(--line)]">
           {items.map((i) => (
@@ -78,12 +76,10 @@ export function DueList() {
     };
   }, [load]);
 
-  const now = data ? new Date(data.now) : new Date();
-  const tomorrow = startOfTomorrowUtc(now);
   const items = data?.items ?? [];
   const overdue = items.filter((i) => i.status === "overdue");
-  const today = items.filter((i) => i.status !== "overdue" && Date.parse(i.plannedAt) < tomorrow);
-  const week = items.filter((i) => i.status !== "overdue" && Date.parse(i.plannedAt) >= tomorrow);
+  const due = items.filter((i) => i.status === "due");
+  const upcoming = items.filter((i) => i.status === "upcoming");
 
   return (
     <div className="space-y-4">
@@ -96,9 +92,9 @@ export function DueList() {
       {error && <p role="alert" className="text-sm rounded-md px-3 py-2 bg-rust-50 text-rust-800">{error}</p>}
       {data && (
         <>
-          <Group id="overdue-h" title="Overdue" items={overdue} empty="Nothing overdue." />
-          <Group id="today-h" title="Today (UTC)" items={today} empty="Nothing else planned for today." />
-          <Group id="week-h" title="The next seven days" items={week} empty="Nothing planned in the coming week. Running trials list their full schedule on their Schedule tab." />
+          <Group id="overdue-h" title="Overdue" scope={`Past the planned time by more than the grace period (${data.graceHours} h).`} items={overdue} empty="Nothing overdue." />
+          <Group id="due-h" title="Due" scope="Planned for today or tomorrow (UTC), or past but still within the grace period." items={due} empty="Nothing due." />
+          <Group id="upcoming-h" title="Upcoming" scope="Planned after tomorrow, within the coming seven days." items={upcoming} empty="Nothing upcoming in the coming week. Running trials list their full schedule on their Schedule tab." />
           {data.total > items.length && (
             <p className="text-sm muted flex flex-wrap items-center gap-3">
               <span>Showing the first {items.length} of {data.totalCapped ? `${data.total.toLocaleString("en-GB")} or more` : data.total}.</span>

@@ -1,4 +1,5 @@
 import type { PhotoView } from "@/db/queries/photos";
+import { formatCaptureTime } from "@/lib/format";
 import { formatBytes } from "@/lib/photos/config";
 
 const ORIENTATION: Record<number, string> = {
@@ -9,7 +10,7 @@ const ORIENTATION: Record<number, string> = {
 /** The photo's recorded EXIF and file facts; location only when the viewer may see it. */
 export function ExifDetails({ photo }: { photo: PhotoView }) {
   const rows: [string, string][] = [
-    ["Captured (camera clock)", photo.capturedAtRaw ? `${photo.capturedAtRaw}${photo.capturedOffset ? ` (UTC${photo.capturedOffset})` : " (no zone recorded)"}` : "not recorded"],
+    ["Captured", formatCaptureTime(photo)],
     ["Camera", photo.camera ?? "not recorded"],
     ["Lens", photo.lens ?? "not recorded"],
     ["Exposure", photo.exposure ?? "not recorded"],

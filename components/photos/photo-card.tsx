@@ -16,15 +16,16 @@ export function PhotoThumb({ photo, alt, size = "thumb" }: { photo: PhotoView; a
   );
 }
 
-export function PhotoCard({ photo, title, alt }: { photo: PhotoView; title: string; alt: string }) {
+export function PhotoCard({ photo, title, alt, children }: { photo: PhotoView; title: string; alt: string; children?: React.ReactNode }) {
   return (
     <figure className="panel p-2 space-y-1" data-photo-id={photo.id} data-status={photo.status}>
       <PhotoThumb photo={photo} alt={alt} />
       <figcaption className="space-y-1">
         <p className="text-sm font-medium">{title}</p>
         <p className="text-xs muted break-all">{photo.filename}</p>
-        <TimeCheckNote check={photo.check} />
+        <TimeCheckNote check={photo.check} ack={photo.checkAck} />
         <ExifDetails photo={photo} />
+        {children}
       </figcaption>
     </figure>
   );

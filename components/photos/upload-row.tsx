@@ -1,4 +1,6 @@
 "use client";
+import { useEffect, useState } from "react";
+import { formatCaptureTime } from "@/lib/format";
 import { formatBytes } from "@/lib/photos/config";
 import { TimeCheckNote } from "./time-check-note";
 import type { UploadItem } from "./use-upload-queue";
@@ -18,6 +20,27 @@ type Props = {
   onRemove: () => void;
 };
 
+// Browsers draw JPEG and PNG (and WebP) themselves; TIFF and HEIC get a placeholder here and a preview
+// from the server once uploaded (TIFF) or none (HEIC).
+const BROWSER_DRAWS = /^image\/(jpeg|png|webp)$/;
+
+/** A thumbnail of the chosen file before anything is sent: an object URL, revoked when the row goes. */
+function LocalPreview({ file }: { file: File }) {
+  const [url, setUrl] = useState<string | null>(null);
+  const drawable = BROWSER_DRAWS.test(file.type) || /\.(jpe?g|png)$/i.test(file.name);
+  useEffect(() => {
+    if (!drawable) return;
+    const u = URL.createObjectURL(file);
+    setUrl(u);
+    return () => URL.revokeObjectURL(u);
+  }, [file, drawable]);
+  if (!drawable) {
+    return <div className="w-20 h-16 shrink-0 rounded border border-dashed border-[var(--line)] grid place-items-center text-[10px] text-center muted p-1" role="img" aria-label={`${file.name}: no preview before upload`}>no preview before upload</div>;
+  }
+  // eslint-disable-next-line @next/next/no-img-element -- a local object URL, not a served image
+  return url ? <img src={url} alt={`Preview of ${file.name}`} className="w-20 h-16 shrink-0 rounded object-cover bg-iron-900" data-testid="local-preview" /> : <div className="w-20 h-16 shrink-0" />;
+}
+
 export function UploadRow({ item, index, specimens, onSpecimen, onCancel, onRetry, onRemove }: Props) {
   const selectId = `upload-specimen-${index}`;
   const errId = `upload-error-${index}`;
@@ -26,7 +49,8 @@ export function UploadRow({ item, index, specimens, onSpecimen, onCancel, onRetr
   const pct = Math.round(item.progress * 100);
   return (
     <li className="panel p-3 space-y-2" data-upload-state={item.state} data-filename={item.file.name}>
-      <div className="flex flex-wrap items-baseline gap-x-3 gap-y-1">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1">
+        <LocalPreview file={item.file} />
         <span className="font-medium break-all">{item.file.name}</span>
         <span className="text-xs muted">{formatBytes(item.file.size)}</span>
         <span className={`ml-auto text-xs rounded-full px-2 py-0.5 border ${item.state === "done" ? "border-verdigris-500 text-verdigris-700 dark:text-verdigris-300" : item.state === "error" ? "border-rust-500 text-rust-700 dark:text-rust-300" : "border-[var(--line)]"}`}>
@@ -65,7 +89,7 @@ export function UploadRow({ item, index, specimens, onSpecimen, onCancel, onRetr
         <div className="space-y-1 text-sm" role="status">
           <p>
             {item.result.alreadyFinalized ? "Already recorded" : "Recorded"} for {item.result.specimenLabel}
-            {item.result.capturedAtRaw ? ` · taken ${item.result.capturedAtRaw}${item.result.capturedOffset ? ` (UTC${item.result.capturedOffset})` : " (no zone)"}` : ""}.
+            {item.result.capturedAtRaw ? ` · taken ${formatCaptureTime(item.result)}` : ""}.
           </p>
           <TimeCheckNote check={item.result.check} />
           {item.result.warnings.filter((w) => w !== item.result?.check.message).map((w) => (

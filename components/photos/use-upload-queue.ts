@@ -22,7 +22,7 @@ export type UploadItem = {
   error?: string;
   /** The file can never be uploaded (wrong type, too large): only removal helps. */
   blocked?: boolean;
-  result?: { photoId: string; specimenLabel: string; capturedAtRaw: string | null; capturedOffset: string | null; check: CaptureCheck; warnings: string[]; alreadyFinalized: boolean };
+  result?: { photoId: string; specimenLabel: string; capturedAtRaw: string | null; capturedOffset: string | null; capturedAt: string | null; check: CaptureCheck; warnings: string[]; alreadyFinalized: boolean };
 };
 
 type Runtime = { xhr?: XMLHttpRequest; token?: string; uploaded?: boolean; sha256?: string };
@@ -117,8 +117,8 @@ export function useUploadQueue({ inspectionId, specimens, maxBytes, onFinished }
       if (fin.status !== 0 && fin.status < 500) runtime.current.set(id, {});
       return patch(id, { state: "error", error: errorText(fin.data) });
     }
-    const r = fin.data as { photo: { id: string; specimenLabel: string; capturedAtRaw: string | null; capturedOffset: string | null }; check: CaptureCheck; warnings: string[]; alreadyFinalized: boolean };
-    patch(id, { state: "done", result: { photoId: r.photo.id, specimenLabel: r.photo.specimenLabel, capturedAtRaw: r.photo.capturedAtRaw, capturedOffset: r.photo.capturedOffset, check: r.check, warnings: r.warnings, alreadyFinalized: r.alreadyFinalized } });
+    const r = fin.data as { photo: { id: string; specimenLabel: string; capturedAtRaw: string | null; capturedOffset: string | null; capturedAt: string | null }; check: CaptureCheck; warnings: string[]; alreadyFinalized: boolean };
+    patch(id, { state: "done", result: { photoId: r.photo.id, specimenLabel: r.photo.specimenLabel, capturedAtRaw: r.photo.capturedAtRaw, capturedOffset: r.photo.capturedOffset, capturedAt: r.photo.capturedAt, check: r.check, warnings: r.warnings, alreadyFinalized: r.alreadyFinalized } });
     onFinished();
   }, [inspectionId, patch, onFinished]);
 

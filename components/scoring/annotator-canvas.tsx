@@ -24,13 +24,17 @@ type Props = {
   dispatch: (a: AnnotationAction) => void;
   ghost: Ghost | null;
   maskUrl: string | null;
+  /** Opacity of the estimate's mask, 0–1. */
+  maskOpacity?: number;
+  /** Draw the spot marks (hide them to see the photo or the mask beneath). */
+  showSpots?: boolean;
   readOnly: boolean;
   label: string;
 };
 
 const CLOSE_PX = 10; // click this close to the first point to close an outline
 
-export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, annotation, dispatch, ghost, maskUrl, readOnly, label }: Props) {
+export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, annotation, dispatch, ghost, maskUrl, maskOpacity = 0.7, showSpots = true, readOnly, label }: Props) {
   const svgRef = useRef<SVGSVGElement>(null);
   const maskId = useId().replace(/:/g, "");
   const [draft, setDraft] = useState<Draft | null>(null);
@@ -180,9 +184,10 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
       onPointerDown={onPointerDown} onPointerMove={onPointerMove} onPointerUp={onPointerUp} onPointerCancel={onPointerUp}
       onPointerLeave={() => setHover(null)} onKeyDown={onKeyDown} data-testid="annotation-canvas">
       {src ? <image href={src} x={0} y={0} width={W} height={H} preserveAspectRatio="none" /> : <rect width={W} height={H} fill="#282d33" />}
-      {maskUrl && <image href={maskUrl} x={0} y={0} width={W} height={H} preserveAspectRatio="none" opacity={0.7} style={{ imageRendering: "pixelated" }} />}
       <FaceLayer face={annotation.face} W={W} H={H} />
-      <SpotLayer id={`spots-${maskId}`} marks={annotation.marks} W={W} H={H} />
+      {showSpots && <SpotLayer id={`spots-${maskId}`} marks={annotation.marks} W={W} H={H} />}
+      {/* Over the spots, so it stays visible where they cover it; its opacity is the scorer's choice. */}
+      {maskUrl && <image href={maskUrl} x={0} y={0} width={W} height={H} preserveAspectRatio="none" opacity={maskOpacity} style={{ imageRendering: "pixelated" }} data-testid="estimate-mask" />}
       {ghost && <GhostLayer {...ghost} />}
       <DraftLayer draft={draft} unit={u} hover={draft?.kind === "points" ? hover : null} />
       {hover && !readOnly && (tool === "brush" || tool === "erase") && (

@@ -10,8 +10,6 @@ type Props = {
   canRun: boolean;
   stale: boolean;
   decision: EstimateDecision;
-  showMask: boolean;
-  setShowMask: (v: boolean) => void;
   onRun: () => void;
   onDecide: (d: EstimateDecision) => void;
   readOnly: boolean;
@@ -50,10 +48,7 @@ export function EstimatePanel(p: Props) {
               Estimated rust-coloured area: <strong className="tabular-nums" data-testid="estimate-percent">{done.percent.toFixed(3)} %</strong> of the face
               {p.stale && <span className="text-rust-600"> — the face changed since; run it again.</span>}
             </p>
-            <label className="flex items-center gap-2">
-              <input type="checkbox" checked={p.showMask} onChange={(e) => p.setShowMask(e.target.checked)} />
-              Show the estimate&apos;s mask (cyan)
-            </label>
+            <p className="text-xs muted">The mask (cyan) and its opacity are under Layers, beside the spot marks.</p>
             {!p.readOnly && (
               <div className="flex flex-wrap gap-2" role="group" aria-label="Use of the estimate">
                 <button type="button" className="btn-quiet text-sm" aria-pressed={p.decision === "accepted"} onClick={() => p.onDecide("accepted")} disabled={p.stale}>Accept</button>

@@ -2,12 +2,13 @@
 // The score for one specimen at one inspection. Spot count and area follow the marks until the
 // scorer types over them; the grades are computed as they go; marks travel as hidden JSON fields so
 // the server saves marks and score in one transaction.
-import { useActionState, useState } from "react";
+import { useRouter } from "next/navigation";
+import { startTransition, useActionState, useEffect, useRef, useState } from "react";
 import type { ActionState } from "@/lib/auth/action";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { ASTM_DISTRIBUTION, ISO_RULE_TEXT, astmD610Grade, formatAstm, formatIso, isoRustDegree, type AstmDistributionLetter } from "@/lib/scoring/grades";
 import type { AreaSource } from "@/lib/validation/scores";
-import { FormMessage, SubmitButton } from "@/components/ui/form";
+import { FormMessage } from "@/components/ui/form";
 import { countSpotMarks } from "./use-annotation";
 
 export type ScoreValues = {
@@ -35,7 +36,12 @@ type Props = {
   initialMarkCount: number;
   previous: (ScoreValues & { dayNumber: number }) | null;
   readOnly: boolean;
+  /** The next photo of the inspection the scorer has not scored yet (save and go there); null when none. */
+  next?: { href: string } | null;
 };
+
+/** Keyboard shortcut for "Save and next", documented beside the button. */
+export const SAVE_AND_NEXT_KEYS = "Control+Enter Meta+Enter";
 
 const round3 = (x: number) => Math.round(x * 1000) / 1000;
 
@@ -45,7 +51,39 @@ function Err({ state, name }: { state?: ActionState; name: string }) {
 }
 
 export function ScoreForm(p: Props) {
-  const [state, formAction] = useActionState(p.action, undefined);
+  const [state, formAction, pending] = useActionState(p.action, undefined);
+  const router = useRouter();
+  const formRef = useRef<HTMLFormElement>(null);
+  const nextRef = useRef<HTMLButtonElement>(null);
+  // Set when the scorer chose "Save and next"; the move happens only once the save succeeded.
+  const goNext = useRef<string | null>(null);
+  useEffect(() => {
+    const href = goNext.current;
+    goNext.current = null;
+    if (href && state?.ok) router.push(href);
+  }, [state, router]);
+  const nextHref = !p.readOnly ? p.next?.href ?? null : null;
+  useEffect(() => {
+    if (!nextHref) return;
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key === "Enter" && (e.ctrlKey || e.metaKey) && !e.altKey && !e.shiftKey && nextRef.current && !nextRef.current.disabled) {
+        e.preventDefault();
+        formRef.current?.requestSubmit(nextRef.current);
+      }
+    };
+    window.addEventListener("keydown", onKey);
+    return () => window.removeEventListener("keydown", onKey);
+  }, [nextHref]);
+  // Submitting through a transition (not <form action>) keeps React from resetting the form after the
+  // action: a reset would put radios, checkboxes and selects back to their first-render values while
+  // the state (and the saved score) say otherwise.
+  const onSubmit = (e: React.FormEvent<HTMLFormElement>) => {
+    e.preventDefault();
+    const submitter = (e.nativeEvent as SubmitEvent).submitter as HTMLButtonElement | null;
+    goNext.current = submitter?.value === "next" ? nextHref : null;
+    const fd = new FormData(e.currentTarget);
+    startTransition(() => formAction(fd));
+  };
   const markCount = countSpotMarks(p.marks);
   const [spotText, setSpotText] = useState<string | null>(p.initial && p.initial.spotCount !== p.initialMarkCount ? String(p.initial.spotCount) : null);
   const [areaText, setAreaText] = useState(p.initial ? String(p.initial.areaPercent) : "0");
@@ -89,7 +127,7 @@ export function ScoreForm(p: Props) {
   const ro = p.readOnly;
 
   return (
-    <form action={formAction} className="space-y-4" noValidate aria-label="Score">
+    <form ref={formRef} action={formAction} onSubmit={onSubmit} className="space-y-4" noValidate aria-label="Score">
       {Object.entries(p.hidden).map(([k, v]) => (v ? <input key={k} type="hidden" name={k} value={v} /> : null))}
       {p.hidden.photoId && <input type="hidden" name="face" value={p.face ? JSON.stringify(p.face) : ""} />}
       {p.hidden.photoId && <input type="hidden" name="marks" value={JSON.stringify(p.marks)} />}
@@ -189,7 +227,21 @@ export function ScoreForm(p: Props) {
 
       {["face", "marks", "photoId", "inspectionId", "specimenId", "trialId"].map((n) => <Err key={n} state={state} name={n} />)}
       <FormMessage state={state} />
-      {!ro && <SubmitButton pendingText="Saving score…">Save score</SubmitButton>}
+      {!ro && (
+        <div className="space-y-1">
+          <div className="flex flex-wrap gap-2">
+            <button type="submit" name="intent" value="save" className={nextHref ? "btn-quiet" : "btn"} disabled={pending} aria-busy={pending}>{pending ? "Saving score…" : "Save score"}</button>
+            {nextHref && (
+              <button ref={nextRef} type="submit" name="intent" value="next" className="btn" disabled={pending}
+                aria-keyshortcuts={SAVE_AND_NEXT_KEYS} aria-describedby="sf-next-hint">Save and next</button>
+            )}
+          </div>
+          <p id="sf-next-hint" className="text-xs muted">
+            {nextHref ? "Save and next opens the next photo of this inspection you have not scored. Shortcut: Ctrl+Enter (⌘+Enter on a Mac)."
+              : p.next === null ? "Every other photo of this inspection has your score." : ""}
+          </p>
+        </div>
+      )}
     </form>
   );
 }

@@ -45,6 +45,8 @@ type Props = {
   ghost: (Omit<Ghost, "sx" | "sy"> & { width: number | null; height: number | null }) | null;
   readOnly: boolean;
   canvasLabel: string;
+  /** The next unscored photo ("Save and next"); null when there is none, absent where not offered. */
+  next?: { href: string } | null;
 };
 
 export function ScoreWorkbench(p: Props) {
@@ -57,6 +59,8 @@ export function ScoreWorkbench(p: Props) {
   const [view, setView] = useState<ViewBox>(() => fitView(W, H));
   const [showGhost, setShowGhost] = useState(true);
   const [showMask, setShowMask] = useState(true);
+  const [showSpots, setShowSpots] = useState(true);
+  const [maskOpacityPct, setMaskOpacityPct] = useState(70);
   const [decision, setDecision] = useState<EstimateDecision>("none");
   const [autoEstimate, setAutoEstimate] = useState<number | null>(p.initialScore?.autoEstimatePercent ?? null);
   const [areaSource, setAreaSource] = useState<AreaSource>(
@@ -103,7 +107,7 @@ export function ScoreWorkbench(p: Props) {
   const form = (
     <ScoreForm action={p.action} hidden={{ ...p.hidden, photoId: p.photo?.id }} face={ann.face} marks={ann.marks}
       marksArea={areaDetail?.percent ?? (ann.face ? 0 : null)} areaSource={areaSource} setAreaSource={setAreaSource}
-      autoEstimate={autoEstimate} initial={p.initialScore} initialMarkCount={countSpotMarks(p.initialMarks)} previous={p.previous} readOnly={p.readOnly} />
+      autoEstimate={autoEstimate} initial={p.initialScore} initialMarkCount={countSpotMarks(p.initialMarks)} previous={p.previous} readOnly={p.readOnly} next={p.next} />
   );
   if (!p.photo) return <div className="max-w-xl">{form}</div>;
 
@@ -119,7 +123,7 @@ export function ScoreWorkbench(p: Props) {
         <div className="h-[62vh] min-h-80">
           <AnnotatorCanvas src={p.photo.url} W={W} H={H} view={view} setView={setView} tool={tool} brushRadius={brushRadius}
             annotation={{ face: ann.face, marks: ann.marks }} dispatch={ann.dispatch} ghost={ghost}
-            maskUrl={done && showMask && decision !== "rejected" ? done.maskUrl : null} readOnly={p.readOnly} label={p.canvasLabel} />
+            maskUrl={done && showMask ? done.maskUrl : null} maskOpacity={maskOpacityPct / 100} showSpots={showSpots} readOnly={p.readOnly} label={p.canvasLabel} />
         </div>
         <div className="flex flex-wrap items-center gap-4 text-sm" aria-live="polite">
           <span data-testid="live-area">
@@ -128,15 +132,33 @@ export function ScoreWorkbench(p: Props) {
               : ann.face ? "The face outline has no area; redraw it." : "Outline the specimen face to measure the rusted area."}
           </span>
           <span>{countSpotMarks(ann.marks)} spot mark{countSpotMarks(ann.marks) === 1 ? "" : "s"}{ann.face ? " · face outlined" : ""}</span>
+        </div>
+        <fieldset className="flex flex-wrap items-center gap-x-4 gap-y-2 text-sm rounded-md border border-[var(--line)] px-3 py-2">
+          <legend className="px-1 text-xs font-medium">Layers</legend>
+          <label className="flex items-center gap-2">
+            <input type="checkbox" checked={showSpots} onChange={(e) => setShowSpots(e.target.checked)} />
+            Spot marks (orange)
+          </label>
+          <label className="flex items-center gap-2">
+            <input type="checkbox" checked={showMask} onChange={(e) => setShowMask(e.target.checked)} disabled={!done} aria-describedby={done ? undefined : "layers-mask-hint"} />
+            Estimate mask (cyan)
+          </label>
+          <label className="flex items-center gap-2">
+            Mask opacity
+            <input type="range" min={10} max={100} step={5} value={maskOpacityPct} onChange={(e) => setMaskOpacityPct(Number(e.target.value))}
+              disabled={!done || !showMask} aria-valuetext={`${maskOpacityPct} %`} />
+            <span className="tabular-nums w-10" aria-hidden="true">{maskOpacityPct} %</span>
+          </label>
+          {!done && <span id="layers-mask-hint" className="text-xs muted">Run the colour estimate to get its mask.</span>}
           {p.ghost && (
             <label className="flex items-center gap-2">
               <input type="checkbox" checked={showGhost} onChange={(e) => setShowGhost(e.target.checked)} />
-              Show my marks from the previous inspection (yellow, dashed)
+              My marks from the previous inspection (yellow, dashed)
             </label>
           )}
-        </div>
+        </fieldset>
         <EstimatePanel state={estimate.state} canRun={!!ann.face && !!p.photo.url} stale={stale} decision={decision}
-          showMask={showMask} setShowMask={setShowMask} onRun={() => { if (ann.face) { setDecision("none"); estimate.run(ann.face); } }}
+          onRun={() => { if (ann.face) { setDecision("none"); estimate.run(ann.face); } }}
           onDecide={decide} readOnly={p.readOnly} />
       </div>
       <div className="space-y-3">{form}</div>

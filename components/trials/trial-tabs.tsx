@@ -3,6 +3,7 @@
 import Link from "next/link";
 import { usePathname } from "next/navigation";
 import { PAGE_ROUTES, type PageRule } from "@/lib/auth/page-routes";
+import { activeTrialTab } from "@/lib/trials/tabs";
 
 // Tabs whose pages show results, as marked in the one page map (hidden from blind scorers).
 const RESULT_TABS = new Set(Object.entries(PAGE_ROUTES as Record<string, PageRule>)
@@ -23,15 +24,13 @@ const TABS = [
 export function TrialTabs({ trialId, resultsHidden }: { trialId: string; resultsHidden: boolean }) {
   const path = usePathname();
   const base = `/trials/${trialId}`;
+  const current = activeTrialTab(path, trialId);
   return (
     <nav aria-label="Trial sections" className="no-print border-b border-[var(--line)]">
       <ul className="flex flex-wrap gap-1">
         {TABS.filter((t) => !(resultsHidden && RESULT_TABS.has(t.seg))).map((t) => {
           const href = t.seg ? `${base}/${t.seg}` : base;
-          // Inspection pages belong to the schedule, score pages to Scoring; the edit page to the overview.
-          const active = t.seg === "schedule" ? path.startsWith(href) || /\/inspections\/[^/]+(\/photos)?$/.test(path)
-            : t.seg === "scoring" ? path.startsWith(href) || path.includes("/score")
-            : t.seg ? path.startsWith(href) : path === base || path.startsWith(`${base}/edit`);
+          const active = current === t.seg;
           return (
             <li key={t.seg}>
               <Link href={href} aria-current={active ? "page" : undefined}

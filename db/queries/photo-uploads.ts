@@ -62,6 +62,8 @@ export type FinalizedPhoto = {
   status: "pending" | "ready" | "failed";
   capturedAtRaw: string | null;
   capturedOffset: string | null;
+  /** The capture instant (ISO), when the camera recorded its zone. */
+  capturedAt: string | null;
   sha256: string | null;
 };
 export type FinalizeResult = { photo: FinalizedPhoto; alreadyFinalized: boolean; check: CaptureCheck; warnings: string[] };
@@ -93,7 +95,7 @@ async function buildResult(photoId: string, caller: Caller, alreadyFinalized: bo
   const warnings = [...(check.status === "far" || check.status === "no-time" ? [check.message] : []), ...extraWarnings];
   const p = row.p;
   return {
-    photo: { id: p.id, filename: p.filename, specimenId: p.specimenId, specimenLabel: row.specimenLabel, status: p.status, capturedAtRaw: p.capturedAtRaw, capturedOffset: p.capturedOffset, sha256: p.sha256 },
+    photo: { id: p.id, filename: p.filename, specimenId: p.specimenId, specimenLabel: row.specimenLabel, status: p.status, capturedAtRaw: p.capturedAtRaw, capturedOffset: p.capturedOffset, capturedAt: p.capturedAt?.toISOString() ?? null, sha256: p.sha256 },
     alreadyFinalized,
     check,
     warnings,

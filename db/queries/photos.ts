@@ -2,6 +2,7 @@ import "server-only";
 // Photo reads: the inspection an upload targets, who was placed when, photo views for pages, and
 // which stored file a viewer may get a signed URL for (storage/photo-urls signs it).
 import { and, asc, desc, eq, gt, inArray, isNull, lte, or } from "drizzle-orm";
+import { alias } from "drizzle-orm/pg-core";
 import { db } from "@/db/client";
 import { inspections, photos, placements, specimens, trials, users } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
@@ -74,6 +75,8 @@ export type PhotoView = {
   /** True when the photo has a location that this viewer may not see. */
   gpsHidden: boolean;
   check: CaptureCheck | null;
+  /** The capture-time warning was looked at: the note, who wrote it (name) and when. */
+  checkAck: { note: string; by: string | null; at: string } | null;
   thumbUrl: string | null;
   displayUrl: string | null;
   originalUrl: string | null;
@@ -81,7 +84,7 @@ export type PhotoView = {
   uploadedBy: string | null;
 };
 
-export function toPhotoView(p: PhotoRow, opts: { role: Role; reference: Reference | null; uploadedBy?: string | null }): PhotoView {
+export function toPhotoView(p: PhotoRow, opts: { role: Role; reference: Reference | null; uploadedBy?: string | null; checkAckBy?: string | null }): PhotoView {
   const seesGps = can(opts.role, "photos.gps");
   const file = (v: PhotoVariant) => `/api/photos/${p.id}/file?variant=${v}`;
   const check = opts.reference
@@ -95,6 +98,7 @@ export function toPhotoView(p: PhotoRow, opts: { role: Role; reference: Referenc
     gps: seesGps ? p.gps ?? null : null,
     gpsHidden: !seesGps && p.gps != null,
     check,
+    checkAck: p.checkAckNote && p.checkAckAt ? { note: p.checkAckNote, by: opts.checkAckBy ?? null, at: p.checkAckAt.toISOString() } : null,
     thumbUrl: p.derivatives.thumb ? file("thumb") : null,
     displayUrl: p.derivatives.display ? file("display") : null,
     // The original keeps its EXIF, location included, so only roles that may see the location get it.
@@ -105,14 +109,16 @@ export function toPhotoView(p: PhotoRow, opts: { role: Role; reference: Referenc
 }
 
 export async function listInspectionPhotos({ labId, inspectionId, role, reference }: { labId: string; inspectionId: string; role: Role; reference: Reference }) {
+  const acker = alias(users, "acker");
   const rows = await db
-    .select({ p: photos, specimenLabel: specimens.label, uploader: users.name })
+    .select({ p: photos, specimenLabel: specimens.label, uploader: users.name, acker: acker.name })
     .from(photos)
     .innerJoin(specimens, eq(specimens.id, photos.specimenId))
     .leftJoin(users, eq(users.id, photos.uploadedBy))
+    .leftJoin(acker, eq(acker.id, photos.checkAckBy))
     .where(and(eq(photos.labId, labId), eq(photos.inspectionId, inspectionId)))
     .orderBy(asc(specimens.label), asc(photos.createdAt));
-  return rows.map((r) => ({ ...toPhotoView(r.p, { role, reference, uploadedBy: r.uploader }), specimenLabel: r.specimenLabel }));
+  return rows.map((r) => ({ ...toPhotoView(r.p, { role, reference, uploadedBy: r.uploader, checkAckBy: r.acker }), specimenLabel: r.specimenLabel }));
 }
 
 /** One photo of the caller's lab, or not-found (also for another lab's photo). */

@@ -154,3 +154,27 @@ export async function listInspectionScoring({ labId, userId, trialId, inspection
   }));
   return { trial, inspection, rows };
 }
+
+/**
+ * The next photo of an inspection the caller has not scored, after the given specimen in label order
+ * (wrapping round), for "Save and next". The current specimen is never the answer; null when every
+ * other specimen with a ready photo has the caller's score.
+ */
+export async function nextUnscoredPhoto({ labId, userId, trialId, inspectionId, specimenId }: { labId: string; userId: string; trialId: string; inspectionId: string; specimenId: string }) {
+  const [ready, mine] = await Promise.all([
+    db.select({ photoId: photos.id, specimenId: photos.specimenId, label: specimens.label, createdAt: photos.createdAt }).from(photos)
+      .innerJoin(specimens, eq(specimens.id, photos.specimenId))
+      .where(and(eq(photos.labId, labId), eq(photos.trialId, trialId), eq(photos.inspectionId, inspectionId), eq(photos.status, "ready")))
+      .orderBy(desc(photos.createdAt)),
+    db.select({ specimenId: scores.specimenId }).from(scores)
+      .where(and(eq(scores.labId, labId), eq(scores.inspectionId, inspectionId), eq(scores.scorerId, userId))),
+  ]);
+  const scored = new Set(mine.map((s) => s.specimenId));
+  // One photo per specimen: the newest, as the score page opens it.
+  const bySpecimen = new Map<string, { photoId: string; specimenId: string; label: string }>();
+  for (const r of ready) if (!bySpecimen.has(r.specimenId)) bySpecimen.set(r.specimenId, r);
+  const ordered = [...bySpecimen.values()].sort((a, b) => a.label.localeCompare(b.label, undefined, { numeric: true }));
+  const here = ordered.findIndex((r) => r.specimenId === specimenId);
+  const rotated = here < 0 ? ordered : [...ordered.slice(here + 1), ...ordered.slice(0, here)];
+  return rotated.find((r) => r.specimenId !== specimenId && !scored.has(r.specimenId)) ?? null;
+}

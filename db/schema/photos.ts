@@ -31,6 +31,11 @@ export const photos = pgTable("photos", {
   derivatives: jsonb("derivatives").$type<Record<string, string>>().notNull().default({}),
   // Why previews could not be made (e.g. a format the server cannot decode); null when fine.
   processingNote: text("processing_note"),
+  // A capture-time warning the team has looked at: why the photo is right after all (or what was done).
+  // Cleared when the photo moves to another inspection, since the warning is then a different one.
+  checkAckNote: text("check_ack_note"),
+  checkAckBy: uuid("check_ack_by").references(() => users.id, { onDelete: "set null" }),
+  checkAckAt: timestamp("check_ack_at", { withTimezone: true }),
   uploadedBy: uuid("uploaded_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [

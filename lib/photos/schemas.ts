@@ -19,3 +19,23 @@ export type FinalizeRequest = z.infer<typeof finalizeRequestSchema>;
 
 export const photoVariantSchema = z.enum(["thumb", "display", "original"]);
 export type PhotoVariant = z.infer<typeof photoVariantSchema>;
+
+// Looking after a recorded photo (server actions on the inspection's photo page).
+const checkbox = z.preprocess((v) => v === true || v === "on" || v === "true" || v === "1", z.boolean());
+
+export const acknowledgeCheckSchema = z.object({
+  photoId: z.guid("Not a valid photo."),
+  note: z.string().trim().min(1, "Say why the photo is right after all, or what was done about it.").max(1000, "Use at most 1000 characters."),
+});
+
+export const movePhotoSchema = z.object({
+  photoId: z.guid("Not a valid photo."),
+  inspectionId: z.guid("Choose an inspection."),
+  specimenId: z.guid("Choose a specimen."),
+});
+
+export const deletePhotoSchema = z.object({
+  photoId: z.guid("Not a valid photo."),
+  /** The person saw what happens to the scores and marks made on this photo, and agreed. */
+  confirmScores: checkbox,
+});

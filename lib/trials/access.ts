@@ -71,7 +71,7 @@ export function hideArmsOfTrials<T extends ArmFields & { trialId: string }>(rows
 export function photoForBlindViewer<T extends { specimenLabel?: string; filename: string; specimenId: string; inspectionId: string | null }>(view: T) {
   return {
     ...view, specimenId: null, specimenLabel: null, filename: BLIND_HIDDEN, inspectionId: null,
-    capturedAtRaw: null, capturedOffset: null, capturedAt: null, check: null, uploadedAt: null, uploadedBy: null, blinded: true,
+    capturedAtRaw: null, capturedOffset: null, capturedAt: null, check: null, checkAck: null, uploadedAt: null, uploadedBy: null, blinded: true,
   };
 }
 
@@ -80,8 +80,10 @@ export function photoForBlindViewer<T extends { specimenLabel?: string; filename
  * which specimen is which), the original file name and the uploader go, since names often carry jar
  * or treatment codes.
  */
-export function photoInListForViewer<T extends { filename: string; uploadedBy: string | null }>(view: T, access: Pick<TrialAccess, "blind">): T {
-  return access.blind ? { ...view, filename: BLIND_HIDDEN, uploadedBy: null } : view;
+export function photoInListForViewer<T extends { filename: string; uploadedBy: string | null; checkAck?: { note: string; by: string | null; at: string } | null }>(view: T, access: Pick<TrialAccess, "blind">): T {
+  // A note on the capture time may name jars or treatments as file names do: a blind scorer sees that
+  // the warning was looked at, not what was written.
+  return access.blind ? { ...view, filename: BLIND_HIDDEN, uploadedBy: null, checkAck: view.checkAck ? { note: BLIND_HIDDEN, by: null, at: view.checkAck.at } : view.checkAck } : view;
 }
 
 export type AuditEventView = { userId: string | null; trialId: string | null; summary: string | null; before: unknown; after: unknown };

@@ -44,6 +44,7 @@ const SETTINGS = "app/_actions/settings.ts";
 const SPECIMENS = "app/_actions/specimens.ts";
 const TREATMENTS = "app/_actions/treatments.ts";
 const SCORE = "app/_actions/scores.ts";
+const PHOTOS = "app/_actions/photos.ts";
 const SCHEDULE = "app/_actions/inspections.ts";
 const SCORING = "app/_actions/scorers.ts";
 const TRIALS = "app/_actions/trials.ts";
@@ -69,6 +70,10 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SPECIMENS}#importSpecimensAction`]: { permission: "specimens.write", empty: "invalid" },
   [`${TREATMENTS}#createTreatmentAction`]: { permission: "treatments.write", empty: "invalid" },
   [`${TREATMENTS}#updateTreatmentAction`]: { permission: "treatments.write", empty: "invalid", foreign: (f) => ({ treatmentId: f.treatmentId, name: "Taken over", kind: "control" }) },
+  // Looking after a recorded photo is part of taking photos (the same roles as uploading them).
+  [`${PHOTOS}#acknowledgeCheckAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, note: "Clock was wrong; photo is right." }) },
+  [`${PHOTOS}#movePhotoAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, inspectionId: f.inspectionId, specimenId: f.specimenId }) },
+  [`${PHOTOS}#deletePhotoAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, confirmScores: "on" }) },
   [`${SCORE}#saveScoreAction`]: { permission: "scores.write", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, inspectionId: f.inspectionId, specimenId: f.specimenId, ...score }) },
   [`${SCORE}#saveConsensusAction`]: { permission: "scores.consensus", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, inspectionId: f.inspectionId, specimenId: f.specimenId, ...score }) },
   [`${SCHEDULE}#recordInspectionAction`]: { permission: "inspections.record", empty: "invalid", foreign: (f) => ({ inspectionId: f.inspectionId }) },

@@ -3,6 +3,7 @@
 // file-name → label matching, the upload receipt, and the demo photos' rust planning.
 import { afterEach, describe, expect, it } from "vitest";
 import { renderSpecimenFace, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
+import { formatCaptureTime } from "@/lib/format";
 import { checkCaptureTime } from "@/lib/photos/capture-check";
 import { contentTypeFor, readPhotoConfig } from "@/lib/photos/config";
 import { createSpotPlanner } from "@/lib/photos/demo-spots";
@@ -36,6 +37,22 @@ describe("EXIF capture time", () => {
     expect(exif.lens).toBe("Bench 50 mm");
     expect(exif.exposure).toBe("1/125 s · f/8 · ISO 100");
     expect(exif.gps).toEqual({ lat: -33.85, lon: 151.21 }); // 33° 51′ S, 151° 12′ 36″ E
+  });
+
+  it("shows the capture time like every other time (UTC, minutes), whatever the process time zone", async () => {
+    // 10:54:12 at UTC−05:00 is 15:54:12 UTC (ISO 8601 offsets, from memory).
+    const bytes = await cameraJpeg({ shotAt: new Date("2026-10-22T15:54:12Z"), offsetH: -5 });
+    for (const tz of ["UTC", "Pacific/Auckland", "America/Los_Angeles", "Asia/Kolkata"]) {
+      process.env.TZ = tz;
+      const exif = await extractPhotoExif(bytes);
+      expect(formatCaptureTime(exif)).toBe("2026-10-22 15:54 UTC (camera clock at UTC-05:00)");
+      // The same once it went through the database and JSON as an ISO string.
+      expect(formatCaptureTime({ ...exif, capturedAt: exif.capturedAt!.toISOString() })).toBe("2026-10-22 15:54 UTC (camera clock at UTC-05:00)");
+    }
+    const local = await extractPhotoExif(await cameraJpeg({ shotAt: new Date("2026-12-02T00:00:00Z"), offsetH: 1, withOffset: false }));
+    expect(local.capturedAtRaw).toBe("2026:12:02 01:00:00");
+    expect(formatCaptureTime(local)).toBe("2026-12-02 01:00 camera clock, zone not recorded");
+    expect(formatCaptureTime({ capturedAt: null, capturedAtRaw: null, capturedOffset: null })).toBe("not recorded");
   });
 
   it("keeps the local text but no instant when the camera recorded no offset", async () => {

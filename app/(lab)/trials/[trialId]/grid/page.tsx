@@ -66,7 +66,7 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
                       </Link>
                       <p className="text-sm font-medium">{c.specimen.label}{c.photos.length > 1 ? <span className="text-xs muted font-normal"> · {c.photos.length} photos</span> : null}</p>
                       <ScoreSummary score={c.score} hidden={grid.blind} />
-                      {photo && <TimeCheckNote check={photo.check} compact />}
+                      {photo && <TimeCheckNote check={photo.check} ack={photo.checkAck} compact />}
                     </li>
                   );
                 })}

@@ -4,7 +4,7 @@ import { getInspection, listSpecimensAt } from "@/db/queries/inspections";
 import { trialPage } from "@/lib/auth/page";
 import { hideArms } from "@/lib/trials/access";
 import { can } from "@/lib/auth/permissions";
-import { formatDateTime } from "@/lib/format";
+import { formatDate, formatDateTime } from "@/lib/format";
 import { MATERIAL_CLASS_LABELS, type MaterialClass } from "@/lib/validation/specimens";
 import { RecordInspectionForm, RescheduleForm } from "@/components/trials/inspection-forms";
 import { InspectionStatusTag } from "@/components/trials/inspection-status";
@@ -25,7 +25,10 @@ export default async function InspectionPage({ params }: { params: Promise<{ tri
 
   return (
     <div className="space-y-6">
-      <nav aria-label="Breadcrumb" className="text-sm muted"><Link className="link" href={`/trials/${trial.id}/schedule`}>Schedule</Link> › Day {insp.dayNumber}</nav>
+      <nav aria-label="Breadcrumb" className="text-sm muted">
+        <Link className="link" href={`/trials/${trial.id}`}>{trial.title}</Link> › <Link className="link" href={`/trials/${trial.id}/schedule`}>Schedule</Link> ›{" "}
+        <span aria-current="page">Inspection day {insp.dayNumber} (planned {formatDate(insp.plannedAt)})</span>
+      </nav>
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-2xl font-semibold mr-auto">Inspection day {insp.dayNumber}</h1>
         <Link className="btn" href={`${base}/photos`}>Photos for this inspection</Link>

@@ -53,6 +53,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
         previous={null}
         ghost={null}
         readOnly={!canScore}
+        next={view.nextPhotoId ? { href: `/trials/${trialId}/scoring/${view.nextPhotoId}` } : null}
         canvasLabel={`Photo ${view.position} of ${view.total}`}
       />
     </div>

@@ -1,6 +1,10 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getInspectionForPhotos, listInspectionPhotos, placedSpecimens, referenceTime } from "@/db/queries/photos";
+import { moveTargets, photoWorkCounts } from "@/db/queries/photo-edits";
+import { describeDeletion } from "@/lib/photos/photo-edits";
+import { PhotoActions } from "@/components/photos/photo-actions";
+import { PhotoNotices } from "@/components/photos/photo-notices";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -29,6 +33,10 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   ]);
   const mayUpload = can(ctx.role, "photos.upload");
   const locked = access.locked;
+  const mayEdit = mayUpload && !locked;
+  const [targets, work] = mayEdit
+    ? await Promise.all([moveTargets({ labId: ctx.labId, trialId: trial.id }), photoWorkCounts({ labId: ctx.labId, photoIds: recorded.map((p) => p.id) })])
+    : [null, null];
   const withPhoto = new Set(recorded.map((p) => p.specimenId));
   const missing = specimens.filter((s) => !withPhoto.has(s.id));
   const base = `/trials/${trial.id}`;
@@ -36,7 +44,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   return (
     <div className="space-y-6">
       <nav aria-label="Breadcrumb" className="text-sm muted">
-        <Link className="link" href={base}>{trial.title}</Link> › <Link className="link" href={`${base}/inspections/${inspection.id}`}>Day {inspection.dayNumber}</Link> › Photos
+        <Link className="link" href={base}>{trial.title}</Link> › <Link className="link" href={`${base}/schedule`}>Schedule</Link> › <Link className="link" href={`${base}/inspections/${inspection.id}`}>Inspection day {inspection.dayNumber}</Link> › <span aria-current="page">Photos</span>
       </nav>
       <header className="space-y-1">
         <h1 className="text-2xl font-semibold">Photos · day {inspection.dayNumber}</h1>
@@ -70,6 +78,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
           {specimens.length > 0 && <p className="text-sm muted">{specimens.length - missing.length} of {specimens.length} specimens have a photo{missing.length ? `; still missing: ${missing.slice(0, 12).map((s) => s.label).join(", ")}${missing.length > 12 ? "…" : ""}` : ""}.</p>}
         </div>
         <RefreshWhilePending pending={recorded.filter((p) => p.status === "pending").length} />
+        <PhotoNotices>
         {recorded.length === 0 ? (
           <EmptyState text={mayUpload && !locked ? "No photos yet. Choose or drop the photos of this inspection above." : "No photos have been uploaded for this inspection."} />
         ) : (
@@ -77,12 +86,23 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
             {recorded.map((p) => (
               <li key={p.id}>
                 <PhotoCard photo={p} alt={`${p.specimenLabel}, day ${inspection.dayNumber}`}
-                  title={p.specimenLabel} />
+                  title={p.specimenLabel}>
+                  {targets && work && (
+                    <PhotoActions
+                      photo={{ id: p.id, specimenId: p.specimenId, inspectionId: p.inspectionId, ackNote: p.checkAck?.note ?? null,
+                        // A blind scorer sees that a warning was acknowledged but not the note, so cannot edit it.
+                        warn: (p.check?.status === "far" || p.check?.status === "no-time") && !(access.blind && p.checkAck) }}
+                      name={access.blind ? `the photo of ${p.specimenLabel}` : `${p.specimenLabel} (${p.filename})`}
+                      targets={targets}
+                      deletionImpact={describeDeletion({ ...(work.get(p.id) ?? { scores: 0, marks: 0 }), specimenLabel: p.specimenLabel, dayNumber: inspection.dayNumber })} />
+                  )}
+                </PhotoCard>
                 <Link className="link text-xs" href={`/specimens/${p.specimenId}/timeline`}>Timeline of {p.specimenLabel}</Link>
               </li>
             ))}
           </ul>
         )}
+        </PhotoNotices>
       </section>
     </div>
   );

@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
-import { getScorePage } from "@/db/queries/scores-read";
+import { getScorePage, nextUnscoredPhoto } from "@/db/queries/scores-read";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -31,12 +31,14 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   const canScore = can(ctx.role, "scores.write") && !concluded;
   const shown = canScore ? mine : record?.score ?? null;
   const base = `/trials/${trialId}/inspections/${inspectionId}/score`;
+  const next = canScore ? await nextUnscoredPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId }) : null;
   const others = data.pairScores.filter((r) => r.score.scorerId !== null);
   const consensus = data.pairScores.find((r) => r.score.scorerId === null)?.score ?? null;
 
   return (
     <div className="space-y-4">
       <nav aria-label="Breadcrumb" className="text-sm muted flex flex-wrap gap-1">
+        <Link className="link" href={`/trials/${trialId}`}>{trial.title}</Link> ›
         <Link className="link" href={`/trials/${trialId}/inspections/${inspectionId}`}>Inspection day {inspection.dayNumber}</Link> ›
         <Link className="link" href={base}>Scoring</Link> › <span>{specimen.label}</span>
       </nav>
@@ -82,6 +84,7 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
         previous={canScore && previous ? { ...previous.score, dayNumber: previous.dayNumber } : null}
         ghost={canScore ? previous?.ghost ?? null : null}
         readOnly={!canScore}
+        next={next ? { href: `${base}/${next.specimenId}?photo=${next.photoId}` } : null}
         canvasLabel={`Photo of ${specimen.label} at day ${inspection.dayNumber}`}
       />
 
