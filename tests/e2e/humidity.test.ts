@@ -52,8 +52,8 @@ describe("from the humidity response to a storage rule", () => {
   });
 
   it("accepts the bare iron-meteorite threshold as a storage rule, versioned", async () => {
-    const row = page.getByRole("row").filter({ hasText: "Iron meteorite" }).filter({ hasText: "Uncoated control" });
-    await row.getByRole("button", { name: /Accept as storage rule/ }).click();
+    const row = page.getByRole("row").filter({ has: page.getByRole("rowheader", { name: "Iron meteorite", exact: true }) }).filter({ hasText: "Uncoated control" });
+    await row.getByRole("button", { name: "Accept as storage rule: Iron meteorite, Uncoated control", exact: true }).click();
     await row.getByLabel(/Note for the rule/).fill("Adopted for the meteorite store after the 2026 ladder.");
     await row.getByRole("button", { name: "Accept as storage rule" }).click();
     await expect(row.getByRole("status").textContent()).resolves.toMatch(/Accepted as storage rule version 1: Keep iron meteorites/);
@@ -65,7 +65,7 @@ describe("from the humidity response to a storage rule", () => {
     await page.getByRole("navigation", { name: "Main" }).getByRole("link", { name: "Storage rules" }).click();
     await page.waitForURL(/\/storage-rules$/);
     const current = page.getByRole("table");
-    await expect(current.textContent()).resolves.toMatch(/Iron meteorite.*Uncoated control.*\d+ %RH/);
+    await expect(current.textContent()).resolves.toMatch(/(?<!Stony-)Iron meteoriteUncoated control\d+ %RH/i);
     await expect(current.textContent()).resolves.toContain("Adopted for the meteorite store");
     await screenshot(page, "storage-rules");
   });
