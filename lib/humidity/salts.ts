@@ -42,11 +42,15 @@ export interface SaltInfo {
   /** Cautions specific to this salt (corrosive solutions), shown before the general salt cautions. */
   cautions?: string[];
   source: string;
+  /** How messages name the fit ("the Greenspan 1977 fit" unless it is our refit). */
+  fitLabel: string;
 }
 
 const GREENSPAN = "Greenspan 1977, J. Res. NBS 81A:89–96 (fit coefficients; 25 °C uncertainty from memory)";
 const REFIT =
   "Our fit (R 4.2.2 lm, raw polynomial) to Greenspan 1977 Table 1 values recalled from memory, not Greenspan's Table 2 coefficients; 25 °C uncertainty from memory";
+const GREENSPAN_LABEL = "the Greenspan 1977 fit";
+const REFIT_LABEL = "our fit to Greenspan 1977 Table 1";
 const NOT_CLASSIFIED = "Generally not classified as hazardous under GHS (from memory; check the SDS).";
 
 export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
@@ -65,6 +69,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
       "Saturated lithium bromide brine corrodes steel, copper and brass quickly: keep it in glass or plastic, away from metal fittings and the specimens, and wear gloves and eye protection.",
     ],
     source: REFIT,
+    fitLabel: REFIT_LABEL,
   },
   KOH: {
     id: "KOH",
@@ -81,6 +86,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
       "KOH takes up carbon dioxide from air and turns to carbonate, which shifts the fixed point: keep the jar closed and remake the slurry if a crust forms.",
     ],
     source: REFIT,
+    fitLabel: REFIT_LABEL,
   },
   LiCl: {
     id: "LiCl",
@@ -92,6 +98,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Harmful if swallowed; irritates skin and eyes.",
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   CH3COOK: {
     id: "CH3COOK",
@@ -103,6 +110,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   MgCl2: {
     id: "MgCl2",
@@ -114,6 +122,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   K2CO3: {
     id: "K2CO3",
@@ -125,6 +134,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Irritates skin, eyes and airways; the solution is alkaline.",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   "Mg(NO3)2": {
     id: "Mg(NO3)2",
@@ -136,6 +146,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Oxidiser (UN1474, class 5.1): keep away from combustibles; irritates eyes.",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   NaCl: {
     id: "NaCl",
@@ -147,6 +158,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   KCl: {
     id: "KCl",
@@ -158,6 +170,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   KNO3: {
     id: "KNO3",
@@ -169,6 +182,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Oxidiser: keep away from combustibles (classification from memory; check the SDS).",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   K2SO4: {
     id: "K2SO4",
@@ -180,6 +194,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
 };
 
@@ -202,7 +217,7 @@ export function saltEquilibriumRh(salt: SaltId, tempC: number): SaltEquilibrium 
   const [lowC, highC] = info.rangeC;
   if (!Number.isFinite(tempC) || tempC < lowC || tempC > highC) {
     throw new RangeError(
-      `${info.displayName}: the Greenspan 1977 fit is valid from ${lowC} °C to ${highC} °C; got ${tempC} °C`,
+      `${info.displayName}: ${info.fitLabel} is valid from ${lowC} °C to ${highC} °C; got ${tempC} °C`,
     );
   }
   const [a0, a1, a2, a3] = info.coefficients;

@@ -51,7 +51,7 @@ function capital(s: string) {
 export function saltAt(saltId: SaltId, tempC: number): { ok: true; rhPercent: number; uncertaintyPercent: number | null } | { ok: false; message: string } {
   const [lo, hi] = SALTS[saltId].rangeC;
   if (!Number.isFinite(tempC) || tempC < lo || tempC > hi) {
-    return { ok: false, message: `${SALTS[saltId].displayName}: the Greenspan 1977 fit covers ${lo}–${hi} °C; enter a temperature in that range.` };
+    return { ok: false, message: `${SALTS[saltId].displayName}: ${SALTS[saltId].fitLabel} covers ${lo}–${hi} °C; enter a temperature in that range.` };
   }
   const eq = saltEquilibriumRh(saltId, tempC);
   return { ok: true, rhPercent: eq.rhPercent, uncertaintyPercent: eq.uncertaintyPercent };
