@@ -123,14 +123,16 @@ export function summarizeComparison(input: ComparisonSummaryInput): string[] {
     if (logRankP < alpha) {
       const soonest = soonestGroups(groups);
       const verb = event === "first rust" ? "rusted" : `showed ${event.replace(/^first /, "")}`;
-      const rule = `soonest is judged by the median time to ${event}`;
+      const rule = `Soonest is judged by the median time to ${event}`;
       let which = ".";
       if (soonest.length === 1) {
-        which = `; ${soonest[0].name} ${verb} soonest (median ${medianText(soonest[0].median!, unit)}; ${rule}).`;
+        which = `; ${soonest[0].name} ${verb} soonest (median ${medianText(soonest[0].median!, unit)}). ${rule}.`;
       } else if (soonest.length > 1) {
+        const [head, ...rest] = soonest;
         which =
-          `; ${listNames(soonest.map((g) => g.name))} ${verb} soonest, tied on the median (${medianText(soonest[0].median!, unit)} each; ` +
-          `${rule}, and tied ${noun.many} are all named). Of them, ${soonest.map((g) => `${g.name} had ${g.events} of ${g.n} ${seen}`).join(", ")}.`;
+          `; ${listNames(soonest.map((g) => g.name))} ${verb} soonest, tied on the median (${medianText(head.median!, unit)} each). ` +
+          `${rule}; tied ${noun.many} are all named, not ranked by list order. Of them, ${head.name} had ${head.events} of ${head.n} ${seen}` +
+          `${rest.map((g, i) => `${i === rest.length - 1 ? " and" : ","} ${g.name} ${g.events} of ${g.n}`).join("")}.`;
       }
       sentences.push(`The ${noun.many} differ in time to ${event} at the ${alpha} level${which}`);
     } else {
