@@ -74,7 +74,11 @@ function build(groups: readonly GroupResult[], rows: Row[], layers: (many: boole
     ...base,
     data: { values },
     columns: PANEL_COLUMNS,
-    facet: { field: "panel", type: "nominal", title: null, sort: labels, header: { labelFontSize: 12, labelLimit: PANEL_WIDTH + 40, labelFontWeight: 600 } },
+    facet: { field: "panel", type: "nominal", title: null, sort: labels, header: {
+      labelFontSize: 12, labelFontWeight: 600, labelLimit: PANEL_WIDTH + 40,
+      // Arm names ("Jar A · … / Uncoated control") break at the slash so the whole name fits over the panel.
+      labelExpr: "split(datum.label, ' / ')",
+    } },
     spec: {
       width: PANEL_WIDTH,
       height: PANEL_HEIGHT,

@@ -68,8 +68,8 @@ describe("comparison charts", () => {
     for (const spec of [survivalSpec(c.groups, "turnbull"), areaSpec(c.groups)]) {
       const svg = await draw(spec);
       expect(svg.match(/role-legend"/g) ?? []).toHaveLength(0);
-      // Every panel is headed with its arm's name.
-      for (const g of c.groups) expect(svg).toContain(`>${g.label}<`);
+      // Every panel is headed with its arm's name (chamber, then treatment on a second line).
+      for (const g of c.groups) for (const part of g.label.split(" / ")) expect(svg).toContain(`>${part}<`);
       const drawn = lines(svg);
       // In each panel one line in the arm's colour; the 11 others in the pale context grey.
       for (let i = 0; i < 12; i++) expect(drawn.filter((l) => l.stroke === CATEGORY_PALETTE[i]).length, c.groups[i].label).toBeGreaterThanOrEqual(1);
