@@ -60,6 +60,7 @@ describe("reading the comparison", () => {
     // The interval notation says what it means.
     const cell = page.getByRole("table").filter({ hasText: "Median time to first rust" }).locator("abbr").first();
     await expect(cell.getAttribute("title")).resolves.toMatch(/^The median time to first rust lies between day [\d.]+ and day [\d.]+ \(Turnbull's estimate\)$/);
+    await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await screenshot(page, "compare-chamber-soonest");
   });
 
@@ -70,6 +71,7 @@ describe("reading the comparison", () => {
     expect(text).toMatch(/24 specimens in 2 material classes/);
     expect(text).toMatch(/across the 2 material classes/);
     expect(text).not.toMatch(/treatments perform the same|\bgroups\b/);
+    await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await screenshot(page, "compare-material");
   });
 
@@ -137,6 +139,7 @@ describe("scores at an inspection not marked done", () => {
     expect(text).toMatch(/^2 of the \d+ scores of record are left out of this comparison, because an inspection counts only once it is marked done/);
     expect(text).toContain(`2 scores at the day-${inspection.dayNumber} inspection, which is not marked done.`);
     await expect(page.getByText(/\d+ scores of record, \d+ of them at done inspections\./).count()).resolves.toBe(1);
+    await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await screenshot(page, "compare-left-out-scores");
     await note.getByRole("link", { name: `day-${inspection.dayNumber} inspection` }).click();
     await page.waitForURL(new RegExp(`/inspections/${inspection.id}$`));
@@ -148,6 +151,7 @@ describe("scores at an inspection not marked done", () => {
     await expect(page.getByTestId("left-out-scores").textContent()).resolves.toContain(`2 scores at the day-${inspection.dayNumber} inspection, which is not marked done.`);
     await expect(summaryText()).resolves.toMatch(/Soonest is judged by the median time to first rust/);
     expect(await axeViolations(page)).toEqual([]);
+    await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await screenshot(page, "report-left-out-scores");
     const res = await page.context().request.get(`${APP_URL}/api/trials/${trialId}/analysis?groupBy=treatment`);
     expect(res.status()).toBe(200);
