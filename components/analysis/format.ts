@@ -5,6 +5,20 @@ export function fmtDay(day: number | null | undefined): string {
   return day.toFixed(1);
 }
 
+/** A table column's day, in whole days since the start ("day 7"); the exact day goes in its title. */
+export function dayHeader(day: number): string {
+  return `day ${Math.round(day)}`;
+}
+
+/** The interval notation "(7.0, 14.0]" of a first event, and what it means in plain words (for a title). */
+export function intervalText(lower: number, upper: number, event: "rust" | "weeping" = "rust"): { text: string; title: string } {
+  const clean = event === "rust" ? "last clean look" : "last look without weeping";
+  return {
+    text: `(${fmtDay(lower)}, ${fmtDay(upper)}]`,
+    title: `${event === "rust" ? "Rust" : "Weeping"} first seen between day ${fmtDay(lower)} (${clean}) and day ${fmtDay(upper)}`,
+  };
+}
+
 export function fmtPercent(x: number | null | undefined): string {
   if (x == null || !Number.isFinite(x)) return "—";
   return `${x < 1 ? x.toFixed(2) : x.toFixed(1)}\u202f%`;

@@ -2,7 +2,12 @@
 // has one row per jar; a row after the specimen had already rusted is listed but marked not at risk.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { MATERIAL_LABELS } from "@/lib/analysis/groups";
-import { fmtDay, fmtPercent } from "./format";
+import { fmtDay, fmtPercent, intervalText } from "./format";
+
+function Interval({ lower, upper, event }: { lower: number; upper: number; event: "rust" | "weeping" }) {
+  const t = intervalText(lower, upper, event);
+  return <abbr title={t.title} className="cursor-help">{t.text}</abbr>;
+}
 
 export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[] }) {
   return (
@@ -27,13 +32,13 @@ export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[
                 {o.rustedEarlier ? <span data-testid="rusted-earlier">rusted before the move: not at risk, left out of the curves and tests</span>
                   : !o.interval ? "not scored yet"
                   : o.interval.upper === null ? `clean through day ${fmtDay(o.interval.lower)}`
-                  : `(${fmtDay(o.interval.lower)}, ${fmtDay(o.interval.upper)}]`}
+                  : <Interval lower={o.interval.lower} upper={o.interval.upper} event="rust" />}
               </td>
               <td className="tabular-nums">
                 {o.weptEarlier ? "wept before the move"
                   : !o.weepingInterval ? "—"
                   : o.weepingInterval.upper === null ? "none seen"
-                  : `(${fmtDay(o.weepingInterval.lower)}, ${fmtDay(o.weepingInterval.upper)}]`}
+                  : <Interval lower={o.weepingInterval.lower} upper={o.weepingInterval.upper} event="weeping" />}
               </td>
               <td className="text-right tabular-nums">{fmtPercent(o.finalAreaPercent)}</td>
             </tr>

@@ -3,7 +3,7 @@
 // the hazard notes update as the user types; the server checks the same schema again on save.
 import { startTransition, useActionState, useState } from "react";
 import type { ActionState } from "@/lib/auth/action";
-import { desiccantBudget, DESICCANTS, type DesiccantKind } from "@/lib/humidity/desiccant";
+import { desiccantBudget, DESICCANTS, INDICATOR_KINDS, INDICATOR_LABELS, isIndicatorKind, type DesiccantKind } from "@/lib/humidity/desiccant";
 import { CHAMBER_KINDS, WATER_CHAMBER_NOTE, type ChamberKind } from "@/lib/humidity/hazards";
 import { isSaltId, SALT_IDS, SALTS } from "@/lib/humidity/salts";
 import { CHAMBER_KIND_LABELS, DEFAULT_TOLERANCE, DESICCANT_KINDS, roundTo, saltAt, WATER_DEFAULT_SETPOINT, WATER_DEFAULT_TOLERANCE } from "@/lib/validation/chambers";
@@ -15,13 +15,14 @@ import { HazardPanel } from "./hazard-panel";
 
 type Action = (prev: ActionState | undefined, fd: FormData) => Promise<ActionState>;
 export type ChamberFormValues = Partial<Record<
-  "name" | "kind" | "saltId" | "desiccantKind" | "desiccantMassG" | "nominalTempC" | "volumeL" | "setpointRhPercent" | "toleranceRhPercent" | "roomRhPercent" | "airExchangePerDay" | "notes",
+  "name" | "kind" | "saltId" | "desiccantKind" | "desiccantIndicator" | "desiccantMassG" | "nominalTempC" | "volumeL" | "setpointRhPercent" | "toleranceRhPercent" | "roomRhPercent" | "airExchangePerDay" | "notes",
   string
 >>;
 
 const num = (s: string) => (s.trim() === "" ? null : Number(s.replace(",", ".")));
 const kindOptions = CHAMBER_KINDS.map((k) => ({ value: k, label: CHAMBER_KIND_LABELS[k] }));
 const saltOptions = [{ value: "", label: "Choose a salt…" }, ...SALT_IDS.map((id) => ({ value: id, label: `${SALTS[id].displayName}, ${SALTS[id].rangeC[0]}–${SALTS[id].rangeC[1]} °C` }))];
+const indicatorOptions = [{ value: "", label: "Choose the indicator…" }, ...INDICATOR_KINDS.map((k) => ({ value: k, label: INDICATOR_LABELS[k] }))];
 const desiccantOptions = [{ value: "", label: "Choose a desiccant…" }, ...DESICCANT_KINDS.map((k) => ({ value: k, label: DESICCANTS[k].displayName }))];
 
 function defaultSetpoint(v: ChamberFormValues): string {
@@ -45,6 +46,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
   const [setpoint, setSetpoint] = useState(() => (start("setpointRhPercent") === defaultSetpoint(initial) ? "" : start("setpointRhPercent")));
   const [tolerance, setTolerance] = useState(() => (start("toleranceRhPercent") === defaultTolerance(initial.kind) ? "" : start("toleranceRhPercent")));
   const [desiccant, setDesiccant] = useState(start("desiccantKind"));
+  const [indicator, setIndicator] = useState(start("desiccantIndicator"));
   const [massText, setMassText] = useState(start("desiccantMassG"));
   const [volumeText, setVolumeText] = useState(start("volumeL"));
   const [roomText, setRoomText] = useState(start("roomRhPercent"));
@@ -61,6 +63,8 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
   const autoTolerance = defaultTolerance(kind);
   const shownTolerance = tolerance !== "" ? tolerance : autoTolerance;
 
+  const desiccantInfo = kind === "desiccant" && desiccant && desiccant in DESICCANTS ? DESICCANTS[desiccant as DesiccantKind] : null;
+  const tol = num(shownTolerance);
   let budget: ReturnType<typeof desiccantBudget> | null = null;
   const missing: string[] = [];
   if (kind === "desiccant") {
@@ -73,7 +77,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
     if (sp === null) missing.push("target RH");
     if (!missing.length && tempC !== null) {
       try {
-        budget = desiccantBudget({ kind: desiccant as DesiccantKind, massG: m!, jarVolumeL: v!, tempC, insideRhPercent: sp!, outsideRhPercent: r!, airExchangePerDay: a! });
+        budget = desiccantBudget({ kind: desiccant as DesiccantKind, massG: m!, jarVolumeL: v!, tempC, insideRhPercent: sp!, outsideRhPercent: r!, airExchangePerDay: a!, toleranceRhPercent: tol !== null && Number.isFinite(tol) ? tol : undefined });
       } catch {
         budget = null;
       }
@@ -110,7 +114,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
                 <>Enter a temperature in {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C to see the equilibrium RH.</>
               )}
             </p>
-            <p className="text-xs muted">Greenspan 1977 fit, valid {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C. The uncertainty is Greenspan&apos;s 25 °C figure, used across the range (a lower bound near its ends).</p>
+            <p className="text-xs muted">{SALTS[salt].source}; valid {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C. The uncertainty is Greenspan&apos;s 25 °C figure, used across the range (a lower bound near its ends).</p>
             <SaltCurveChartLoader saltId={salt} tempC={eq?.ok ? tempC : null} />
           </div>
         )}
@@ -121,7 +125,10 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
           <fieldset className="space-y-3 panel p-3">
             <legend className="text-sm font-semibold px-1">Desiccant</legend>
             <ControlledSelect name="desiccantKind" label="Desiccant" value={desiccant} onChange={setDesiccant} options={desiccantOptions} error={err("desiccantKind", desiccant)} />
-            <ControlledInput name="desiccantMassG" label="Mass (g)" inputMode="decimal" value={massText} onChange={setMassText} error={err("desiccantMassG", massText)} />
+            {desiccantInfo?.takesIndicator && (
+              <ControlledSelect name="desiccantIndicator" label="Colour indicator" value={indicator} onChange={setIndicator} options={indicatorOptions} error={err("desiccantIndicator", indicator)} />
+            )}
+            <ControlledInput name="desiccantMassG" label={desiccantInfo?.buffer ? "Mass after conditioning (g)" : "Mass (g)"} inputMode="decimal" value={massText} onChange={setMassText} error={err("desiccantMassG", massText)} />
             <ControlledInput name="roomRhPercent" label="Room RH (%RH)" inputMode="decimal" value={roomText} onChange={setRoomText} error={err("roomRhPercent", roomText)} hint="Typical RH of the room the jar stands in." />
             <ControlledInput name="airExchangePerDay" label="Air exchanges per day" inputMode="decimal" value={airText} onChange={setAirText} error={err("airExchangePerDay", airText)}
               hint="Jar volumes of room air leaking in per day; a good clip-top jar is well below 1 (your estimate)." />
@@ -130,7 +137,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
         <ControlledInput name="volumeL" label="Volume (L)" inputMode="decimal" value={volumeText} onChange={setVolumeText} error={err("volumeL", volumeText)} />
         <div className="grid gap-4 sm:grid-cols-2">
           <ControlledInput name="setpointRhPercent" label="Target RH (%RH)" inputMode="decimal" value={shownSetpoint} onChange={setSetpoint} error={err("setpointRhPercent", shownSetpoint)}
-            hint={kind === "saturated-salt" ? "Defaults to the salt's equilibrium RH at this temperature." : kind === "water" ? "Defaults to 96 %RH: real water jars read a few percent below 100." : undefined} />
+            hint={kind === "saturated-salt" ? "Defaults to the salt's equilibrium RH at this temperature." : desiccantInfo?.buffer ? "The RH the gel was conditioned to." : kind === "water" ? "Defaults to 96 %RH: real water jars read a few percent below 100." : undefined} />
           <ControlledInput name="toleranceRhPercent" label="Tolerance (± %RH)" inputMode="decimal" value={shownTolerance} onChange={setTolerance} error={err("toleranceRhPercent", shownTolerance)}
             hint="Readings within setpoint ± tolerance count as in band." />
         </div>
@@ -148,7 +155,7 @@ export function ChamberForm({ action, initial = {}, chamberId, submitLabel = "Sa
             <DesiccantBudgetView budget={budget} missing={missing} />
           </section>
         )}
-        <HazardPanel kind={kind} salt={salt} desiccant={kind === "desiccant" && desiccant ? (desiccant as DesiccantKind) : null} />
+        <HazardPanel kind={kind} salt={salt} desiccant={desiccantInfo?.kind ?? null} indicator={desiccantInfo?.takesIndicator && isIndicatorKind(indicator) ? indicator : null} />
       </aside>
     </form>
   );

@@ -1,5 +1,5 @@
 "use client";
-// RH over time against the target band (top) and temperature with dew point (bottom). The points
+// RH over time against the target band (top) and temperature with dew or frost point (bottom). The points
 // arrive already thinned on the server (min/max per bucket), so spikes survive.
 import { useEffect, useMemo, useRef, useState } from "react";
 import { VegaEmbed } from "react-vega";
@@ -7,7 +7,12 @@ import type { VisualizationSpec } from "vega-embed";
 import { categoryScale } from "@/components/ui/chart-palette";
 import { EMBED_OPTIONS } from "./vega-embed-options";
 
-export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
+export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; dewOver: "water" | "ice" | "logged" | null; instrument: string };
+
+/** Series names: a computed value says which saturation it is over; a logged one is the logger's. */
+export const DEW_SERIES = { water: "Dew point (over water)", ice: "Frost point (over ice, below 0 °C)", logged: "Dew point (as logged)" } as const;
+const TEMP_DOMAIN = ["Temperature", DEW_SERIES.water, DEW_SERIES.ice, DEW_SERIES.logged];
+const TEMP_RANGE = ["#c95b1f", "#4a6fa5", "#6b4aa5", "#5f6873"];
 
 const AXIS = { labelColor: "#5f6873", titleColor: "#5f6873", gridColor: "#cfd3d744" };
 
@@ -30,8 +35,10 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
     const rhPoints = points.map((p) => ({ ...p, time: label(p.t) }));
     const temps = points.flatMap((p) => [
       ...(p.tempC == null ? [] : [{ t: p.t, time: label(p.t), series: "Temperature", c: p.tempC }]),
-      ...(p.dewC == null ? [] : [{ t: p.t, time: label(p.t), series: "Dew point", c: p.dewC }]),
+      ...(p.dewC == null || p.dewOver == null ? [] : [{ t: p.t, time: label(p.t), series: DEW_SERIES[p.dewOver], c: p.dewC }]),
     ]);
+    // Only the series present get a legend entry (a warm chamber never shows the frost point).
+    const shown = TEMP_DOMAIN.map((_, i) => i).filter((i) => i === 0 || temps.some((p) => p.series === TEMP_DOMAIN[i]));
     const x = { field: "t", type: "temporal" as const, scale: { type: "utc" as const }, title: "Time (UTC)", axis: { format: "%d %b %H:%M", labelAngle: 0, tickCount: 6 } };
     const rhTooltip = [
       { field: "time", title: "Time" },
@@ -67,13 +74,13 @@ export default function ClimateChart({ points, band, corrected }: { points: Char
         {
           width,
           height: 150,
-          title: { text: "Temperature and dew point", anchor: "start", color: "#5f6873", fontSize: 12 },
+          title: { text: "Temperature and dew point (frost point below 0 °C)", anchor: "start", color: "#5f6873", fontSize: 12 },
           data: { values: temps },
           mark: { type: "line", strokeWidth: 1.2 },
           encoding: {
             x,
             y: { field: "c", type: "quantitative", title: "°C", scale: { zero: false } },
-            color: { field: "series", type: "nominal", title: null, scale: { domain: ["Temperature", "Dew point"], range: ["#c95b1f", "#4a6fa5"] } },
+            color: { field: "series", type: "nominal", title: null, scale: { domain: shown.map((i) => TEMP_DOMAIN[i]), range: shown.map((i) => TEMP_RANGE[i]) } },
             tooltip: [{ field: "time", title: "Time" }, { field: "series", title: "Series" }, { field: "c", title: "°C", format: ".1f" }],
           },
         },

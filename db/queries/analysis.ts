@@ -1,9 +1,10 @@
 import "server-only";
-import { and, asc, desc, eq, gte, inArray, isNotNull, lte, or, sql } from "drizzle-orm";
+import { and, asc, desc, eq, gte, inArray, isNotNull, isNull, lte, or, sql } from "drizzle-orm";
 import { compareGroups, scorerAgreement, type GradePair } from "@/lib/analysis/compare";
 import type { ComparisonResult, CurveMethod, Endpoint } from "@/lib/analysis/result";
 import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/derive";
 import type { Grouping } from "@/lib/analysis/groups";
+import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
@@ -80,6 +81,21 @@ export async function loadSpecimenOutcomes({ labId, trial, specimenId }: { labId
 }
 
 /**
+ * Scores of record that loadSpecimenOutcomes does not analyse because their inspection is not marked
+ * done, counted per inspection (the comparison and the report say so and link to the inspection).
+ * Only counts: time to first rust still comes from loadSpecimenOutcomes alone.
+ */
+export async function loadLeftOutScores({ labId, trialId }: { labId: string; trialId: string }): Promise<LeftOutScores[]> {
+  return db
+    .select({ inspectionId: inspections.id, dayNumber: inspections.dayNumber, scores: sql<number>`count(*)::int` })
+    .from(scores)
+    .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
+    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true), eq(inspections.labId, labId), isNull(inspections.doneAt)))
+    .groupBy(inspections.id, inspections.dayNumber)
+    .orderBy(asc(inspections.dayNumber));
+}
+
+/**
  * Score pairs (score of record, blind second score) on the same inspection and specimen: the rust
  * evidence of each (spot count, area, weeping: the rust call) and the ASTM grades where both gave
  * one. With several blind scorers, the one who scored most photos is taken: kappa compares exactly
@@ -116,6 +132,8 @@ export interface TrialAnalysis {
   outcomes: SpecimenOutcome[];
   doneInspections: number;
   recordScores: number;
+  /** Scores of record at inspections not marked done, per inspection: left out of the analysis. */
+  leftOut: LeftOutScores[];
   /** Null when nothing is scored yet (the page shows its empty state). */
   comparison: ComparisonResult | null;
 }
@@ -125,12 +143,14 @@ export async function getTrialAnalysis(
   { labId, trialId, groupBy, method, endpoint }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod; endpoint?: Endpoint },
 ): Promise<TrialAnalysis> {
   const trial = await getTrial({ labId, trialId });
-  const [loaded, pairs] = await Promise.all([loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId })]);
+  const [loaded, pairs, leftOut] = await Promise.all([
+    loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId }), loadLeftOutScores({ labId, trialId }),
+  ]);
   const scored = loaded.outcomes.some((o) => o.interval);
   const comparison = scored
     ? compareGroups(loaded.outcomes, { groupBy, method, endpoint, agreement: scorerAgreement(pairs) })
     : null;
-  return { trial, ...loaded, comparison };
+  return { trial, ...loaded, leftOut, comparison };
 }
 
 /** Raw rows of one trial for the data package; readings only for its chambers while it ran. */

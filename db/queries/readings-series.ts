@@ -1,7 +1,7 @@
 import "server-only";
 import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
 import { bandStats, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
-import { dewPointC } from "@/lib/humidity/psychrometrics";
+import { condensationPointC } from "@/lib/humidity/psychrometrics";
 import type { Period } from "@/lib/validation/chambers";
 import type { Chamber } from "./chambers";
 import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, type Snapshot } from "./climate-sql";
@@ -10,7 +10,12 @@ import {
   type BlockFacts, type BlockRow, type Candidate, type OffsetInUse, type Range, type Row,
 } from "@/lib/climate/readings-reduce";
 
-export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; instrument: string };
+/**
+ * dewC is the dew point over water when computed at or above 0.01 °C, the frost point over ice when
+ * computed below it, or the logger's own dew point column ("logged": its convention is the logger's).
+ */
+export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; dewOver: DewOver | null; instrument: string };
+export type DewOver = "water" | "ice" | "logged";
 
 const DAY_MS = 86_400_000;
 /** Up to this many readings in the period, every reading is loaded (a finer chart for short periods). */
@@ -106,15 +111,16 @@ async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, t
   return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list() };
 }
 
-function dewOf(c: Candidate): number | null {
+function dewOf(c: Candidate): { dewC: number | null; dewOver: DewOver | null } {
   if (c.tempC != null && c.rh > 0) {
     try {
-      return dewPointC(c.tempC, c.rh);
+      const point = condensationPointC(c.tempC, c.rh);
+      return { dewC: point.tempC, dewOver: point.over };
     } catch {
-      return null;
+      return { dewC: null, dewOver: null };
     }
   }
-  return c.dewLogged;
+  return c.dewLogged == null ? { dewC: null, dewOver: null } : { dewC: c.dewLogged, dewOver: "logged" };
 }
 
 const toCandidate = (r: Row): Candidate => ({ t: r.takenAt.getTime(), rh: r.rhPercent, rhRaw: r.rhRaw, tempC: r.tempC, dewLogged: r.dewLogged, instrument: r.instrument });
@@ -179,7 +185,7 @@ export async function getChamberSeries({ labId, chamber, period, maxPoints = 160
   return withSnapshot(async (snap) => {
     const { timeline, maxGapMinutes, series, count, instruments, offsets, picked } =
       await windowSeries(snap, { ...key, band, fromMs, toMs: null, maxPoints, allRowsLimit });
-    const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, dewC: dewOf(c), instrument: c.instrument }));
+    const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, ...dewOf(c), instrument: c.instrument }));
     const stats = bandStats(series, band, { maxGapMinutes });
 
     const settle = [];

@@ -10,6 +10,8 @@ export const chambers = pgTable("chambers", {
   saltId: text("salt_id"),
   desiccantKind: text("desiccant_kind"),
   desiccantMassG: doublePrecision("desiccant_mass_g"),
+  /** Colour indicator in a silica gel charge (lib/humidity/desiccant IndicatorKind); null for none chosen. */
+  desiccantIndicator: text("desiccant_indicator"),
   nominalTempC: doublePrecision("nominal_temp_c").notNull(),
   volumeL: doublePrecision("volume_l"),
   setpointRhPercent: doublePrecision("setpoint_rh_percent").notNull(),

@@ -9,7 +9,7 @@ import { rightEndpointKm, type IntervalObservation } from "@/lib/stats/turnbull"
 import { fisherExact, kruskalWallis, pairwiseLogRank, pairwiseStratifiedLogRank } from "@/lib/stats/tests";
 import { kmSummary, numbersAtRisk, turnbullSummary } from "./curves";
 import type { SpecimenOutcome } from "./derive";
-import { GROUPING_LABELS, GROUPING_STRATA, groupOutcomes, type Grouping } from "./groups";
+import { GROUPING_LABELS, GROUPING_NOUNS, GROUPING_STRATA, groupOutcomes, type Grouping } from "./groups";
 import { extraSentences } from "./sentences";
 import { ENDPOINT_EVENT, type AgreementResult, type ComparisonResult, type CurveMethod, type Endpoint, type FinalStateTest, type GroupResult } from "./result";
 
@@ -211,6 +211,7 @@ export function compareGroups(
     kappa: options.agreement?.rustCall.kappa ?? null,
     eventLabel: ENDPOINT_EVENT[endpoint],
     stratifiedBy: stratifiedBy ?? undefined,
+    groupNoun: GROUPING_NOUNS[options.groupBy],
   });
 
   const result: ComparisonResult = {

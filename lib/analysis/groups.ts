@@ -11,6 +11,18 @@ export const GROUPING_LABELS: Record<Grouping, string> = {
   arm: "Chamber × treatment",
 };
 
+/** The noun the summary and notes use for the groups of each grouping ("3 treatments", "each chamber"). */
+export interface GroupNoun {
+  one: string;
+  many: string;
+}
+export const GROUPING_NOUNS: Record<Grouping, GroupNoun> = {
+  treatment: { one: "treatment", many: "treatments" },
+  chamber: { one: "chamber", many: "chambers" },
+  material: { one: "material class", many: "material classes" },
+  arm: { one: "chamber × treatment arm", many: "chamber × treatment arms" },
+};
+
 export const MATERIAL_LABELS: Record<string, string> = {
   "iron-meteorite": "Iron meteorite",
   "stony-iron": "Stony-iron meteorite",

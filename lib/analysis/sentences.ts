@@ -1,5 +1,6 @@
 // Caveats and secondary results that follow the plain-language summary of time to first rust.
 import { describeKappa, formatPValue } from "@/lib/stats/summary";
+import { GROUPING_NOUNS } from "./groups";
 import type { AgreementResult, ComparisonResult } from "./result";
 
 /** How a moved specimen is grouped and timed, in one plain sentence (compare page, report, method notes). */
@@ -7,6 +8,38 @@ export const MOVED_SPECIMEN_NOTE =
   "A specimen moved to another jar counts in the group of each jar it was in: it is counted as still clean in the old jar " +
   "up to its last inspection before the move and is at risk in the new jar only from the day of the move; once seen rusted, " +
   "its later placements are not counted again.";
+
+/** Scores of record at one inspection that is not marked done (db/queries/analysis loadLeftOutScores). */
+export interface LeftOutScores {
+  inspectionId: string;
+  dayNumber: number;
+  scores: number;
+}
+
+/**
+ * What the comparison leaves out and why: scores count once their inspection is marked done. Null when
+ * nothing is left out. `items` are one phrase per inspection, split around the inspection's name so a
+ * page can make that a link ("2 scores at the " + "day-56 inspection" + ", which is not marked done").
+ */
+export function leftOutScoresText(leftOut: readonly LeftOutScores[], recordScores: number) {
+  const total = leftOut.reduce((s, r) => s + r.scores, 0);
+  if (total === 0) return null;
+  const scoresOf = (n: number) => `${n} score${n === 1 ? "" : "s"}`;
+  return {
+    total,
+    analysed: recordScores - total,
+    lead:
+      `${total} of the ${recordScores} scores of record ${total === 1 ? "is" : "are"} left out of this comparison, because an inspection ` +
+      "counts only once it is marked done (until then its scores may still be incomplete):",
+    items: leftOut.map((r) => ({
+      inspectionId: r.inspectionId,
+      before: `${scoresOf(r.scores)} at the `,
+      name: `day-${r.dayNumber} inspection`,
+      after: ", which is not marked done",
+    })),
+    close: "Mark the inspection done to bring its scores into the comparison.",
+  };
+}
 
 /** The headline (kappa on the rust / no-rust call) and kappa on ASTM D610 grades, or why there is none. */
 export function agreementSentences(a: AgreementResult | null): string[] {
@@ -47,6 +80,7 @@ const pct = (x: number) => `${Number(x.toFixed(x < 1 ? 2 : 1))} %`;
 export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: number }): string[] {
   const out: string[] = [];
   const tested = r.groups.filter((g) => g.n > 0);
+  const noun = GROUPING_NOUNS[r.groupBy];
 
   if (r.pairwise.length > opts.pairsInSummary) {
     const differ = r.pairwise.filter((p) => p.adjustedPValue < 0.05);
@@ -62,9 +96,9 @@ export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: numb
     out.push(
       `By each specimen's last scored inspection ${r.totals.rusted} of ${r.totals.scored} had rusted. ` +
         (r.finalStateTest?.method === "chi-square"
-          ? `Rusted versus not rusted across the groups, Pearson's χ² (the table is too large for Fisher's exact test): ` +
+          ? `Rusted versus not rusted across the ${noun.many}, Pearson's χ² (the table is too large for Fisher's exact test): ` +
             `χ² = ${r.finalStateTest.chiSquare.toFixed(2)} on ${r.finalStateTest.df} df, ${formatPValue(r.finalStateTest.pValue)}.`
-          : `Fisher's exact test of rusted versus not rusted across the groups: ${formatPValue(r.finalStateTest!.pValue)}.`),
+          : `Fisher's exact test of rusted versus not rusted across the ${noun.many}: ${formatPValue(r.finalStateTest!.pValue)}.`),
     );
   }
   if (r.kruskal) {
@@ -72,7 +106,7 @@ export function extraSentences(r: ComparisonResult, opts: { pairsInSummary: numb
       .filter((g) => g.final.medianAreaPercent !== null)
       .map((g) => `${g.label} ${pct(g.final.medianAreaPercent!)}`);
     out.push(
-      `Rusted area at the last inspection, median per group: ${medians.join("; ")}. Kruskal–Wallis test: ` +
+      `Rusted area at the last inspection, median per ${noun.one}: ${medians.join("; ")}. Kruskal–Wallis test: ` +
         `H = ${r.kruskal.h.toFixed(2)} on ${r.kruskal.df} df, ${formatPValue(r.kruskal.pValue)}.`,
     );
   }

@@ -1,7 +1,7 @@
 // Where a desiccant jar's charge stands: the water budget (./desiccant) and the exhaustion date
 // counted from the last charge, and the uptake measured by weighing. Pure: the caller loads the
 // chamber and its desiccant events.
-import { desiccantBudget, desiccantCapacityGPerG, DESICCANTS, projectedExhaustionDate, type DesiccantBudget, type DesiccantKind } from "./desiccant";
+import { bufferCapacityGPerG, desiccantBudget, desiccantCapacityGPerG, DESICCANTS, projectedExhaustionDate, type DesiccantBudget, type DesiccantKind } from "./desiccant";
 
 const DAY_MS = 86_400_000;
 
@@ -14,6 +14,8 @@ export type ChamberForDesiccant = {
   airExchangePerDay: number | null;
   nominalTempC: number;
   setpointRhPercent: number;
+  /** Band half-width: how far a humidity buffer may let the jar drift. */
+  toleranceRhPercent?: number;
 };
 /** A desiccant event: charged, regenerated, replaced or checked, with the weighed mass if any. */
 export type ChargeEvent = { kind: string; at: Date; massG: number | null };
@@ -55,7 +57,7 @@ export function desiccantStatus<E extends ChargeEvent>(chamber: ChamberForDesicc
   let budget: DesiccantBudget | null = null;
   if (!missing.length) {
     try {
-      budget = desiccantBudget({ kind: kind!, massG: massG!, jarVolumeL: chamber.volumeL!, tempC: chamber.nominalTempC, insideRhPercent: chamber.setpointRhPercent, outsideRhPercent: chamber.roomRhPercent!, airExchangePerDay: chamber.airExchangePerDay! });
+      budget = desiccantBudget({ kind: kind!, massG: massG!, jarVolumeL: chamber.volumeL!, tempC: chamber.nominalTempC, insideRhPercent: chamber.setpointRhPercent, outsideRhPercent: chamber.roomRhPercent!, airExchangePerDay: chamber.airExchangePerDay!, toleranceRhPercent: chamber.toleranceRhPercent });
     } catch (err) {
       missing.push((err as Error).message);
     }
@@ -67,7 +69,8 @@ export function desiccantStatus<E extends ChargeEvent>(chamber: ChamberForDesicc
   if (lastCharge && weighed && kind) {
     const gainG = weighed.massG! - lastCharge.massG!;
     const days = (weighed.at.getTime() - lastCharge.at.getTime()) / DAY_MS;
-    const perG = desiccantCapacityGPerG(kind, Math.min(100, Math.max(0, chamber.setpointRhPercent)));
+    const rh = Math.min(100, Math.max(0, chamber.setpointRhPercent));
+    const perG = DESICCANTS[kind].buffer ? bufferCapacityGPerG(kind, rh, chamber.toleranceRhPercent, true) : desiccantCapacityGPerG(kind, rh);
     if (gainG > 0 && days > 0) {
       const capacityG = perG == null ? null : perG * lastCharge.massG!;
       const gPerDay = gainG / days;

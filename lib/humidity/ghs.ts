@@ -13,7 +13,8 @@ export type GhsCode =
   | "H335"
   | "H341"
   | "H350i"
-  | "H360F";
+  | "H360F"
+  | "H410";
 
 export interface GhsStatement {
   code: GhsCode;
@@ -33,6 +34,7 @@ export const GHS_STATEMENTS: Readonly<Record<GhsCode, string>> = {
   H341: "Suspected of causing genetic defects",
   H350i: "May cause cancer by inhalation",
   H360F: "May damage fertility",
+  H410: "Very toxic to aquatic life with long lasting effects",
 };
 
 export function ghsStatements(codes: readonly GhsCode[]): GhsStatement[] {

@@ -2,7 +2,7 @@
 // the practice cautions are common lab practice (trade practice, not a cited source). We never stand in
 // for the safety data sheet, so every result ends with the same deferral.
 
-import { DESICCANTS, GENERAL_DESICCANT_CAUTION, type DesiccantKind } from "@/lib/humidity/desiccant";
+import { DESICCANTS, GENERAL_DESICCANT_CAUTION, type DesiccantKind, type IndicatorKind } from "@/lib/humidity/desiccant";
 import { ghsStatements, type GhsStatement } from "@/lib/humidity/ghs";
 import { SALTS, type SaltId } from "@/lib/humidity/salts";
 
@@ -46,9 +46,20 @@ export interface HazardNotesInput {
   kind: ChamberKind;
   salt?: SaltId;
   desiccant?: DesiccantKind;
-  /** Set when a silica gel carries a cobalt chloride indicator (orange/blue type). */
-  cobaltIndicator?: boolean;
+  /** The colour indicator in a silica gel charge (ignored for desiccants that take none). */
+  indicator?: IndicatorKind;
 }
+
+/**
+ * Cobalt(II) chloride's harmonised classification (EU CLP Annex VI, from memory): Carc. 1B H350i,
+ * Repr. 1B H360F, Muta. 2 H341, Resp. Sens. 1 H334, Skin Sens. 1 H317, Acute Tox. 4 H302,
+ * Aquatic Chronic 1 H410. The gel's own SDS gives the classification of the mixture.
+ */
+export const COBALT_CHLORIDE_GHS = ["H350i", "H360F", "H341", "H334", "H317", "H302", "H410"] as const;
+export const COBALT_CHLORIDE_CAUTION =
+  "Cobalt(II) chloride indicator is a category 1B carcinogen (by inhalation) and reproductive toxicant: avoid gel dust, handle and regenerate the beads with gloves in a ventilated place, keep them out of reach of the specimens' handling area, and dispose of spent gel as hazardous waste. Prefer a cobalt-free indicator.";
+export const COBALT_FREE_NOTE =
+  "Cobalt-free indicators avoid the cobalt carcinogen classification but are not hazard-free and change colour at their own RH: check their SDS and compare the colour change with a hygrometer before relying on it.";
 
 export interface HazardNotes {
   ghs: GhsStatement[];
@@ -65,6 +76,7 @@ export function hazardNotes(input: HazardNotesInput): HazardNotes {
       if (input.salt) {
         const salt = SALTS[input.salt];
         ghs.push(...salt.ghs);
+        cautions.push(...(salt.cautions ?? []));
         if (salt.ghs.some((s) => s.code === "H272")) cautions.push(OXIDISER_CAUTION);
         if (salt.isChloride) cautions.push(CHLORIDE_CAUTION);
       }
@@ -72,10 +84,16 @@ export function hazardNotes(input: HazardNotesInput): HazardNotes {
       break;
     }
     case "desiccant": {
-      if (input.desiccant) cautions.push(...DESICCANTS[input.desiccant].cautions);
-      if (input.desiccant === "silica-gel" && input.cobaltIndicator) {
-        ghs.push(...ghsStatements(["H350i", "H360F", "H341", "H334", "H317"]));
+      const info = input.desiccant ? DESICCANTS[input.desiccant] : null;
+      if (info) {
+        ghs.push(...info.ghs);
+        cautions.push(...info.cautions);
       }
+      if (info?.takesIndicator && input.indicator === "cobalt-chloride") {
+        ghs.push(...ghsStatements(COBALT_CHLORIDE_GHS));
+        cautions.push(COBALT_CHLORIDE_CAUTION);
+      }
+      if (info?.takesIndicator && input.indicator === "cobalt-free") cautions.push(COBALT_FREE_NOTE);
       cautions.push(GENERAL_DESICCANT_CAUTION);
       break;
     }

@@ -111,6 +111,21 @@ export function frostPointC(tempC: number, rhPercent: number): number {
   return solveSaturationTempC(lnE, lnEiHpa, dLnEiDT, ICE_RANGE_C);
 }
 
+/** Which saturation a condensation point refers to. */
+export type CondensationPoint = { tempC: number; over: SaturationPhase };
+
+/**
+ * What a chart should show as "the air's dew point": the dew point over water when the vapour
+ * pressure is at or above the triple-point pressure (the value is ≥ 0.01 °C), otherwise the frost
+ * point over ice, which is what forms on a cold surface there. The two differ below 0 °C (the
+ * frost point is the higher), so the label must say which one it is.
+ */
+export function condensationPointC(tempC: number, rhPercent: number): CondensationPoint {
+  const lnE = Math.log(vaporPressureHpa(tempC, rhPercent));
+  if (lnE >= lnEwHpa(TRIPLE_POINT_C + KELVIN_OFFSET)) return { tempC: dewPointC(tempC, rhPercent), over: "water" };
+  return { tempC: solveSaturationTempC(lnE, lnEiHpa, dLnEiDT, ICE_RANGE_C), over: "ice" };
+}
+
 /** RH (% over water) from air temperature and dew point over water. */
 export function rhFromDewPointC(tempC: number, dewPointTempC: number): number {
   checkTemp(dewPointTempC, WATER_RANGE_C, "Dew point");

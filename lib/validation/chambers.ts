@@ -1,7 +1,7 @@
 // zod schemas for chambers, readings, desiccant upkeep, hygrometer checks and logger tokens. The same
 // schemas run in the browser (live feedback) and on the server (the check that counts).
 import { z } from "zod";
-import { DESICCANTS, type DesiccantKind } from "@/lib/humidity/desiccant";
+import { DESICCANTS, INDICATOR_KINDS, type DesiccantKind, type IndicatorKind } from "@/lib/humidity/desiccant";
 import { CHAMBER_KINDS, type ChamberKind } from "@/lib/humidity/hazards";
 import { isSaltId, saltEquilibriumRh, SALTS, type SaltId } from "@/lib/humidity/salts";
 import { parseLocalTime, zoneResolver } from "@/lib/climate/time-parse";
@@ -51,7 +51,7 @@ function capital(s: string) {
 export function saltAt(saltId: SaltId, tempC: number): { ok: true; rhPercent: number; uncertaintyPercent: number | null } | { ok: false; message: string } {
   const [lo, hi] = SALTS[saltId].rangeC;
   if (!Number.isFinite(tempC) || tempC < lo || tempC > hi) {
-    return { ok: false, message: `${SALTS[saltId].displayName}: the Greenspan 1977 fit covers ${lo}–${hi} °C; enter a temperature in that range.` };
+    return { ok: false, message: `${SALTS[saltId].displayName}: ${SALTS[saltId].fitLabel} covers ${lo}–${hi} °C; enter a temperature in that range.` };
   }
   const eq = saltEquilibriumRh(saltId, tempC);
   return { ok: true, rhPercent: eq.rhPercent, uncertaintyPercent: eq.uncertaintyPercent };
@@ -65,6 +65,7 @@ const chamberFields = z.object({
   saltId: optionalText(20),
   desiccantKind: z.preprocess((v) => (v === "" ? undefined : v), z.enum(DESICCANT_KINDS as [DesiccantKind, ...DesiccantKind[]], "Choose a desiccant.").optional()),
   desiccantMassG: optionalNum("desiccant mass", " g", 0.1, 100_000),
+  desiccantIndicator: z.preprocess((v) => (v === "" ? undefined : v), z.enum(INDICATOR_KINDS as [IndicatorKind, ...IndicatorKind[]], "Choose the indicator, or “No indicator”.").optional()),
   nominalTempC: num("temperature", " °C", -40, 100),
   volumeL: optionalNum("volume", " L", 0.01, 100_000),
   setpointRhPercent: optionalNum("setpoint", " %RH", 0, 100),
@@ -92,6 +93,9 @@ export const chamberSchema = chamberFields
     if (v.kind === "desiccant") {
       if (!v.desiccantKind) ctx.addIssue({ code: "custom", path: ["desiccantKind"], message: "Choose the desiccant." });
       if (v.desiccantMassG === undefined) ctx.addIssue({ code: "custom", path: ["desiccantMassG"], message: "Enter the desiccant mass in g." });
+      if (v.desiccantKind && !DESICCANTS[v.desiccantKind].takesIndicator && v.desiccantIndicator && v.desiccantIndicator !== "none") {
+        ctx.addIssue({ code: "custom", path: ["desiccantIndicator"], message: `${DESICCANTS[v.desiccantKind].displayName} takes no colour indicator here; choose “No indicator”.` });
+      }
     }
     if (v.setpointRhPercent === undefined && v.kind !== "saturated-salt" && v.kind !== "water") {
       ctx.addIssue({ code: "custom", path: ["setpointRhPercent"], message: "Enter the target RH in %RH." });
@@ -113,6 +117,7 @@ export const chamberSchema = chamberFields
       saltId: salt,
       desiccantKind: desiccant ? (v.desiccantKind ?? null) : null,
       desiccantMassG: desiccant ? (v.desiccantMassG ?? null) : null,
+      desiccantIndicator: desiccant && v.desiccantKind && DESICCANTS[v.desiccantKind].takesIndicator ? (v.desiccantIndicator ?? null) : null,
       roomRhPercent: desiccant ? (v.roomRhPercent ?? null) : null,
       airExchangePerDay: desiccant ? (v.airExchangePerDay ?? null) : null,
       nominalTempC: v.nominalTempC,

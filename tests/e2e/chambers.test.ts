@@ -49,6 +49,32 @@ describe("chambers", () => {
     await context.close();
   });
 
+  it("a researcher defines a calcium chloride desiccant jar and is warned about its chloride brine, on the form and on the saved chamber", async () => {
+    const context = await browser.newContext();
+    const page = await context.newPage();
+    await signIn(page, "researcher@tarrow.example");
+    await page.goto(`${APP_URL}/chambers/new`);
+    const name = `E2E CaCl2 jar ${crypto.randomBytes(3).toString("hex")}`;
+    await page.getByLabel("Name").fill(name);
+    await page.getByLabel("Kind").selectOption("desiccant");
+    await page.locator('select[name="desiccantKind"]').selectOption("calcium-chloride");
+    // Conservation practice (from memory): CaCl2 deliquesces into a chloride brine; chloride drives akaganeite and weeping on iron
+    const cautions = page.getByTestId("hazard-cautions");
+    await expect.poll(() => cautions.innerText()).toMatch(/deliquesces/);
+    await expect(cautions.innerText()).resolves.toMatch(/akaganeite and weeping on iron/);
+    // Calcium chloride takes no colour indicator, so the form offers none.
+    await expect(page.locator('select[name="desiccantIndicator"]').count()).resolves.toBe(0);
+    await page.getByLabel("Nominal temperature (°C)").fill("20");
+    await page.getByLabel("Mass (g)").fill("250");
+    await page.getByLabel("Target RH (%RH)").fill("20");
+    expect(await axeViolations(page)).toEqual([]);
+    await page.getByRole("button", { name: "Save chamber" }).click();
+    await page.waitForURL(/\/chambers\/[0-9a-f-]{36}/, { timeout: 20_000 });
+    await expect(page.getByTestId("hazard-cautions").innerText()).resolves.toMatch(/chloride brine .* never place it where the brine or its dust can reach a specimen/);
+    await screenshot(page, "chamber-view-calcium-chloride");
+    await context.close();
+  });
+
   it("shows a demo chamber's climate record as a chart with the band statistics", async () => {
     const context = await browser.newContext({ viewport: { width: 1280, height: 900 } });
     const page = await context.newPage();

@@ -31,7 +31,7 @@ describe("compare treatment outcomes", () => {
     await page.waitForURL(/\/trials\/[0-9a-f-]+\/compare/);
     compareUrl = page.url().split("?")[0];
     const summary = page.getByTestId("plain-summary");
-    await expect(summary.textContent()).resolves.toMatch(/24 specimens in 3 groups/);
+    await expect(summary.textContent()).resolves.toMatch(/24 specimens in 3 treatments/);
     await expect(summary.textContent()).resolves.toMatch(/do not replace a conservator's judgement/);
     await page.locator("[data-testid=survival-chart] svg").first().waitFor({ timeout: 30_000 });
     await expect(page.locator("[data-testid=survival-chart] svg").first().textContent()).resolves.toContain("Uncoated control");
@@ -53,7 +53,7 @@ describe("compare treatment outcomes", () => {
   it("switches grouping to chamber and keeps the choice in the URL", async () => {
     await page.getByRole("group", { name: "Group by" }).getByRole("link", { name: "Chamber", exact: true }).click();
     await page.waitForURL(/groupBy=chamber/);
-    await expect(page.getByTestId("plain-summary").textContent()).resolves.toMatch(/24 specimens in 4 groups/);
+    await expect(page.getByTestId("plain-summary").textContent()).resolves.toMatch(/24 specimens in 4 chambers/);
     await page.locator("[data-testid=survival-chart] svg").first().waitFor();
     await expect(page.locator("[data-testid=survival-chart] svg").first().textContent()).resolves.toContain("pure water");
     await page.getByRole("group", { name: "Outcome" }).getByRole("link", { name: "Rusted area over time" }).click();

@@ -56,7 +56,7 @@ describe("compareGroups", () => {
     expect(c.logRank?.df).toBe(1);
     // Treatments are compared within chambers (one chamber here), and the summary says so.
     expect(c.stratifiedBy).toBe("chamber");
-    expect(c.summary.join(" ")).toMatch(/Log-rank test stratified by chamber of time to first rust across the 2 groups/);
+    expect(c.summary.join(" ")).toMatch(/Log-rank test stratified by chamber of time to first rust across the 2 treatments/);
     expect(c.finalStateTest?.method).toBe("fisher");
     // Censoring marks sit where the wax specimens were last seen clean.
     expect(c.groups[1].turnbull.censorMarks).toEqual([{ time: 28, survival: 0.8, count: 4 }]);

@@ -112,7 +112,7 @@ describe("the trial's primary outcome picks the default view", () => {
     // wept before the move and is at risk of weeping from day 10: (14, 28]; plus one never weeping.
     expect(c.groups.map((g: { n: number; events: number }) => [g.n, g.events])).toEqual([[4, 0], [3, 2]]);
     expect(c.summary.join(" ")).toMatch(/Median time to first weeping/);
-    expect(c.summary.join(" ")).toMatch(/Log-rank test of time to first weeping across the 2 groups/);
+    expect(c.summary.join(" ")).toMatch(/Log-rank test of time to first weeping across the 2 chambers/);
 
     const rust = await (await call(moved.trialId, "?groupBy=chamber&outcome=first-rust")).json();
     expect(rust.outcome).toBe("first-rust");

@@ -80,7 +80,7 @@ describe("outcomes from scores of record", () => {
     // = 0.4 (Cohen 1960, by hand).
     expect(c.agreement?.rustCall).toMatchObject({ pairs: 3, agreed: 2, recordRusted: 1, blindRusted: 2 });
     expect(c.agreement?.rustCall.kappa).toBeCloseTo(0.4, 12);
-    expect(c.summary[0]).toMatch(/^3 specimens in 2 groups, 2 of them seen to rust/);
+    expect(c.summary[0]).toMatch(/^3 specimens in 2 treatments, 2 of them seen to rust/);
     expect(c.notes.at(-1)).toMatch(/do not replace a conservator's judgement/);
     expect(c.notes.join(" ")).toMatch(/1 of 4 specimens have no scored inspection yet/);
   });

@@ -48,6 +48,7 @@ describe("climate analysis", () => {
     expect(s.settle[0].minutes).toBe(120); // back in band at h4 and held for an hour
     // Dew point from RH and T (over water); 21 °C at 75 %RH ≈ 16.4 °C (Magnus form, Alduchov & Eskridge 1996)
     expect(s.points[0].dewC!).toBeCloseTo(16.4, 1);
+    expect(s.points[0].dewOver).toBe("water");
 
     // The stored readings are never rewritten.
     const rows = await db.select().from(readings).where(eq(readings.chamberId, c.id)).orderBy(asc(readings.takenAt));

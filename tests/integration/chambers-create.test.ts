@@ -105,4 +105,20 @@ describe("define a chamber", () => {
     expect((ev.before as { nominalTempC: number }).nominalTempC).toBe(20);
     expect((ev.after as { nominalTempC: number }).nominalTempC).toBe(30);
   });
+
+  it("stores a silica gel's colour indicator, and refuses a KOH jar below its fit range at the temperature field", async () => {
+    const gel = await create(lab.as("researcher"), {
+      name: "Cobalt gel jar", kind: "desiccant", desiccantKind: "silica-gel", desiccantIndicator: "cobalt-chloride",
+      desiccantMassG: "150", nominalTempC: "20", volumeL: "2", setpointRhPercent: "15", toleranceRhPercent: "", roomRhPercent: "50", airExchangePerDay: "0.5", notes: "",
+    });
+    expect(gel.ok).toBe(true);
+    const stored = await getChamber({ labId: lab.labId, chamberId: gel.data!.id });
+    expect(stored.desiccantIndicator).toBe("cobalt-chloride");
+
+    const koh = await create(lab.as("researcher"), { name: "KOH jar cold", kind: "saturated-salt", saltId: "KOH", nominalTempC: "3", volumeL: "1", setpointRhPercent: "", toleranceRhPercent: "", notes: "" });
+    expect(koh.ok).toBe(false);
+    // Our fit to Greenspan 1977 Table 1 (from memory) covers KOH 5–50 °C
+    expect(koh.errors?.nominalTempC?.join(" ")).toMatch(/Potassium hydroxide \(KOH\).*5–50 °C/);
+    expect(await countByName(lab.labId, "KOH jar cold")).toBe(0);
+  });
 });

@@ -76,7 +76,7 @@ describe("desiccantBudget", () => {
 
   it("warns when the target is drier than the desiccant can hold", () => {
     const budget = desiccantBudget({
-      kind: "silica-gel",
+      kind: "magnesium-sulfate",
       massG: 200,
       jarVolumeL: 1,
       tempC: 20,
@@ -85,6 +85,49 @@ describe("desiccantBudget", () => {
       airExchangePerDay: 1,
     });
     expect(budget.assumptions.join(" ")).toMatch(/cannot hold a jar much below 10 %RH/);
+  });
+
+  it("says silica gel still dries a jar below 10 %RH but holds little water there", () => {
+    const budget = desiccantBudget({ kind: "silica-gel", massG: 200, jarVolumeL: 1, tempC: 20, insideRhPercent: 5, outsideRhPercent: 50, airExchangePerDay: 1 });
+    const said = budget.assumptions.join(" ");
+    // Manufacturers' isotherms, from memory: regular-density gel reaches a few %RH; ≈0.05 g/g at 10 %RH
+    expect(said).not.toMatch(/cannot hold/);
+    expect(said).toMatch(/still dries a jar below 20 %RH, but its capacity there is small/);
+    expect(DESICCANTS["silica-gel"].lowestRhPercent).toBeNull();
+    expect(DESICCANTS["silica-gel"].cautions.join(" ")).toMatch(/can dry a jar below 10 %RH, but its capacity there is small/);
+    // At mid RH there is no low-capacity note.
+    const at40 = desiccantBudget({ kind: "silica-gel", massG: 200, jarVolumeL: 1, tempC: 20, insideRhPercent: 40, outsideRhPercent: 50, airExchangePerDay: 1 });
+    expect(at40.assumptions.join(" ")).not.toMatch(/capacity there is small/);
+  });
+
+  it("gives calcium chloride the stoichiometric capacity to its dihydrate", () => {
+    // molar masses (IUPAC 2021 standard atomic weights): CaCl2 110.98, H2O 18.015 → 2 × 18.015 / 110.98 = 0.325 g/g
+    expect(desiccantCapacityGPerG("calcium-chloride", 20)).toBeCloseTo((2 * 18.015) / 110.98, 2);
+  });
+
+  it("counts a conditioned gel buffer as spent when the jar would drift out of its band", () => {
+    const input = { kind: "silica-gel-conditioned" as const, massG: 500, jarVolumeL: 10, tempC: 20, insideRhPercent: 45, outsideRhPercent: 60, airExchangePerDay: 1, toleranceRhPercent: 5 };
+    const budget = desiccantBudget(input);
+    // Recalled isotherm (manufacturers' isotherms, from memory): 0.235 g/g at 45 %RH, 0.26 at 50 %RH → 0.025 g/g over +5 %RH
+    expect(desiccantCapacityGPerG("silica-gel-conditioned", 50)! - desiccantCapacityGPerG("silica-gel-conditioned", 45)!).toBeCloseTo(0.025, 6);
+    expect(budget.capacityG).toBeCloseTo(500 * 0.025, 6);
+    // Ideal-gas vapour density (same formula as the other budgets): water in = 1 × 0.010 m³ × Δρ
+    const inGPerDay = 0.01 * (absoluteHumidityGm3(20, 60) - absoluteHumidityGm3(20, 45));
+    expect(budget.waterInGPerDay).toBeCloseTo(inGPerDay, 9);
+    expect(budget.daysUntilSpent).toBeCloseTo(12.5 / inGPerDay, 6);
+    expect(budget.assumptions.join(" ")).toMatch(/take up about 0\.025 g water per g before the jar drifts 5 %RH above its target/);
+
+    // A drier room drains the buffer: spent by the fall across the lower half band (0.21 → 0.235 g/g, 40 → 45 %RH).
+    const drier = desiccantBudget({ ...input, outsideRhPercent: 30 });
+    expect(drier.waterInGPerDay).toBeLessThan(0);
+    expect(drier.capacityG).toBeCloseTo(500 * 0.025, 6);
+    expect(drier.daysUntilSpent).toBeCloseTo(12.5 / -drier.waterInGPerDay, 6);
+    expect(drier.assumptions.join(" ")).toMatch(/give up about/);
+
+    // Without a tolerance there is no band to drift out of.
+    const noBand = desiccantBudget({ ...input, toleranceRhPercent: undefined });
+    expect(noBand.daysUntilSpent).toBeNull();
+    expect(noBand.assumptions.join(" ")).toMatch(/Enter the tolerance/);
   });
 
   it("gives no life estimate without capacity data or without net inflow", () => {

@@ -4,6 +4,7 @@ import {
   absoluteHumidityGm3,
   dewPointC,
   frostPointC,
+  condensationPointC,
   rhFromDewPointC,
   saturationVaporPressureHpa,
   vaporPressureHpa,
@@ -53,6 +54,41 @@ describe("saturationVaporPressureHpa", () => {
     expect(saturationVaporPressureHpa(0.01)).toBeCloseTo(saturationVaporPressureHpa(0.01, "ice"), 3);
     expect(() => saturationVaporPressureHpa(5, "ice")).toThrow(RangeError);
     expect(() => saturationVaporPressureHpa(Number.NaN)).toThrow(RangeError);
+  });
+});
+
+describe("condensationPointC: the chart's dew or frost point", () => {
+  // Frost points from the Magnus form over ice, computed in R 4.2.2 (base only):
+  //   Alduchov & Eskridge 1996 (J. Appl. Meteor. 35:601), AERK e_w = 6.1094·exp(17.625 t/(243.04 + t)),
+  //   AERKi e_i = 6.1121·exp(22.587 t/(273.86 + t)); e = RH/100 · e_w(t), then e_i(Tf) = e solved for Tf.
+  //   WMO Guide No. 8 (2018), Annex 4.B, from memory: e_w = 6.112·exp(17.62 t/(243.12 + t)),
+  //   e_i = 6.112·exp(22.46 t/(272.62 + t)).
+  const CASES: [tempC: number, rhPercent: number, aerki: number, wmo: number][] = [
+    [-10, 50, -16.519, -16.522],
+    [-5, 80, -7.015, -7.014],
+    [5, 40, -6.642, -6.646],
+    [-20, 60, -23.212, -23.211],
+  ];
+  for (const [tempC, rhPercent, aerki, wmo] of CASES) {
+    it(`gives the frost point over ice at ${tempC} °C and ${rhPercent} %RH`, () => {
+      const point = condensationPointC(tempC, rhPercent);
+      expect(point.over).toBe("ice");
+      // Alduchov & Eskridge 1996 AERKi (R call above); Sonntag and Magnus agree within ~0.05 °C here
+      expect(Math.abs(point.tempC - aerki)).toBeLessThan(0.05);
+      // WMO Guide No. 8 (2018) Annex 4.B Magnus over ice — coefficients from memory
+      expect(Math.abs(point.tempC - wmo)).toBeLessThan(0.05);
+      // Below 0 °C the frost point lies above the dew point over (supercooled) water.
+      expect(point.tempC).toBeGreaterThan(dewPointC(tempC, rhPercent));
+    });
+  }
+
+  it("gives the dew point over water when the air's vapour pressure is above the triple point", () => {
+    const point = condensationPointC(25, 50);
+    expect(point.over).toBe("water");
+    // psychrolib (npm) and Sonntag 1990 dew point at 25 °C, 50 %RH: 13.86 °C (as in the table test below)
+    expect(point.tempC).toBeCloseTo(13.86, 1);
+    // Alduchov & Eskridge 1996 AERK dew point at 20 °C, 50 %RH: R 4.2.2, 243.04·x/(17.625 − x), x = ln(0.5) + 17.625·20/263.04 → 9.26 °C
+    expect(Math.abs(condensationPointC(20, 50).tempC - 9.26)).toBeLessThan(0.05);
   });
 });
 

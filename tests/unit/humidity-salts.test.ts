@@ -3,8 +3,12 @@ import { SALT_IDS, SALTS, saltEquilibriumRh, saltRhCurve, type SaltId } from "@/
 import { applyOffset, hygrometerOffset } from "@/lib/climate/hygrometer-check";
 import { hazardNoteLines, hazardNotes, SDS_DEFERRAL } from "@/lib/humidity/hazards";
 
-// Greenspan 1977 fit, values at 10/20/25/30 °C (computed from the fit).
+// Greenspan 1977 fit, values at 10/20/25/30 °C (computed from the fit). LiBr and KOH: computed
+// from our own refit (R 4.2.2: lm(rh ~ poly(t, 2|3, raw = TRUE)) on Greenspan's Table 1 values,
+// see lib/humidity/salts.ts), so these two rows check the coefficients as stored, not the paper.
 const FIT_VALUES: Record<SaltId, [number, number, number, number]> = {
+  LiBr: [7.136, 6.606, 6.373, 6.161],
+  KOH: [12.342, 9.319, 8.229, 7.378],
   LiCl: [11.29, 11.31, 11.3, 11.29],
   CH3COOK: [23.39, 23.12, 22.52, 21.62],
   MgCl2: [33.48, 33.07, 32.79, 32.45],
@@ -18,6 +22,8 @@ const FIT_VALUES: Record<SaltId, [number, number, number, number]> = {
 
 // Greenspan 1977, Table 1 at 25 °C with its uncertainty — from memory.
 const TABLE_25C: Record<SaltId, [number, number]> = {
+  LiBr: [6.37, 0.52],
+  KOH: [8.23, 0.72],
   LiCl: [11.3, 0.27],
   CH3COOK: [22.51, 0.32],
   MgCl2: [32.78, 0.16],
@@ -29,8 +35,10 @@ const TABLE_25C: Record<SaltId, [number, number]> = {
   K2SO4: [97.3, 0.45],
 };
 
-// Greenspan 1977 fit ranges, from memory.
+// Greenspan 1977 fit ranges, from memory. LiBr and KOH: the part of Greenspan's range our refit covers.
 const RANGES: Record<SaltId, [number, number]> = {
+  LiBr: [0, 50],
+  KOH: [5, 50],
   LiCl: [0, 100],
   CH3COOK: [5, 30],
   MgCl2: [0, 100],
@@ -88,7 +96,7 @@ describe("saltEquilibriumRh", () => {
   });
 
   it("catalogues every salt with a display name and source", () => {
-    expect(SALT_IDS).toHaveLength(9);
+    expect(SALT_IDS).toHaveLength(11);
     expect(SALTS.NaCl.displayName).toBe("Sodium chloride (NaCl)");
     for (const id of SALT_IDS) {
       expect(SALTS[id].id).toBe(id);
@@ -98,6 +106,43 @@ describe("saltEquilibriumRh", () => {
     expect(SALTS.LiCl.ghs.map((s) => s.code)).toEqual(["H302", "H315", "H319"]);
     expect(SALTS["Mg(NO3)2"].ghs.map((s) => s.code)).toEqual(["H272", "H319"]);
     expect(SALTS.NaCl.ghs).toEqual([]);
+  });
+});
+
+describe("lithium bromide and potassium hydroxide", () => {
+  // Greenspan 1977, Table 1 (tabulated values, not the fit) at 10/20/25/30 °C — from memory.
+  const TABLE_1: Record<"LiBr" | "KOH", Record<number, number>> = {
+    LiBr: { 10: 7.14, 20: 6.61, 25: 6.37, 30: 6.16 },
+    KOH: { 10: 12.34, 20: 9.32, 25: 8.23, 30: 7.38 },
+  };
+
+  for (const salt of ["LiBr", "KOH"] as const) {
+    it(`${salt} reproduces Greenspan's Table 1 values within 0.02 %RH`, () => {
+      for (const [tempC, rh] of Object.entries(TABLE_1[salt])) {
+        // Greenspan 1977, Table 1 — from memory (the coefficients were fitted to these recalled values)
+        expect(Math.abs(saltEquilibriumRh(salt, Number(tempC)).rhPercent - rh)).toBeLessThanOrEqual(0.02);
+      }
+    });
+  }
+
+  it("stays within ±2 %RH of the CRC Handbook exponential model over its range", () => {
+    for (const tempC of [10, 15, 20, 25, 30]) {
+      const tK = tempC + 273.15;
+      // CRC Handbook of Chemistry and Physics, "Constant humidity solutions" (A. Wexler): RH = A·exp(B/T);
+      // LiBr·2H2O A 0.23, B 996, 10–30 °C; KOH·2H2O A 0.014, B 1924, 5–30 °C; "generally accurate to ±2 %"
+      expect(Math.abs(saltEquilibriumRh("LiBr", tempC).rhPercent - 0.23 * Math.exp(996 / tK))).toBeLessThan(2);
+      expect(Math.abs(saltEquilibriumRh("KOH", tempC).rhPercent - 0.014 * Math.exp(1924 / tK))).toBeLessThan(2);
+    }
+  });
+
+  it("say which range they cover when the temperature is outside it", () => {
+    expect(() => saltEquilibriumRh("KOH", 4)).toThrow(/Potassium hydroxide \(KOH\): our fit to Greenspan 1977 Table 1 is valid from 5 °C to 50 °C; got 4 °C/);
+    expect(() => saltEquilibriumRh("LiBr", 60)).toThrow(/0 °C to 50 °C/);
+  });
+
+  it("name their source as our refit, not Greenspan's own coefficients", () => {
+    expect(SALTS.LiBr.source).toMatch(/not Greenspan's Table 2 coefficients/);
+    expect(SALTS.KOH.source).toMatch(/not Greenspan's Table 2 coefficients/);
   });
 });
 
@@ -156,8 +201,9 @@ describe("hazardNotes", () => {
     expect(sieve).toMatch(/warms strongly/);
     expect(sieve).toMatch(/hot enough to burn/);
     // suppliers' SDS, from memory: cobalt chloride indicating gel H350i H360F H341 H334 H317
-    const cobalt = hazardNotes({ kind: "desiccant", desiccant: "silica-gel", cobaltIndicator: true });
-    expect(cobalt.ghs.map((s) => s.code)).toEqual(["H350i", "H360F", "H341", "H334", "H317"]);
+    // EU CLP Annex VI harmonised classification of cobalt(II) chloride, from memory: H350i H360F H341 H334 H317 H302 H410
+    const cobalt = hazardNotes({ kind: "desiccant", desiccant: "silica-gel", indicator: "cobalt-chloride" });
+    expect(cobalt.ghs.map((s) => s.code)).toEqual(["H350i", "H360F", "H341", "H334", "H317", "H302", "H410"]);
     expect(cobalt.cautions.join(" ")).toMatch(/cobalt-free/);
     // trade practice: pure water approaches 100 %RH, real jars ~90–100 %
     expect(hazardNotes({ kind: "water" }).cautions.join(" ")).toMatch(/approaches 100 %RH.*~90–100 %/);

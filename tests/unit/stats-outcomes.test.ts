@@ -122,6 +122,7 @@ describe("summarizeComparison", () => {
       ...base,
       logRankP: 0.4,
       pairwise: [{ groupA: "Untreated", groupB: "Wax", adjustedPValue: 0.4 }],
+      groupNoun: { one: "treatment", many: "treatments" },
     }).join(" ");
     expect(text).toContain("not evidence that the treatments perform the same");
     expect(text).toContain("Holm-adjusted");

@@ -6,7 +6,7 @@ import { getChamberSeries } from "@/db/queries/readings-series";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
-import { DESICCANTS, type DesiccantKind } from "@/lib/humidity/desiccant";
+import { DESICCANTS, type DesiccantKind, INDICATOR_LABELS, isIndicatorKind } from "@/lib/humidity/desiccant";
 import { WATER_CHAMBER_NOTE } from "@/lib/humidity/hazards";
 import { isSaltId, SALTS } from "@/lib/humidity/salts";
 import { CHAMBER_KIND_LABELS, parsePeriod, PERIODS, saltAt } from "@/lib/validation/chambers";
@@ -64,16 +64,16 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
           <p className="text-sm">
             {CHAMBER_KIND_LABELS[chamber.kind]}
             {salt ? ` · ${SALTS[salt].displayName}` : ""}
-            {desiccantKind ? ` · ${DESICCANTS[desiccantKind].displayName}${chamber.desiccantMassG != null ? `, ${chamber.desiccantMassG} g` : ""}` : ""}
+            {desiccantKind ? ` · ${DESICCANTS[desiccantKind].displayName}${chamber.desiccantMassG != null ? `, ${chamber.desiccantMassG} g` : ""}${chamber.desiccantIndicator && isIndicatorKind(chamber.desiccantIndicator) && chamber.desiccantIndicator !== "none" ? `, ${INDICATOR_LABELS[chamber.desiccantIndicator]}` : ""}` : ""}
             {chamber.volumeL != null ? ` · ${chamber.volumeL} L` : ""}
           </p>
           {salt && eq && (eq.ok ? (
-            <p className="text-sm">Equilibrium at {chamber.nominalTempC} °C: {eq.rhPercent.toFixed(1)} ± {eq.uncertaintyPercent} %RH (Greenspan 1977, valid {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C).</p>
+            <p className="text-sm">Equilibrium at {chamber.nominalTempC} °C: {eq.rhPercent.toFixed(1)} ± {eq.uncertaintyPercent} %RH ({SALTS[salt].source}; valid {SALTS[salt].rangeC[0]}–{SALTS[salt].rangeC[1]} °C).</p>
           ) : <p className="text-sm text-rust-600">{eq.message}</p>)}
           {chamber.kind === "water" && <p className="text-sm">About 100 %RH. {WATER_CHAMBER_NOTE}</p>}
           {chamber.notes && <p className="text-sm muted whitespace-pre-wrap">{chamber.notes}</p>}
         </section>
-        <HazardPanel kind={chamber.kind} salt={salt} desiccant={desiccantKind} />
+        <HazardPanel kind={chamber.kind} salt={salt} desiccant={desiccantKind} indicator={chamber.desiccantIndicator && isIndicatorKind(chamber.desiccantIndicator) ? chamber.desiccantIndicator : null} />
       </div>
 
       <section className="panel p-4 space-y-3" aria-labelledby="climate-h">

@@ -16,7 +16,7 @@ export default async function EditChamberPage({ params }: { params: Promise<{ ch
   const { chamberId } = await params;
   const chamber = await getChamber({ labId: ctx.labId, chamberId }).catch(orNotFound);
   const initial: ChamberFormValues = {
-    name: chamber.name, kind: chamber.kind, saltId: str(chamber.saltId), desiccantKind: str(chamber.desiccantKind), desiccantMassG: str(chamber.desiccantMassG),
+    name: chamber.name, kind: chamber.kind, saltId: str(chamber.saltId), desiccantKind: str(chamber.desiccantKind), desiccantMassG: str(chamber.desiccantMassG), desiccantIndicator: str(chamber.desiccantIndicator),
     nominalTempC: str(chamber.nominalTempC), volumeL: str(chamber.volumeL), setpointRhPercent: str(chamber.setpointRhPercent), toleranceRhPercent: str(chamber.toleranceRhPercent),
     roomRhPercent: str(chamber.roomRhPercent), airExchangePerDay: str(chamber.airExchangePerDay), notes: chamber.notes,
   };

@@ -7,6 +7,7 @@ import { MOVED_SPECIMEN_NOTE } from "@/lib/analysis/sentences";
 import { AreaSection } from "@/components/analysis/area-section";
 import { CompareControls, ExportLinks } from "@/components/analysis/compare-controls";
 import { FinalSection } from "@/components/analysis/final-section";
+import { LeftOutScoresNote } from "@/components/analysis/left-out-scores";
 import { OutcomeTable } from "@/components/analysis/outcome-table";
 import { SummaryPanel } from "@/components/analysis/summary-panel";
 import { SurvivalSection } from "@/components/analysis/survival-section";
@@ -25,8 +26,9 @@ export default async function ComparePage(props: AnalysisPageProps) {
         <h1 className="text-2xl font-semibold">Compare outcomes</h1>
         <p className="text-sm muted">
           {trial.question} {analysis.startAt ? `Day 0 is ${formatDateTime(analysis.startAt)}.` : ""} {analysis.doneInspections} inspections done,
-          {" "}{analysis.recordScores} scores of record.
+          {" "}{analysis.recordScores} scores of record{analysis.leftOut.length > 0 ? `, ${analysis.recordScores - analysis.leftOut.reduce((s, r) => s + r.scores, 0)} of them at done inspections` : ""}.
         </p>
+        <LeftOutScoresNote trialId={trial.id} leftOut={analysis.leftOut} recordScores={analysis.recordScores} />
         <p className="text-sm" data-testid="primary-outcome">
           This trial&apos;s primary outcome is {OUTCOME_LABELS[defaultOutcomeView(trial.primaryOutcome)].toLowerCase()}
           {q.outcome === defaultOutcomeView(trial.primaryOutcome) ? "; it is the view shown." : "; the comparison opens on it."}

@@ -4,6 +4,7 @@ import { formatDateTime } from "@/lib/format";
 import { AreaSection } from "@/components/analysis/area-section";
 import { ExportLinks, hrefFor } from "@/components/analysis/compare-controls";
 import { FinalSection } from "@/components/analysis/final-section";
+import { LeftOutScoresNote } from "@/components/analysis/left-out-scores";
 import { MethodNotes } from "@/components/analysis/method-notes";
 import { OutcomeTable } from "@/components/analysis/outcome-table";
 import { PrintButton } from "@/components/analysis/print-button";
@@ -48,13 +49,14 @@ export default async function ReportPage(props: AnalysisPageProps) {
         {trial.hypothesis && <p className="text-sm muted">Hypothesis: {trial.hypothesis}</p>}
         <p className="text-sm muted">
           Status {trial.status}. {analysis.startAt ? `Day 0: ${formatDateTime(analysis.startAt)}.` : "Not started."}{" "}
-          {analysis.doneInspections} inspections done; {analysis.recordScores} scores of record. Grouped by {c?.groupByLabel.toLowerCase() ?? "treatment"}.
+          {analysis.doneInspections} inspections done; {analysis.recordScores} scores of record{analysis.leftOut.length > 0 ? `, ${analysis.recordScores - analysis.leftOut.reduce((s, r) => s + r.scores, 0)} of them at done inspections` : ""}. Grouped by {c?.groupByLabel.toLowerCase() ?? "treatment"}.
         </p>
         <p className="text-sm">
           {access.locked && trial.concludedAt
             ? `Scoring ended when the trial was concluded on ${formatDateTime(trial.concludedAt)}; the record was locked and unblinded for every scorer then.`
             : "The trial is still open: scores may change, and blind scorers do not see this report until it is concluded."}
         </p>
+        <LeftOutScoresNote trialId={trial.id} leftOut={analysis.leftOut} recordScores={analysis.recordScores} />
       </header>
 
       {!c ? (

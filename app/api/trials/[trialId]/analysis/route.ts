@@ -26,6 +26,7 @@ export const GET = labRoute<{ trialId: string }>("analysis.read", async (ctx, re
       startAt: analysis.startAt,
       doneInspections: analysis.doneInspections,
       recordScores: analysis.recordScores,
+      leftOutScores: analysis.leftOut,
       outcomes: outcomeRows(analysis.outcomes),
       comparison: analysis.comparison,
     },
