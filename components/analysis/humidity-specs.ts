@@ -20,7 +20,7 @@ export function responseSpec(r: HumidityResponse): VisualizationSpec {
     ...BASE,
     height: 320,
     layer: [
-      { data: { values }, mark: { type: "area", fillOpacity: 0.13 }, encoding: { x, y: { ...y, field: "lower95" }, y2: { field: "upper95" }, color: { ...colourOf(domain), legend: null } } },
+      { data: { values }, mark: { type: "area", fillOpacity: 0.13 }, encoding: { x, y: { ...y, field: "lower95" }, y2: { field: "upper95" }, color: colourOf(domain) } },
       {
         data: { values }, mark: { type: "line", strokeWidth: 2 },
         encoding: {
@@ -30,7 +30,7 @@ export function responseSpec(r: HumidityResponse): VisualizationSpec {
       },
       { data: { values: [{ days: r.options.horizonDays }] }, mark: { type: "rule", strokeDash: [6, 4], color: "#4a525c" }, encoding: { y: { field: "days", type: "quantitative" } } },
       { data: { values: [{ days: r.options.horizonDays, label: "horizon" }] }, mark: { type: "text", align: "left", dx: 4, dy: -6, color: "#4a525c" }, encoding: { y: { field: "days", type: "quantitative" }, x: { datum: 1 }, text: { field: "label" } } },
-      { data: { values: thresholds }, mark: { type: "rule", strokeDash: [2, 3] }, encoding: { x: { field: "rhPercent", type: "quantitative" }, color: { ...colourOf(domain), legend: null } } },
+      { data: { values: thresholds }, mark: { type: "rule", strokeDash: [2, 3] }, encoding: { x: { field: "rhPercent", type: "quantitative" }, color: colourOf(domain) } },
     ],
   } as VisualizationSpec;
 }
@@ -46,7 +46,7 @@ export function modelCheckSpec(r: HumidityResponse): VisualizationSpec {
     height: 280,
     layer: [
       { data: { values: observed }, mark: { type: "line", interpolate: "step-after", strokeWidth: 2 }, encoding: { x, y, color: { ...colourOf(domain), legend: { orient: "bottom", columns: 2, labelLimit: 320 } }, tooltip: [{ field: "group" }, { field: "day", format: ".0f" }, { field: "rustedShare", title: "observed", format: ".0%" }] } },
-      { data: { values: fitted }, mark: { type: "line", strokeDash: [5, 3], strokeWidth: 1.5 }, encoding: { x, y, color: { ...colourOf(domain), legend: null }, tooltip: [{ field: "group" }, { field: "day", format: ".0f" }, { field: "rustedShare", title: "fitted", format: ".0%" }] } },
+      { data: { values: fitted }, mark: { type: "line", strokeDash: [5, 3], strokeWidth: 1.5 }, encoding: { x, y, color: colourOf(domain), tooltip: [{ field: "group" }, { field: "day", format: ".0f" }, { field: "rustedShare", title: "fitted", format: ".0%" }] } },
     ],
   } as VisualizationSpec;
 }

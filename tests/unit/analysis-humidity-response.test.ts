@@ -180,3 +180,25 @@ describe("humidityResponse: when there is no threshold to give", () => {
       .toBe("For waxed slices the model predicts fewer than 5 % rusted within 2 years even at 100 %RH: the data set no limit below saturation.");
   });
 });
+
+describe("the humidity charts as drawn (vega-lite compiled, vega rendered to SVG)", () => {
+  async function svgOf(spec: object) {
+    const { compile } = await import("vega-lite");
+    const { parse, View } = await import("vega");
+    const sized = { ...spec, width: 600 } as Parameters<typeof compile>[0];
+    return new View(parse(compile(sized).spec), { renderer: "none" }).toSVG();
+  }
+
+  it("draws one legend entry per material and treatment, and the horizon", async () => {
+    const { responseSpec, modelCheckSpec } = await import("@/components/analysis/humidity-specs");
+    const r = humidityResponse(rows(), OPTIONS, "t1");
+    const svg = await svgOf(responseSpec(r));
+    const legend = svg.slice(svg.indexOf("role-legend"));
+    expect(svg).toContain("role-legend");
+    expect(legend).toContain("Iron meteorite, Uncoated control");
+    expect(svg).toContain("Iron meteorite, Microcrystalline wax");
+    expect(svg).toContain("horizon");
+    const check = await svgOf(modelCheckSpec(r));
+    expect(check).toContain("85 %RH target");
+  });
+});
