@@ -3,6 +3,7 @@
 // (lognormal T). The log-likelihood, parametrisation (β, log σ), Newton–Raphson fit and its
 // convergence rule follow R's survreg (survival package), so estimates, vcov(), loglik and
 // predict(type = "quantile") can be checked against it.
+import { normalQuantile } from "./distributions";
 import { firstDependentColumn, spdFactor, spdInverse, spdSolve, type SpdFactor } from "./cholesky";
 
 /**
@@ -108,35 +109,6 @@ export function logNormalCdf(x: number): number {
   smallNormalTail(y);
   if (x < 0) return -tailSplitSq * 0.5 - tailRest * 0.5 + Math.log(tailRatio);
   return Math.log1p(-Math.exp(-tailSplitSq * 0.5) * Math.exp(-tailRest * 0.5) * tailRatio);
-}
-
-// M. J. Wichura (1988), "Algorithm AS 241: the percentage points of the normal distribution",
-// Applied Statistics 37, 477–484 (PPND16, the algorithm of R's qnorm).
-const AS241_A = [3.387132872796366608, 133.14166789178437745, 1971.5909503065514427, 13731.693765509461125, 45921.953931549871457, 67265.770927008700853, 33430.575583588128105, 2509.0809287301226727];
-const AS241_B = [1, 42.313330701600911252, 687.1870074920579083, 5394.1960214247511077, 21213.794301586595867, 39307.89580009271061, 28729.085735721942674, 5226.495278852854561];
-const AS241_C = [1.42343711074968357734, 4.6303378461565452959, 5.7694972214606914055, 3.64784832476320460504, 1.27045825245236838258, 0.24178072517745061177, 0.0227238449892691845833, 7.7454501427834140764e-4];
-const AS241_D = [1, 2.05319162663775882187, 1.6763848301838038494, 0.68976733498510000455, 0.14810397642748007459, 0.0151986665636164571966, 5.475938084995344946e-4, 1.05075007164441684324e-9];
-const AS241_E = [6.6579046435011037772, 5.4637849111641143699, 1.7848265399172913358, 0.29656057182850489123, 0.026532189526576123093, 0.0012426609473880784386, 2.71155556874348757815e-5, 2.01033439929228813265e-7];
-const AS241_F = [1, 0.59983220655588793769, 0.13692988092273580531, 0.0148753612908506148525, 7.868691311456132591e-4, 1.8463183175100546818e-5, 1.4215117583164458887e-7, 2.04426310338993978564e-15];
-
-function rational(num: readonly number[], den: readonly number[], r: number): number {
-  let n = 0;
-  let d = 0;
-  for (let i = num.length - 1; i >= 0; i--) {
-    n = n * r + num[i];
-    d = d * r + den[i];
-  }
-  return n / d;
-}
-
-/** Standard normal quantile Φ⁻¹(p) for 0 < p < 1. */
-export function normalQuantile(p: number): number {
-  if (!(p > 0 && p < 1)) throw new RangeError(`the probability must be between 0 and 1 (exclusive), got ${p}`);
-  const q = p - 0.5;
-  if (Math.abs(q) <= 0.425) return q * rational(AS241_A, AS241_B, 0.180625 - q * q);
-  let r = Math.sqrt(-Math.log(q < 0 ? p : 0.5 - p + 0.5));
-  const value = r <= 5 ? rational(AS241_C, AS241_D, (r -= 1.6)) : rational(AS241_E, AS241_F, (r -= 5));
-  return q < 0 ? -value : value;
 }
 
 /** log(Φ(b) − Φ(a)) for a < b (either may be infinite), without cancellation in the tails. */

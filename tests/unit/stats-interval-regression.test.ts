@@ -6,11 +6,11 @@ import {
   logNormalBetween,
   logNormalCdf,
   lognormalIntervalRegression,
-  normalQuantile,
   weibullIntervalRegression,
   type IntervalRegressionFit,
   type IntervalRow,
 } from "@/lib/stats/interval-regression";
+import { normalQuantile } from "@/lib/stats/distributions";
 import { lung, ovarian } from "@/tests/support/r-interval-data";
 
 // Every reference value below was computed with R 4.2.2 and survival 3.5-3 (survreg's default

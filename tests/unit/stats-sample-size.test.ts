@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
-import { normalQuantile, planningInputErrors, schoenfeldEvents, specimensNeeded } from "@/lib/stats/sample-size";
+import { normalQuantile } from "@/lib/stats/distributions";
+import { planningInputErrors, schoenfeldEvents, specimensNeeded } from "@/lib/stats/sample-size";
 
 describe("normalQuantile (Wichura AS 241)", () => {
   // R 4.2.2 (2022-11-10 r83330): sprintf("%.17g", qnorm(p)) for each p.
