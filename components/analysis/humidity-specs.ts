@@ -1,7 +1,7 @@
 // vega-lite specs for the humidity response: predicted time until p % rust against RH, and the
 // model check (fitted share rusted over the Turnbull estimate, per humidity level).
 import type { VisualizationSpec } from "vega-embed";
-import type { HumidityResponse } from "@/lib/analysis/humidity-response";
+import type { HumidityResponse } from "@/lib/analysis/humidity-result";
 import { categoryScale } from "@/components/ui/chart-palette";
 import { BASE } from "./chart-specs";
 

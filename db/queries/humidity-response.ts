@@ -1,8 +1,9 @@
 import "server-only";
 import { and, eq, inArray } from "drizzle-orm";
-import { humidityResponse, type ResponseOptions, type ResponseRow } from "@/lib/analysis/humidity-response";
+import { humidityResponse } from "@/lib/analysis/humidity-response";
+import type { ResponseOptions, ResponseRow } from "@/lib/analysis/humidity-result";
 import { db } from "../client";
-import { chambers, placements } from "../schema";
+import { chambers } from "../schema";
 import { loadSpecimenOutcomes } from "./analysis";
 import { getChamberWindowStats } from "./readings-series";
 import { getTrial, type Trial } from "./trial-access";
@@ -40,11 +41,6 @@ export async function loadHumidityResponse({ labId, trial, poolTrialIds = [], op
   for (const t of trialsUsed) {
     const { startAt, outcomes } = await loadSpecimenOutcomes({ labId, trial: t });
     if (!startAt) continue;
-    const placementRows = await db
-      .select({ id: placements.id, fromAt: placements.fromAt })
-      .from(placements)
-      .where(and(eq(placements.labId, labId), eq(placements.trialId, t.id)));
-    const fromOf = new Map(placementRows.map((p) => [p.id, p.fromAt]));
     const chamberIds = [...new Set(outcomes.map((o) => o.chamberId))];
     const chamberRows = chamberIds.length
       ? await db.select({ id: chambers.id, setpointRhPercent: chambers.setpointRhPercent, toleranceRhPercent: chambers.toleranceRhPercent })
@@ -63,7 +59,8 @@ export async function loadHumidityResponse({ labId, trial, poolTrialIds = [], op
       }
       const lower = o.interval.lower;
       const upper = o.interval.upper ?? Infinity;
-      const from = fromOf.get(o.placementId) ?? startAt;
+      // A first placement is at risk from day 0 (its entry), the trial's start.
+      const from = startAt;
       const endDay = Number.isFinite(upper) ? upper : lower;
       const to = new Date(Math.max(from.getTime() + DAY_MS, startAt.getTime() + endDay * DAY_MS));
       const key = `${o.chamberId}|${from.getTime()}|${to.getTime()}`;

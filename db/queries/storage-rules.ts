@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, desc, eq, isNull, max, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
-import { formatHorizon } from "@/lib/analysis/humidity-response";
+import { formatHorizon } from "@/lib/analysis/humidity-sentences";
 import { assertResultsVisible } from "@/lib/trials/access";
 import { responseOptions, type AcceptRuleInput } from "@/lib/validation/storage-rules";
 import { recordAudit } from "../audit";

@@ -11,38 +11,10 @@ import {
 } from "@/lib/stats/interval-regression";
 import { survivalCurveFromTurnbull, turnbull } from "@/lib/stats/turnbull";
 import { MATERIAL_LABELS } from "./groups";
-
-/** One specimen's time at risk in one jar (first placements only; see the caller). */
-export interface ResponseRow {
-  placementId: string;
-  specimenLabel: string;
-  trialId: string;
-  chamberId: string;
-  chamberName: string;
-  /** The jar's target RH (for naming levels only; the fit uses the measured value). */
-  targetRhPercent: number;
-  /** Time-weighted mean RH the jar measured over the placement. */
-  measuredRhPercent: number;
-  materialClass: string;
-  treatmentId: string;
-  treatmentName: string;
-  treatmentKind: string;
-  /** (lower, upper] in days; upper Infinity = never seen rusted; lower 0 = rusted at the first look. */
-  lower: number;
-  upper: number;
-}
-
-export interface ResponseOptions {
-  /** Share of specimens rusted, 0 < p < 1 (default 0.1). */
-  p: number;
-  /** The storage horizon in days (default 10 years). */
-  horizonDays: number;
-}
-
-export const DEFAULT_RESPONSE_OPTIONS: ResponseOptions = { p: 0.1, horizonDays: 3652.5 };
-
-/** A storage rule needs a humidity response, and a response needs at least this many levels. */
-export const MIN_HUMIDITY_LEVELS = 3;
+import {
+  DEFAULT_RESPONSE_OPTIONS, MIN_HUMIDITY_LEVELS, type ComboResult, type HumidityResponse, type LevelCheck, type ResponseOptions, type ResponseRow, type Threshold,
+} from "./humidity-result";
+import { fmtRh, formatHorizon, thresholdSentence, whoOf } from "./humidity-sentences";
 
 /** Jars whose target RH is within this many %RH count as one humidity level. */
 const LEVEL_ROUNDING_RH = 1;
@@ -50,84 +22,6 @@ const LEVEL_ROUNDING_RH = 1;
 // The horizon may reach this many times past the longest observation before the threshold is
 // flagged as an extrapolation (trade practice: a factor of a few, not an order of magnitude).
 const EXTRAPOLATION_FACTOR = 3;
-
-export interface Coefficient {
-  name: string;
-  estimate: number;
-  standardError: number;
-}
-
-export interface CurvePoint {
-  rhPercent: number;
-  days: number;
-  lower95: number;
-  upper95: number;
-}
-
-export interface Threshold {
-  /** Highest RH (0–100) at which the predicted time to p % rusted still reaches the horizon; null = none. */
-  rhPercent: number | null;
-  /** 95 % limits from the pointwise band; null where the band does not cross the horizon within 0–100 %RH. */
-  lower95: number | null;
-  upper95: number | null;
-  /** "found", or why not: rust does not come sooner at higher RH, or every RH / no RH reaches the horizon. */
-  status: "found" | "no-trend" | "above-range" | "below-range";
-}
-
-export interface ComboResult {
-  key: string;
-  materialClass: string;
-  materialLabel: string;
-  treatmentId: string;
-  treatmentName: string;
-  /** Specimens of this material and treatment in the fit. */
-  n: number;
-  curve: CurvePoint[];
-  threshold: Threshold;
-  /** The same threshold from the lognormal fit: how much the answer leans on the Weibull shape. */
-  lognormalThreshold: Threshold | null;
-  sentence: string;
-}
-
-export interface LevelCheck {
-  label: string;
-  meanRhPercent: number;
-  n: number;
-  events: number;
-  /** Turnbull estimate of the share rusted, as steps. */
-  observed: { day: number; rustedShare: number }[];
-  /** Weibull fit's share rusted, averaged over the level's specimens. */
-  fitted: { day: number; rustedShare: number }[];
-}
-
-export interface HazardRatio {
-  name: string;
-  hazardRatio: number;
-  lower95: number;
-  upper95: number;
-}
-
-export interface HumidityResponse {
-  options: ResponseOptions;
-  levels: { label: string; targetRhPercent: number; measuredRhPercent: number; jars: number; n: number; events: number }[];
-  /** Null with `reason` when the data cannot carry the model. */
-  fit: {
-    distribution: "weibull";
-    n: number;
-    events: number;
-    coefficients: Coefficient[];
-    scale: number;
-    logLik: number;
-    lognormalLogLik: number | null;
-  } | null;
-  reason: string | null;
-  combos: ComboResult[];
-  check: LevelCheck[];
-  cox: { hazardRatios: HazardRatio[]; note: string } | null;
-  coxError: string | null;
-  longestObservationDays: number;
-  warnings: string[];
-}
 
 interface Design {
   names: string[];
@@ -222,42 +116,6 @@ function thresholdOf(fit: IntervalRegressionFit, p: number, horizonDays: number,
   return { rhPercent: point, lower95: low === "none" ? 0 : num(low), upper95: high === "all" ? null : num(high), status: "found" };
 }
 
-const fmtRh = (v: number) => `${Math.round(v)} %RH`;
-
-export function formatHorizon(days: number): string {
-  const years = days / 365.25;
-  return years >= 1 && Math.abs(years - Math.round(years)) < 0.01
-    ? `${Math.round(years)} year${Math.round(years) === 1 ? "" : "s"}`
-    : `${Math.round(days).toLocaleString("en-GB")} days`;
-}
-
-/** "Keep bare iron meteorites below 28 %RH (95 % CI 19–35 %RH) …" */
-export function thresholdSentence(t: Threshold, who: string, options: ResponseOptions): string {
-  const pct = `${+(options.p * 100).toFixed(1)} %`;
-  const horizon = formatHorizon(options.horizonDays);
-  switch (t.status) {
-    case "found": {
-      const ci = t.lower95 !== null && t.upper95 !== null ? `${Math.round(t.lower95)}–${fmtRh(t.upper95)}`
-        : t.lower95 !== null ? `${fmtRh(t.lower95)} or more` : t.upper95 !== null ? `up to ${fmtRh(t.upper95)}` : "not bounded within 0–100 %RH";
-      return `Keep ${who} below ${fmtRh(t.rhPercent!)} (95 % CI ${ci}) so that fewer than ${pct} rust within ${horizon}.`;
-    }
-    case "no-trend":
-      return `For ${who} the fit does not show rust coming sooner at higher humidity, so no storage threshold follows from these data.`;
-    case "above-range":
-      return `For ${who} the model predicts fewer than ${pct} rusted within ${horizon} even at 100 %RH: the data set no limit below saturation.`;
-    case "below-range":
-      return `For ${who} the model predicts ${pct} rusted within ${horizon} even at 0 %RH: no humidity alone keeps them that long.`;
-  }
-}
-
-function whoOf(materialLabel: string, treatment: { name: string; kind: string }): string {
-  const material = materialLabel.toLowerCase();
-  const plural = material.endsWith("iron") ? `${material} specimens` : `${material}s`;
-  return treatment.kind === "control" ? `${plural} (${treatment.name.toLowerCase()})` : `${plural} treated with ${treatment.name.toLowerCase()}`;
-}
-
-const fitWeibull = (rows: { lower: number; upper: number; x: number[] }[]) => weibullIntervalRegression(rows);
-
 function weibullShare(fit: IntervalRegressionFit, day: number, x: readonly number[]): number {
   if (day <= 0) return 0;
   const linear = fit.intercept + x.reduce((s, xi, i) => s + xi * fit.coefficients[i], 0);
@@ -317,7 +175,7 @@ export function humidityResponse(
   }));
   let fit: IntervalRegressionFit;
   try {
-    fit = fitWeibull(fitRows);
+    fit = weibullIntervalRegression(fitRows);
   } catch (err) {
     return { ...base, reason: `The model could not be fitted: ${err instanceof Error ? err.message : String(err)}` };
   }

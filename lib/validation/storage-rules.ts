@@ -1,7 +1,7 @@
 // The humidity response's choices (share rusted, horizon, pooled trials) and accepting a storage
 // rule: one schema each, for the page's URL, the form and the JSON API alike.
 import { z } from "zod";
-import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-response";
+import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-result";
 
 const YEAR_DAYS = 365.25;
 

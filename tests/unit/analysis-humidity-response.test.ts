@@ -7,7 +7,9 @@
 //   the point where the predicted 10 % quantile equals 3652.5 days (10 years), and the limits where
 //   log(fit) ∓ qnorm(0.975) · se.fit / fit equals log(3652.5) — R's own delta-method standard error.
 import { describe, expect, it } from "vitest";
-import { humidityLevelCount, humidityResponse, thresholdSentence, type ResponseRow } from "@/lib/analysis/humidity-response";
+import { humidityLevelCount, humidityResponse } from "@/lib/analysis/humidity-response";
+import type { ResponseRow } from "@/lib/analysis/humidity-result";
+import { thresholdSentence } from "@/lib/analysis/humidity-sentences";
 
 const LADDER: [number, number, number, number][] = [
   [168, Infinity, 10.68, 0],

@@ -16,7 +16,7 @@ const square = (x0: number, y0: number, side: number): Point[] => [
 ];
 const face = square(0, 0, 1000);
 
-// Grid measurement: within 0.5 % (relative) of the exact area, the resolution the brief asks for.
+// Grid measurement: within 0.5 % (relative) of the exact area (our resolution target for rusted-area marks).
 function expectNear(got: number, exact: number): void {
   expect(Math.abs(got - exact) / exact).toBeLessThan(0.005);
 }

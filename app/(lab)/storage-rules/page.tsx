@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { listStorageRules } from "@/db/queries/storage-rules";
 import { labPage } from "@/lib/auth/page";
-import { formatHorizon } from "@/lib/analysis/humidity-response";
+import { formatHorizon } from "@/lib/analysis/humidity-sentences";
 import { MATERIAL_LABELS } from "@/lib/analysis/groups";
 import { formatDateTime } from "@/lib/format";
 import { EmptyState } from "@/components/ui/empty-state";

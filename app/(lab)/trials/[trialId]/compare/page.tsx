@@ -1,5 +1,6 @@
 import Link from "next/link";
-import { humidityLevelCount, MIN_HUMIDITY_LEVELS } from "@/lib/analysis/humidity-response";
+import { humidityLevelCount } from "@/lib/analysis/humidity-response";
+import { MIN_HUMIDITY_LEVELS } from "@/lib/analysis/humidity-result";
 import { analysisPage, type AnalysisPageProps } from "@/lib/auth/page";
 import { formatDateTime } from "@/lib/format";
 import { defaultOutcomeView, OUTCOME_LABELS } from "@/lib/analysis/params";
