@@ -25,17 +25,24 @@ export function responseOptions(q: Pick<ResponseQuery, "share" | "horizon">): Re
   return { p: q.share / 100, horizonDays: q.horizon * YEAR_DAYS };
 }
 
-/** For the page: a bad value falls back to its default (the form shows what was used). */
-export function responsePageQuery(raw: Record<string, string | string[] | undefined>): ResponseQuery {
+/**
+ * For the page: a bad value falls back to its default, and `problems` says which and why, so the page
+ * can tell the reader what it used instead of what was asked.
+ */
+export function responsePageQuery(raw: Record<string, string | string[] | undefined>): { query: ResponseQuery; problems: string[] } {
   const one = (k: string) => (typeof raw[k] === "string" && raw[k] !== "" ? raw[k] : undefined);
-  const out = responseQuerySchema.parse({});
-  const share = sharePercent.safeParse(one("share"));
-  if (share.success) out.share = share.data;
-  const horizon = horizonYears.safeParse(one("horizon"));
-  if (horizon.success) out.horizon = horizon.data;
+  const query = responseQuerySchema.parse({});
+  const problems: string[] = [];
+  const share = one("share") === undefined ? null : sharePercent.safeParse(one("share"));
+  if (share?.success) query.share = share.data;
+  else if (share) problems.push(`${share.error.issues[0].message} Showing ${query.share} %.`);
+  const horizon = one("horizon") === undefined ? null : horizonYears.safeParse(one("horizon"));
+  if (horizon?.success) query.horizon = horizon.data;
+  else if (horizon) problems.push(`${horizon.error.issues[0].message} Showing ${+query.horizon.toFixed(2)} years.`);
   const p = pool.safeParse(raw.pool === undefined ? [] : Array.isArray(raw.pool) ? raw.pool : one("pool"));
-  if (p.success) out.pool = p.data;
-  return out;
+  if (p.success) query.pool = p.data;
+  else problems.push(`${p.error.issues[0].message} No trials are pooled.`);
+  return { query, problems };
 }
 
 export const acceptRuleSchema = z.object({

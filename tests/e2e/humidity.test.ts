@@ -48,6 +48,10 @@ describe("from the humidity response to a storage rule", () => {
     await page.getByRole("button", { name: "Update" }).click();
     await page.waitForURL(/horizon=5/);
     await expect(page.getByTestId("threshold-sentences").textContent()).resolves.toMatch(/fewer than 5 % rust within 5 years/);
+    // A value out of range in the URL is named, and the page shows the default instead.
+    await page.goto(`${humidityUrl}?share=500`);
+    await expect(page.getByRole("alert").filter({ hasText: "share rusted" }).textContent()).resolves.toBe("The share rusted must be at most 50 %. Showing 10 %.");
+    await expect(page.getByTestId("threshold-sentences").textContent()).resolves.toMatch(/fewer than 10 % rust within 10 years/);
     await page.goto(humidityUrl);
   });
 

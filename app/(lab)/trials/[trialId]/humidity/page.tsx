@@ -29,7 +29,7 @@ function thresholdCell(t: Threshold): string {
 export default async function HumidityPage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | string[] | undefined>> }) {
   const [{ trialId }, raw] = await Promise.all([params, searchParams]);
   const { ctx, trial } = await trialPage("/trials/[trialId]/humidity", trialId);
-  const q = responsePageQuery(raw);
+  const { query: q, problems } = responsePageQuery(raw);
   const [candidates, blind] = await Promise.all([listTrialsForAnalysis({ labId: ctx.labId }), blindTrialIds(ctx)]);
   // Trials that can be pooled: the lab's others with scores, except those the viewer scores blind.
   const poolable = candidates.filter((t) => t.id !== trial.id && t.recordScores > 0 && !blind.has(t.id));
@@ -76,6 +76,12 @@ export default async function HumidityPage({ params, searchParams }: { params: P
         )}
         <button type="submit" className="btn">Update</button>
       </form>
+
+      {problems.length > 0 && (
+        <div role="alert" className="rounded-md bg-rust-50 text-rust-800 px-3 py-2 text-sm">
+          {problems.map((p) => <p key={p}>{p}</p>)}
+        </div>
+      )}
 
       {!r.fit ? (
         <EmptyState
