@@ -136,13 +136,22 @@ export function compareGroups(
   const atRisk = outcomes.filter((o) => atRiskOf(o, endpoint));
   const grouped = groupOutcomes(atRisk, options.groupBy);
   const inspectionDays = [...new Set(outcomes.flatMap((o) => o.observations.map((x) => x.day)))].sort((a, b) => a - b);
+  // The final state is a specimen's, not a placement's: a specimen moved while clean counts once, in
+  // the group of its last scored placement under observation (its earlier placement ended clean at the move).
+  const lastPlacement = new Map<string, SpecimenOutcome>();
+  for (const o of atRisk) {
+    if (!endpointInterval(o, endpoint)) continue;
+    const seen = lastPlacement.get(o.specimenId);
+    if (!seen || o.entry > seen.entry) lastPlacement.set(o.specimenId, o);
+  }
 
   const perGroup = grouped.map((g) => {
     const intervals = intervalsOf(g.members, endpoint);
     const scored = g.members.filter((m) => endpointInterval(m, endpoint));
     const events = scored.filter((m) => endpointInterval(m, endpoint)!.upper !== null).length;
-    const finalRusted = scored.filter((m) => m.rusted).length;
-    const finalAreas = scored.map((m) => m.finalAreaPercent).filter((x): x is number => x !== null).sort((a, b) => a - b);
+    const finalScored = scored.filter((m) => lastPlacement.get(m.specimenId) === m);
+    const finalRusted = finalScored.filter((m) => m.rusted).length;
+    const finalAreas = finalScored.map((m) => m.finalAreaPercent).filter((x): x is number => x !== null).sort((a, b) => a - b);
     const result: GroupResult = {
       key: g.key,
       label: g.label,
@@ -161,7 +170,7 @@ export function compareGroups(
       }])[0].points,
       final: {
         rusted: finalRusted,
-        notRusted: scored.length - finalRusted,
+        notRusted: finalScored.length - finalRusted,
         medianAreaPercent: finalAreas.length ? quantileType7(finalAreas, 0.5) : null,
       },
     };

@@ -7,7 +7,7 @@ import type { AgreementResult, ComparisonResult } from "./result";
 export const MOVED_SPECIMEN_NOTE =
   "A specimen moved to another jar counts in the group of each jar it was in: it is counted as still clean in the old jar " +
   "up to its last inspection before the move and is at risk in the new jar only from the day of the move; once seen rusted, " +
-  "its later placements are not counted again.";
+  "its later placements are not counted again. Its final state (rusted or not, final area) counts once, in the group of its last jar.";
 
 /** Scores of record at one inspection that is not marked done (db/queries/analysis loadLeftOutScores). */
 export interface LeftOutScores {

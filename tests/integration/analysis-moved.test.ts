@@ -76,6 +76,10 @@ describe("a moved specimen", () => {
     expect(logRank([[{ time: 7, event: true }, { time: 7, event: false }, { time: 14, event: true }, { time: 28, event: false }], [{ time: 14, event: true }, { time: 28, event: false }]]).chiSquare).toBeCloseTo(0.2, 12);
     // Turnbull in the wet jar: (10, 14] entered at 10 and (28, ∞): half the mass in each.
     expect(wet.turnbull.median).toEqual({ time: 14, lower: 10, upper: 14 });
+    // Final state per specimen, in the group of its last placement at risk: 5 specimens, not 6 placements.
+    // Dry: the rusted mover (rusted at 7, not at risk in the wet jar), the one rusted at 14, the clean
+    // one; wet: the clean mover (rusted at 14 after the move) and the one clean throughout.
+    expect(c.groups.map((g) => [g.final.rusted, g.final.notRusted])).toEqual([[2, 1], [1, 1]]);
     expect(c.notes.join(" ")).toMatch(/2 placements are of specimens moved to another jar during the trial\. A specimen moved to another jar counts in the group of each jar/);
     expect(c.notes.join(" ")).toMatch(/1 later placement was left out because the specimen had already rusted before the move/);
     // Direct check of the wet-jar curve with the entry passed to Kaplan–Meier.
