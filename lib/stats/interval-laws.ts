@@ -31,6 +31,18 @@ let tailSplitSq = 0;
 let tailRest = 0;
 let tailRatio = 0;
 
+/** Φ(x) − 0.5 for |x| ≤ 0.67448975: Cody's central rational approximation (as R's pnorm). */
+function codyCentral(x: number): number {
+  const sq = x * x;
+  let num = CODY_A[4] * sq;
+  let den = sq;
+  for (let i = 0; i < 3; i++) {
+    num = (num + CODY_A[i]) * sq;
+    den = (den + CODY_B[i]) * sq;
+  }
+  return (x * (num + CODY_A[3])) / (den + CODY_B[3]);
+}
+
 function smallNormalTail(y: number): void {
   if (y <= 5.656854249492380195) {
     let num = CODY_C[8] * y;
@@ -62,14 +74,7 @@ export function logNormalCdf(x: number): number {
   if (x === -Infinity) return -Infinity;
   const y = Math.abs(x);
   if (y <= 0.67448975) {
-    const sq = x * x;
-    let num = CODY_A[4] * sq;
-    let den = sq;
-    for (let i = 0; i < 3; i++) {
-      num = (num + CODY_A[i]) * sq;
-      den = (den + CODY_B[i]) * sq;
-    }
-    return Math.log(0.5 + (x * (num + CODY_A[3])) / (den + CODY_B[3]));
+    return Math.log(0.5 + codyCentral(x));
   }
   smallNormalTail(y);
   if (x < 0) return -tailSplitSq * 0.5 - tailRest * 0.5 + Math.log(tailRatio);
@@ -146,13 +151,7 @@ let valueDensity = 0;
 function normalValues(x: number): void {
   if (Math.abs(x) <= 0.67448975) {
     const sq = x * x;
-    let num = CODY_A[4] * sq;
-    let den = sq;
-    for (let i = 0; i < 3; i++) {
-      num = (num + CODY_A[i]) * sq;
-      den = (den + CODY_B[i]) * sq;
-    }
-    const temp = (x * (num + CODY_A[3])) / (den + CODY_B[3]);
+    const temp = codyCentral(x);
     valueLower = 0.5 + temp;
     valueUpper = 0.5 - temp;
     valueDensity = Math.exp(-0.5 * sq) * INV_SQRT_2PI;
