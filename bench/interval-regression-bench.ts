@@ -5,8 +5,8 @@ import {
   lognormalIntervalRegression,
   weibullIntervalRegression,
   type IntervalRegressionFit,
-  type IntervalRow,
 } from "@/lib/stats/interval-regression";
+import type { IntervalRow } from "@/lib/stats/interval-design";
 
 const SPECIMENS = 10_000;
 const LOOKS = 20;

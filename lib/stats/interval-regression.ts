@@ -4,18 +4,8 @@
 // convergence rule follow R's survreg (survival package), so estimates, vcov(), loglik and
 // predict(type = "quantile") can be checked against it.
 import { EXTREME_VALUE, NORMAL, type ErrorLaw } from "./interval-laws";
-import { firstDependentColumn, spdFactor, spdInverse, spdSolve, type SpdFactor } from "./cholesky";
-
-/**
- * One specimen. `lower = 0`: rust already at the first look (T ≤ upper); `upper = Infinity`: no rust
- * yet when last seen at `lower`; `lower === upper`: the exact time; otherwise lower < T ≤ upper.
- * A row from 0 to Infinity says nothing and is left out of the fit (R drops it as missing).
- */
-export interface IntervalRow {
-  lower: number;
-  upper: number;
-  x: number[];
-}
+import { spdFactor, spdInverse, spdSolve, type SpdFactor } from "./cholesky";
+import { EXACT, LEFT, RIGHT, describeNumber, prepare, type Design, type IntervalRow } from "./interval-design";
 
 export interface IntervalRegressionFit {
   distribution: "weibull" | "lognormal";
@@ -35,122 +25,6 @@ export interface IntervalRegressionFit {
   converged: boolean;
   /** The p-quantile of T at covariates x: R's predict(fit, newdata, type = "quantile", p = p). */
   quantile(p: number, x: number[]): number;
-}
-
-// ---------------------------------------------------------------------------------------------
-// Rows → a compact design. Covariates are centred and scaled for the iterations (better
-// conditioned Newton steps); estimates and covariance are mapped back to the caller's units.
-
-const EXACT = 0;
-const RIGHT = 1;
-const LEFT = 2;
-const INTERVAL = 3;
-
-interface Design {
-  n: number;
-  k: number;
-  kind: Uint8Array;
-  logLower: Float64Array;
-  logUpper: Float64Array;
-  /** standardised covariates, row-major n × k */
-  z: Float64Array;
-  means: number[];
-  sds: number[];
-  /** −Σ log t over exact rows: survreg's correction from log T back to T */
-  jacobian: number;
-  exactRows: number;
-}
-
-function describe(value: number): string {
-  return Number.isNaN(value) ? "not a number" : String(value);
-}
-
-function prepare(rows: IntervalRow[]): Design {
-  if (!Array.isArray(rows) || rows.length === 0) throw new RangeError("There are no rows to fit.");
-  const used: number[] = [];
-  let rightOnly = true;
-  let leftOnly = true;
-  let k = 0;
-  for (let i = 0; i < rows.length; i++) {
-    const row = rows[i];
-    if (!row || typeof row !== "object" || !Array.isArray(row.x)) {
-      throw new RangeError(`Row ${i + 1} has no list of covariates (x); give x: [] when there are none.`);
-    }
-    if (i === 0) k = row.x.length;
-    if (row.x.length !== k) {
-      throw new RangeError(`Row ${i + 1} has ${row.x.length} covariates but row 1 has ${k}: every row needs the same covariates.`);
-    }
-    for (let j = 0; j < k; j++) {
-      const v = row.x[j];
-      if (typeof v !== "number" || !Number.isFinite(v)) throw new RangeError(`Row ${i + 1}: covariate ${j + 1} must be a finite number, got ${describe(v)}.`);
-    }
-    const { lower, upper } = row;
-    if (typeof lower !== "number" || !Number.isFinite(lower) || lower < 0) {
-      throw new RangeError(`Row ${i + 1}: the lower time must be a finite number of 0 or more, got ${describe(lower)}.`);
-    }
-    if (typeof upper !== "number" || Number.isNaN(upper) || upper <= 0) {
-      throw new RangeError(`Row ${i + 1}: the upper time must be above 0 (or Infinity when no rust was seen), got ${describe(upper)}.`);
-    }
-    if (lower > upper) throw new RangeError(`Row ${i + 1}: the lower time ${lower} is above the upper time ${upper}.`);
-    if (lower === 0 && upper === Infinity) continue; // says nothing about the time
-    used.push(i);
-    if (upper !== Infinity) rightOnly = false;
-    if (lower !== 0) leftOnly = false;
-  }
-  if (used.length === 0) throw new RangeError("Every row runs from 0 to Infinity: no row says anything about the time, so there is nothing to fit.");
-  if (rightOnly) throw new RangeError("Every row is right-censored (no rust seen yet): there is nothing to fit.");
-  if (leftOnly) throw new RangeError("Every row is left-censored (rust already at the first look): there is nothing to fit.");
-
-  const n = used.length;
-  const kind = new Uint8Array(n);
-  const logLower = new Float64Array(n);
-  const logUpper = new Float64Array(n);
-  let jacobian = 0;
-  let exactRows = 0;
-  for (let i = 0; i < n; i++) {
-    const { lower, upper } = rows[used[i]];
-    logLower[i] = lower > 0 ? Math.log(lower) : -Infinity;
-    logUpper[i] = Math.log(upper);
-    if (lower === upper) {
-      kind[i] = EXACT;
-      jacobian -= logLower[i];
-      exactRows++;
-    } else kind[i] = upper === Infinity ? RIGHT : lower === 0 ? LEFT : INTERVAL;
-  }
-
-  const means: number[] = [];
-  const sds: number[] = [];
-  const z = new Float64Array(n * k);
-  for (let j = 0; j < k; j++) {
-    let sum = 0;
-    const first = rows[used[0]].x[j];
-    let constant = true;
-    for (const r of used) {
-      const v = rows[r].x[j];
-      sum += v;
-      if (v !== first) constant = false;
-    }
-    if (constant) throw new RangeError(`Covariate ${j + 1} has the same value in every row: its effect cannot be estimated.`);
-    const mean = sum / n;
-    let ss = 0;
-    for (const r of used) ss += (rows[r].x[j] - mean) ** 2;
-    const sd = Math.sqrt(ss / n);
-    means.push(mean);
-    sds.push(sd);
-    for (let i = 0; i < n; i++) z[i * k + j] = (rows[used[i]].x[j] - mean) / sd;
-  }
-  const gram = Array.from({ length: k }, (_, a) =>
-    Array.from({ length: k }, (_, b) => {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += z[i * k + a] * z[i * k + b];
-      return s;
-    }),
-  );
-  const dependent = firstDependentColumn(gram);
-  if (dependent >= 0) {
-    throw new RangeError(`Covariate ${dependent + 1} is a copy of another covariate (or a sum of others, or nearly so): its effect cannot be estimated.`);
-  }
-  return { n, k, kind, logLower, logUpper, z, means, sds, jacobian, exactRows };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -457,7 +331,7 @@ export function intervalLogLik(
 ): number {
   const d = prepare(rows);
   if (params.coefficients.length !== d.k) throw new RangeError(`The rows have ${d.k} covariates but ${params.coefficients.length} coefficients were given.`);
-  if (!(params.scale > 0) || !Number.isFinite(params.scale)) throw new RangeError(`The scale must be a finite number above 0, got ${describe(params.scale)}.`);
+  if (!(params.scale > 0) || !Number.isFinite(params.scale)) throw new RangeError(`The scale must be a finite number above 0, got ${describeNumber(params.scale)}.`);
   const values = [params.intercept, ...params.coefficients];
   if (!values.every(Number.isFinite)) throw new RangeError("The intercept and coefficients must be finite numbers.");
   // The same parameters on the standardised covariates the fit works with.

@@ -5,8 +5,8 @@ import {
   lognormalIntervalRegression,
   weibullIntervalRegression,
   type IntervalRegressionFit,
-  type IntervalRow,
 } from "@/lib/stats/interval-regression";
+import type { IntervalRow } from "@/lib/stats/interval-design";
 import { lung, ovarian } from "@/tests/support/r-interval-data";
 
 // Every reference value below was computed with R 4.2.2 and survival 3.5-3 (survreg's default
