@@ -3,10 +3,11 @@ import { and, asc, desc, eq, isNull, max, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { formatHorizon } from "@/lib/analysis/humidity-sentences";
 import { assertResultsVisible } from "@/lib/trials/access";
-import { responseOptions, type AcceptRuleInput } from "@/lib/validation/storage-rules";
+import { MATERIAL_LABELS } from "@/lib/analysis/groups";
+import { ANY_TREATMENT, responseOptions, type AcceptRuleInput, type EnterRuleInput } from "@/lib/validation/storage-rules";
 import { recordAudit } from "../audit";
 import { db } from "../client";
-import { storageRules, users } from "../schema";
+import { storageRules, treatments, users } from "../schema";
 import { loadHumidityResponse } from "./humidity-response";
 import { assertAllowed, type Actor } from "./specimens";
 import { blindTrialIds, getTrialAccess } from "./trial-access";
@@ -35,26 +36,62 @@ export async function acceptStorageRule({ actor, input }: { actor: Actor; input:
   const t = combo.threshold;
   if (t.status !== "found" || t.rhPercent === null) throw new AppError("invalid", `No threshold to accept: ${combo.sentence}`);
 
+  const rule = await saveRuleVersion({
+    actor, trialId: trial.id,
+    values: {
+      materialClass: combo.materialClass, treatmentId: combo.treatmentId, treatmentName: combo.treatmentName,
+      thresholdRhPercent: t.rhPercent!, lower95RhPercent: t.lower95, upper95RhPercent: t.upper95,
+      shareRusted: options.p, horizonDays: options.horizonDays, method: RULE_METHOD, statement: combo.sentence,
+      sourceTrialIds: trials.map((x) => x.id), note: input.note, origin: "trial",
+    },
+    summary: (v) => `Storage rule accepted: ${combo.materialLabel}, ${combo.treatmentName} below ${Math.round(t.rhPercent!)} %RH (version ${v}, ${formatHorizon(options.horizonDays)})`,
+  });
+  return rule;
+}
+
+/**
+ * Enter a rule by hand, from a publication, a standard or the lab's own decision, with that source
+ * and its date. It becomes a new version of the rule for that material and treatment, as an accepted
+ * one does.
+ */
+export async function enterStorageRule({ actor, input }: { actor: Actor; input: EnterRuleInput }) {
+  assertAllowed(actor, "storageRules.accept");
+  let treatmentName = ANY_TREATMENT;
+  if (input.treatmentId) {
+    const [t] = await db.select({ name: treatments.name }).from(treatments).where(and(eq(treatments.labId, actor.labId), eq(treatments.id, input.treatmentId)));
+    if (!t) throw new AppError("invalid", "That treatment is not one of this lab's.", { treatmentId: ["Pick a treatment from the list."] });
+    treatmentName = t.name;
+  }
+  const material = MATERIAL_LABELS[input.materialClass] ?? input.materialClass;
+  const threshold = +input.thresholdRhPercent.toFixed(1);
+  return saveRuleVersion({
+    actor, trialId: null,
+    values: {
+      materialClass: input.materialClass, treatmentId: input.treatmentId, treatmentName,
+      thresholdRhPercent: input.thresholdRhPercent, lower95RhPercent: null, upper95RhPercent: null, shareRusted: null, horizonDays: null,
+      method: "Entered by hand from the source named.", origin: "entered", source: input.source, sourceDate: input.sourceDate,
+      statement: `Keep ${material.toLowerCase()}, ${treatmentName.toLowerCase()}, below ${threshold} %RH (${input.source}, ${input.sourceDate}).`,
+      sourceTrialIds: [], note: input.note,
+    },
+    summary: (v) => `Storage rule entered: ${material}, ${treatmentName} below ${threshold} %RH (version ${v}, source: ${input.source})`,
+  });
+}
+
+type RuleValues = Omit<typeof storageRules.$inferInsert, "id" | "labId" | "version" | "acceptedBy" | "acceptedAt" | "supersededAt">;
+
+/** The one place a rule version is written: under a lock per material and treatment, the previous version superseded, both audited. */
+async function saveRuleVersion({ actor, trialId, values, summary }: { actor: Actor; trialId: string | null; values: RuleValues; summary: (version: number) => string }) {
   return db.transaction(async (tx) => {
     // One acceptance at a time per material and treatment: the version number and the current rule are decided under this lock.
-    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`storage-rule|${actor.labId}|${combo.materialClass}|${combo.treatmentName}`}))`);
-    const key = and(eq(storageRules.labId, actor.labId), eq(storageRules.materialClass, combo.materialClass), eq(storageRules.treatmentName, combo.treatmentName));
+    await tx.execute(sql`select pg_advisory_xact_lock(hashtext(${`storage-rule|${actor.labId}|${values.materialClass}|${values.treatmentName}`}))`);
+    const key = and(eq(storageRules.labId, actor.labId), eq(storageRules.materialClass, values.materialClass), eq(storageRules.treatmentName, values.treatmentName));
     const [{ last }] = await tx.select({ last: max(storageRules.version) }).from(storageRules).where(key);
     const [previous] = await tx.update(storageRules).set({ supersededAt: new Date() }).where(and(key, isNull(storageRules.supersededAt))).returning();
-    const [rule] = await tx.insert(storageRules).values({
-      labId: actor.labId, materialClass: combo.materialClass, treatmentId: combo.treatmentId, treatmentName: combo.treatmentName,
-      version: (last ?? 0) + 1, thresholdRhPercent: t.rhPercent!, lower95RhPercent: t.lower95, upper95RhPercent: t.upper95,
-      shareRusted: options.p, horizonDays: options.horizonDays, method: RULE_METHOD, statement: combo.sentence,
-      sourceTrialIds: trials.map((x) => x.id), note: input.note, acceptedBy: actor.userId,
-    }).returning();
+    const [rule] = await tx.insert(storageRules).values({ ...values, labId: actor.labId, version: (last ?? 0) + 1, acceptedBy: actor.userId }).returning();
     if (previous) {
-      await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: previous.id, trialId: trial.id, action: "update", summary: `Storage rule version ${previous.version} superseded`, before: { supersededAt: null }, after: { supersededAt: rule.acceptedAt } });
+      await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: previous.id, trialId, action: "update", summary: `Storage rule version ${previous.version} superseded`, before: { supersededAt: null }, after: { supersededAt: rule.acceptedAt } });
     }
-    await recordAudit(tx, {
-      labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: rule.id, trialId: trial.id, action: "create",
-      summary: `Storage rule accepted: ${combo.materialLabel}, ${combo.treatmentName} below ${Math.round(t.rhPercent!)} %RH (version ${rule.version}, ${formatHorizon(options.horizonDays)})`,
-      after: rule,
-    });
+    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "storage_rule", entityId: rule.id, trialId, action: "create", summary: summary(rule.version), after: rule });
     return rule;
   });
 }

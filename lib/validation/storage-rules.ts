@@ -2,6 +2,7 @@
 // rule: one schema each, for the page's URL, the form and the JSON API alike.
 import { z } from "zod";
 import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-result";
+import { MATERIAL_CLASSES } from "./specimens";
 
 const YEAR_DAYS = 365.25;
 
@@ -55,3 +56,23 @@ export const acceptRuleSchema = z.object({
   note: z.string().trim().max(2000, "Keep the note under 2,000 characters.").default(""),
 });
 export type AcceptRuleInput = z.infer<typeof acceptRuleSchema>;
+
+/** What an entered rule's treatment is called when it holds for the material under any treatment. */
+export const ANY_TREATMENT = "Any treatment";
+
+/**
+ * A rule entered by hand: from a publication, a standard or the lab's own decision. The source and
+ * its date are required, so every rule in force can say where it comes from.
+ */
+export const enterRuleSchema = z.object({
+  materialClass: z.enum(MATERIAL_CLASSES, "Pick a material class."),
+  treatmentId: z.preprocess((v) => (v === "" || v === "any" ? null : v), z.uuid({ error: "Pick a treatment from the list." }).nullable()),
+  thresholdRhPercent: z.coerce.number({ error: "Enter the RH to keep below, in %." })
+    .gt(0, "The threshold must be above 0 %RH.").max(100, "The threshold must be at most 100 %RH."),
+  source: z.string().trim().min(3, "Name the source: a publication, a standard or the lab's own decision.").max(500, "Keep the source under 500 characters."),
+  sourceDate: z.iso.date({ error: "Enter the source's date as YYYY-MM-DD." }),
+  note: z.string().trim().max(2000, "Keep the note under 2,000 characters.").default(""),
+}).superRefine((v, ctx) => {
+  if (v.sourceDate > new Date().toISOString().slice(0, 10)) ctx.addIssue({ code: "custom", path: ["sourceDate"], message: "The source's date cannot be in the future." });
+});
+export type EnterRuleInput = z.infer<typeof enterRuleSchema>;

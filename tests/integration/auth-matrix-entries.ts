@@ -82,6 +82,8 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SCORING}#removeScorerAction`]: { permission: "scorers.assign", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, userId: f.users.technician }) },
   [`${SCORING}#setScoreRuleAction`]: { permission: "scorers.assign", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, scoreRule: "consensus" }) },
   [`${RULES}#acceptStorageRuleAction`]: { permission: "storageRules.accept", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, materialClass: "iron-meteorite", treatmentId: f.treatmentId, share: "10", horizon: "10" }) },
+  // Entering a rule names no row but may name a treatment: another lab's treatment is refused as invalid input.
+  [`${RULES}#enterStorageRuleAction`]: { permission: "storageRules.accept", empty: "invalid", foreign: (f) => ({ materialClass: "iron-meteorite", treatmentId: f.treatmentId, thresholdRhPercent: "30", source: "An outsider's note", sourceDate: "2020-01-01" }), foreignAnswer: "invalid" },
   // Creating a trial in the caller's lab from another lab's chambers and treatments: refused as invalid input.
   [`${TRIALS}#createTrialAction`]: { permission: "trials.write", empty: "invalid", foreign: trialForm, foreignAnswer: "invalid" },
   [`${TRIALS}#updateTrialAction`]: { permission: "trials.write", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, ...trialForm(f) }) },

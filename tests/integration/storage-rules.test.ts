@@ -8,10 +8,10 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import { buildTrialDataPackage } from "@/db/queries/analysis";
 import { loadHumidityResponse } from "@/db/queries/humidity-response";
-import { acceptStorageRule, listStorageRules } from "@/db/queries/storage-rules";
+import { acceptStorageRule, enterStorageRule, listStorageRules } from "@/db/queries/storage-rules";
 import { getTrial, type Trial } from "@/db/queries/trial-access";
 import { auditEvents, chambers, labs, memberships, placements, readings, storageRules, trials, users } from "@/db/schema";
-import { responseOptions } from "@/lib/validation/storage-rules";
+import { enterRuleSchema, responseOptions } from "@/lib/validation/storage-rules";
 
 type Actor = { userId: string; labId: string; role: "lead" | "researcher" | "technician" | "observer" };
 let labId: string;
@@ -97,6 +97,43 @@ describe("accepting a storage rule", () => {
     expect(stony.length).toBeGreaterThanOrEqual(2);
     expect(stony.every((r) => r.source_trial_ids === trial.id)).toBe(true);
     expect(stony.filter((r) => r.superseded_at === "")).toHaveLength(1);
+  });
+});
+
+describe("entering a storage rule by hand", () => {
+  const form = { materialClass: "archaeological-iron", treatmentId: "any", thresholdRhPercent: "30", sourceDate: "2019-05-01", note: "" };
+
+  it("refuses a rule without a source, naming the field, and saves nothing", async () => {
+    const before = await db.$count(storageRules, eq(storageRules.labId, labId));
+    const parsed = enterRuleSchema.safeParse({ ...form, source: "  " });
+    expect(parsed.success).toBe(false);
+    expect(parsed.error!.issues.map((i) => i.path[0])).toEqual(["source"]);
+    const future = enterRuleSchema.safeParse({ ...form, source: "Lab decision", sourceDate: "2999-01-01" });
+    expect(future.error!.issues.map((i) => [i.path[0], i.message])).toEqual([["sourceDate", "The source's date cannot be in the future."]]);
+    // the database refuses it too, whoever writes
+    await expect(db.insert(storageRules).values({
+      labId, materialClass: "archaeological-iron", treatmentName: "Any treatment", version: 99, thresholdRhPercent: 30,
+      method: "x", statement: "x", origin: "entered", source: "", sourceDate: "2019-05-01",
+    })).rejects.toMatchObject({ cause: { constraint: "storage_rules_source_check" } });
+    expect(await db.$count(storageRules, eq(storageRules.labId, labId))).toBe(before);
+  });
+
+  it("is refused to a researcher", async () => {
+    const input = enterRuleSchema.parse({ ...form, source: "Lab decision" });
+    await expect(enterStorageRule({ actor: researcher, input })).rejects.toMatchObject({ code: "forbidden" });
+  });
+
+  it("saves the source and its date, versions the rule and audits it without a trial", async () => {
+    const input = enterRuleSchema.parse({ ...form, source: "Conservation committee decision, minute 14" });
+    const first = await enterStorageRule({ actor: lead, input });
+    expect(first).toMatchObject({ origin: "entered", treatmentName: "Any treatment", thresholdRhPercent: 30, source: "Conservation committee decision, minute 14", sourceDate: "2019-05-01", shareRusted: null });
+    const second = await enterStorageRule({ actor: lead, input: { ...input, thresholdRhPercent: 25 } });
+    expect(second.version).toBe(first.version + 1);
+    const listed = await listStorageRules({ labId, userId: lead.userId });
+    expect(listed.filter((r) => r.materialClass === "archaeological-iron" && r.current).map((r) => r.thresholdRhPercent)).toEqual([25]);
+    const trail = await db.select().from(auditEvents).where(and(eq(auditEvents.labId, labId), eq(auditEvents.entityId, second.id)));
+    expect(trail.map((e) => [e.action, e.trialId])).toEqual([["create", null]]);
+    expect(trail[0].summary).toContain("source: Conservation committee decision, minute 14");
   });
 });
 
