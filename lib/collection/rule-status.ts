@@ -4,9 +4,6 @@
 // time arithmetic (step readings, gaps not counted) is the chambers' (lib/climate/band-stats.ts).
 import { bandStats, type ClimateReading, type Excursion, type RhBand } from "@/lib/climate/band-stats";
 
-const MS_PER_MIN = 60_000;
-const MS_PER_DAY = 86_400_000;
-
 /** The windows the product reports time in rule over. */
 export const TIME_IN_RULE_DAYS = [7, 30, 365] as const;
 /** A logger silent this long makes the location "no readings" on the overview. */
@@ -41,37 +38,6 @@ export function ruleBand(thresholdRhPercent: number): RhBand {
   return { minRh: 0, maxRh: thresholdRhPercent };
 }
 
-/**
- * The readings that describe [from, to]: the reading in force at `from` moved to `from`, those inside,
- * and a closing copy of the last one at `to` when the series goes on. A clipped interval counts only
- * when the whole interval it was cut from is no longer than the gap limit, as in the unclipped series.
- */
-export function readingsWithin(
-  readings: readonly ClimateReading[],
-  from: Date,
-  to: Date,
-  maxGapMinutes = DEFAULT_MAX_GAP_MINUTES,
-): ClimateReading[] {
-  const fromMs = from.getTime();
-  const toMs = to.getTime();
-  if (!(fromMs < toMs)) throw new RangeError("The window must start before it ends.");
-  const maxGapMs = maxGapMinutes * MS_PER_MIN;
-  const out: ClimateReading[] = [];
-  let i = 0;
-  while (i < readings.length && readings[i].takenAt.getTime() <= fromMs) i++;
-  const before = readings[i - 1];
-  const first = readings[i];
-  if (before && before.takenAt.getTime() === fromMs) out.push(before);
-  else if (before && first && first.takenAt.getTime() - before.takenAt.getTime() <= maxGapMs) out.push({ takenAt: from, rhPercent: before.rhPercent });
-  for (; i < readings.length && readings[i].takenAt.getTime() <= toMs; i++) out.push(readings[i]);
-  const last = readings[i - 1];
-  const after = readings[i];
-  if (last && after && last.takenAt.getTime() < toMs && after.takenAt.getTime() - last.takenAt.getTime() <= maxGapMs) {
-    out.push({ takenAt: to, rhPercent: last.rhPercent });
-  }
-  return out;
-}
-
 export interface TimeInRule {
   days: number;
   /** Counted in-rule time / counted time; null when no time could be counted. */
@@ -82,16 +48,18 @@ export interface TimeInRule {
   exceedances: Excursion[];
 }
 
+/**
+ * Time in rule over readings already cut to the window (the chambers' rule: the readings taken within
+ * it, db/queries/readings-series), so a location's figures and a chamber's are counted the same way.
+ */
 export function timeInRule(
   readings: readonly ClimateReading[],
   thresholdRhPercent: number,
-  now: Date,
   days: number,
   maxGapMinutes = DEFAULT_MAX_GAP_MINUTES,
 ): TimeInRule {
   if (!(days > 0)) throw new RangeError(`The window must be a positive number of days, got ${days}.`);
-  const window = readingsWithin(readings, new Date(now.getTime() - days * MS_PER_DAY), now, maxGapMinutes);
-  const stats = bandStats(window, ruleBand(thresholdRhPercent), { maxGapMinutes });
+  const stats = bandStats(readings, ruleBand(thresholdRhPercent), { maxGapMinutes });
   return {
     days,
     fractionInRule: stats.fractionInBand,

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { createRng } from "@/lib/allocation/prng";
 import type { ClimateReading } from "@/lib/climate/band-stats";
 import {
-  exceedancesToAlert, locationNeeds, needRank, readingsWithin, ruleBand, strictestRule, timeInRule,
+  exceedancesToAlert, locationNeeds, needRank, ruleBand, strictestRule, timeInRule,
 } from "@/lib/collection/rule-status";
 
 // Reference: a direct count over the raw readings, minute by minute. A reading holds until the next
@@ -44,24 +44,27 @@ function directCount(readings: ClimateReading[], threshold: number, fromMs: numb
 
 describe("time in rule equals a direct count over the raw readings", () => {
   const readings = series("collection-rule-status", 40);
-  const now = new Date(T0 + 37 * DAY + 7 * MIN); // not on a reading: the window edges are clipped
+  const now = new Date(T0 + 37 * DAY + 7 * MIN);
+  // The window holds the readings taken within it (as a chamber's window does): time before its first
+  // reading is not known from them and is not counted.
+  const within = (days: number) => readings.filter((r) => r.takenAt.getTime() >= now.getTime() - days * DAY && r.takenAt <= now);
 
   for (const days of [7, 30]) {
     for (const threshold of [30, 40, 55]) {
       it(`${days} days, threshold ${threshold} %RH`, () => {
-        const result = timeInRule(readings, threshold, now, days, 60);
-        const direct = directCount(readings, threshold, now.getTime() - days * DAY, now.getTime(), 60);
+        const w = within(days);
+        const result = timeInRule(w, threshold, days, 60);
+        const direct = directCount(w, threshold, w[0].takenAt.getTime(), now.getTime(), 60);
         expect(result.countedMinutes).toBeCloseTo(direct.counted, 6);
         expect(result.outOfRuleMinutes).toBeCloseTo(direct.out, 6);
         expect(result.fractionInRule).toBeCloseTo((direct.counted - direct.out) / direct.counted, 12);
         // every exceedance's counted time adds up to the time out of rule
         const sum = result.exceedances.reduce((s, e) => s + e.durationMinutes, 0);
         expect(sum).toBeCloseTo(direct.out, 6);
-        // each exceedance's peak is the highest raw reading in force from its start to its end (a
-        // reading just before a logger gap is seen, though the gap after it is not counted)
+        // each exceedance's peak is the highest raw reading from its start to its end (a reading just
+        // before a logger gap is seen, though the gap after it is not counted)
         for (const e of result.exceedances) {
-          const inForce = readings.filter((r) => r.takenAt <= e.start).at(-1);
-          const inside = [...(inForce ? [inForce] : []), ...readings.filter((r) => r.takenAt > e.start && r.takenAt <= e.end)];
+          const inside = w.filter((r) => r.takenAt >= e.start && r.takenAt <= e.end);
           const peak = Math.max(...inside.map((r) => r.rhPercent));
           expect(e.worstRhPercent).toBe(peak);
           expect(e.worstRhPercent).toBeGreaterThan(threshold);
@@ -71,26 +74,10 @@ describe("time in rule equals a direct count over the raw readings", () => {
   }
 
   it("the 365-day window holds everything there is", () => {
-    const result = timeInRule(readings, 40, now, 365, 60);
-    const direct = directCount(readings, 40, now.getTime() - 365 * DAY, now.getTime(), 60);
+    const result = timeInRule(within(365), 40, 365, 60);
+    const direct = directCount(readings.filter((r) => r.takenAt <= now), 40, T0, now.getTime(), 60);
     expect(result.countedMinutes).toBeCloseTo(direct.counted, 6);
     expect(result.outOfRuleMinutes).toBeCloseTo(direct.out, 6);
-  });
-});
-
-describe("readingsWithin", () => {
-  const r = (min: number, rh: number): ClimateReading => ({ takenAt: new Date(T0 + min * MIN), rhPercent: rh });
-
-  it("moves the reading in force to the window start and closes at the window end", () => {
-    const rows = [r(0, 30), r(10, 50), r(20, 40), r(30, 35)];
-    const out = readingsWithin(rows, new Date(T0 + 5 * MIN), new Date(T0 + 25 * MIN), 60);
-    expect(out.map((x) => [(x.takenAt.getTime() - T0) / MIN, x.rhPercent])).toEqual([[5, 30], [10, 50], [20, 40], [25, 40]]);
-  });
-
-  it("does not bridge a gap longer than the limit at either edge", () => {
-    const rows = [r(0, 30), r(200, 50), r(210, 40), r(500, 35)];
-    const out = readingsWithin(rows, new Date(T0 + 100 * MIN), new Date(T0 + 300 * MIN), 60);
-    expect(out.map((x) => (x.takenAt.getTime() - T0) / MIN)).toEqual([200, 210]);
   });
 });
 
