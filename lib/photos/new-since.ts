@@ -116,6 +116,6 @@ export function newSinceLast(current: AlignedMarks, previous: AlignedMarks | nul
     currentAreaPx2: currentSamples * area,
     newAreaMm2: opts.pxPerMm ? newAreaPx2 / (opts.pxPerMm * opts.pxPerMm) : null,
     sampleSpacingPx: h,
-    errorBoundPx2: (lengthIn(current) + lengthIn(previous)) * h,
+    errorBoundPx2: (lengthIn(current) + lengthIn(previous) + (face ? Math.sqrt(Math.abs(determinant(current.toReference))) * shapeExtent({ kind: "polygon", points: [...face] }).perimeter : 0)) * h,
   };
 }
