@@ -5,14 +5,14 @@
 import { describe, expect, it } from "vitest";
 import { IDENTITY, invertAffine, type Affine } from "@/lib/photos/align";
 import { newSinceLast, paintedAt } from "@/lib/photos/new-since";
-import type { Mark, Point } from "@/lib/scoring/geometry";
+import type { Mark, Point, SpotMark } from "@/lib/scoring/geometry";
 
 function similarity(scale: number, deg: number, dx: number, dy: number): Affine {
   const r = (deg * Math.PI) / 180;
   return { a: scale * Math.cos(r), b: -scale * Math.sin(r), c: dx, d: scale * Math.sin(r), e: scale * Math.cos(r), f: dy };
 }
 const at = (t: Affine, p: Point): Point => ({ x: t.a * p.x + t.b * p.y + t.c, y: t.d * p.x + t.e * p.y + t.f });
-const rect = (x0: number, y0: number, x1: number, y1: number): Mark => ({ kind: "polygon", points: [{ x: x0, y: y0 }, { x: x1, y: y0 }, { x: x1, y: y1 }, { x: x0, y: y1 }] });
+const rect = (x0: number, y0: number, x1: number, y1: number): SpotMark => ({ kind: "polygon", points: [{ x: x0, y: y0 }, { x: x1, y: y0 }, { x: x1, y: y1 }, { x: x0, y: y1 }] });
 
 describe("newSinceLast", () => {
   it("a spot that grew: the annulus between the two radii, in the first photo's frame", () => {
