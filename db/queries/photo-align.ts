@@ -114,9 +114,12 @@ export type AlignedEntry = { photoId: string; state: AlignState; marks: Mark[] |
  * and, when marks may be shown (not to a blind scorer), the record's marks and the rust new since the
  * previous inspection's photo, measured in the first photo's frame.
  */
-export async function loadAlignedSeries({ labId, trialId, specimenId, photoIds, withMarks }: { labId: string; trialId: string; specimenId: string; photoIds: string[]; withMarks: boolean }) {
+export async function loadAlignedSeries({ labId, trialId, specimenId, photos: asked, withMarks }: {
+  labId: string; trialId: string; specimenId: string; photos: { id: string; inspectionId: string | null }[]; withMarks: boolean;
+}) {
   const ref = await referencePhotoOf(db, { labId, trialId, specimenId });
-  const shown = ref ? [ref.id, ...photoIds.filter((id) => id !== ref.id)] : photoIds;
+  // The first photo stands for its inspection, so the series starts from the frame it defines.
+  const shown = ref ? [ref.id, ...asked.filter((p) => p.id !== ref.id && p.inspectionId !== ref.inspectionId).map((p) => p.id)] : asked.map((p) => p.id);
   const pts = await pointsOf(db, labId, shown);
   const record = withMarks && shown.length
     ? await db.select({ photoId: scores.photoId, scorerId: scores.scorerId }).from(scores)
@@ -135,5 +138,5 @@ export async function loadAlignedSeries({ labId, trialId, specimenId, photoIds, 
     entries.push({ photoId, state, marks: m?.marks ?? null, face: m?.face ?? null, newSince });
     previous = here;
   }
-  return { referencePhotoId: ref?.id ?? null, reference: ref ? { width: ref.width, height: ref.height } : null, entries };
+  return { referencePhotoId: ref?.id ?? null, reference: ref ? { width: ref.width, height: ref.height, inspectionId: ref.inspectionId } : null, entries };
 }
