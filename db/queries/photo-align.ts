@@ -8,7 +8,7 @@ import { recordAudit } from "@/db/audit";
 import { db, type DbOrTx } from "@/db/client";
 import { inspections, photoControlPoints, photos, scores, specimens } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
-import { controlPointProblem, fitAlignment, IDENTITY, type Affine } from "@/lib/photos/align";
+import { alignStateOf, controlPointProblem, fitAlignment, type Affine, type AlignState } from "@/lib/photos/align";
 import { newSinceLast, type NewSinceResult } from "@/lib/photos/new-since";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { assertWritable } from "@/lib/trials/lock";
@@ -34,27 +34,6 @@ async function pointsOf(q: DbOrTx, labId: string, photoIds: string[]) {
   if (!photoIds.length) return new Map<string, { points: Point[]; referencePhotoId: string }>();
   const rows = await q.select().from(photoControlPoints).where(and(eq(photoControlPoints.labId, labId), inArray(photoControlPoints.photoId, photoIds)));
   return new Map(rows.map((r) => [r.photoId, { points: r.points, referencePhotoId: r.referencePhotoId }]));
-}
-
-export type AlignState =
-  | { status: "reference"; transform: Affine; pointCount: number }
-  | { status: "aligned"; transform: Affine; kind: "similarity" | "affine" }
-  | { status: "not-aligned" | "stale"; transform: null; reason: string };
-
-/** How one photo lines up with the first: the fit from its points and the first photo's points. */
-export function alignStateOf(photoId: string, referenceId: string | null, pts: Map<string, { points: Point[]; referencePhotoId: string }>): AlignState {
-  if (photoId === referenceId) return { status: "reference", transform: IDENTITY, pointCount: pts.get(photoId)?.points.length ?? 0 };
-  const mine = pts.get(photoId);
-  const ref = referenceId ? pts.get(referenceId) : undefined;
-  if (!referenceId || !ref) return { status: "not-aligned", transform: null, reason: "Place control points on the first photo first." };
-  if (!mine) return { status: "not-aligned", transform: null, reason: "No control points placed yet." };
-  if (mine.referencePhotoId !== referenceId) return { status: "stale", transform: null, reason: "Its points were placed against an earlier first photo; place them again." };
-  try {
-    const fit = fitAlignment(mine.points, ref.points);
-    return { status: "aligned", transform: fit.transform, kind: fit.kind };
-  } catch (e) {
-    return { status: "stale", transform: null, reason: e instanceof Error ? e.message : String(e) };
-  }
 }
 
 /** What the align page needs: the photo, the first photo, and the points on both. */

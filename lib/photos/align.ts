@@ -131,3 +131,27 @@ function fitAffine(from: readonly Point[], to: readonly Point[]): Affine {
   const y = solve(to[0].y, to[1].y, to[2].y);
   return { a: x.u, b: x.v, c: x.w, d: y.u, e: y.v, f: y.w };
 }
+
+export type AlignState =
+  | { status: "reference"; transform: Affine; pointCount: number }
+  | { status: "aligned"; transform: Affine; kind: "similarity" | "affine" }
+  | { status: "not-aligned" | "stale"; transform: null; reason: string };
+
+/**
+ * How one photo of a series lines up with the first: the fit from its points and the first photo's
+ * points (`pts` by photo id, each with the first photo it was placed against).
+ */
+export function alignStateOf(photoId: string, referenceId: string | null, pts: ReadonlyMap<string, { points: Point[]; referencePhotoId: string }>): AlignState {
+  if (photoId === referenceId) return { status: "reference", transform: IDENTITY, pointCount: pts.get(photoId)?.points.length ?? 0 };
+  const mine = pts.get(photoId);
+  const ref = referenceId ? pts.get(referenceId) : undefined;
+  if (!referenceId || !ref) return { status: "not-aligned", transform: null, reason: "Place control points on the first photo first." };
+  if (!mine) return { status: "not-aligned", transform: null, reason: "No control points placed yet." };
+  if (mine.referencePhotoId !== referenceId) return { status: "stale", transform: null, reason: "Its points were placed against another first photo (the series' first photo changed, or this photo was moved); place them again." };
+  try {
+    const fit = fitAlignment(mine.points, ref.points);
+    return { status: "aligned", transform: fit.transform, kind: fit.kind };
+  } catch (e) {
+    return { status: "stale", transform: null, reason: e instanceof Error ? e.message : String(e) };
+  }
+}

@@ -5,7 +5,7 @@
 // the fit itself solves in closed form (complex ratio, Cramer's rule) and must reproduce it.
 import { describe, expect, it } from "vitest";
 import {
-  applyAffine, composeAffine, controlPointProblem, cssMatrix, describeAffine, fitAlignment, invertAffine, MIN_SEPARATION_PX, type Affine,
+  alignStateOf, applyAffine, composeAffine, controlPointProblem, cssMatrix, describeAffine, fitAlignment, invertAffine, MIN_SEPARATION_PX, type Affine,
 } from "@/lib/photos/align";
 import { renderSpecimenFace, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
 import { isRustColour } from "@/lib/scoring/rust-estimate";
@@ -168,5 +168,22 @@ describe("fitAlignment on the demo face, shifted, rotated and scaled by a known 
     const probe = outline.map((p) => applyAffine(transform, applyAffine(moved, p)));
     // Every outline vertex of the later photo lands within 2 px of where it is on the first one.
     probe.forEach((p, k) => expect(Math.hypot(p.x - outline[k].x, p.y - outline[k].y)).toBeLessThan(2));
+  });
+});
+
+describe("alignStateOf", () => {
+  const ref = { points: [{ x: 10, y: 10 }, { x: 300, y: 200 }], referencePhotoId: "first" };
+  const known = similarity(2, 90, 5, -5);
+  const later = { points: ref.points.map((p) => applyAffine(invertAffine(known), p)), referencePhotoId: "first" };
+  it("names the first photo, fits a later one and says why others are not lined up", () => {
+    expect(alignStateOf("first", "first", new Map([["first", ref]]))).toMatchObject({ status: "reference", pointCount: 2 });
+    const aligned = alignStateOf("later", "first", new Map([["first", ref], ["later", later]]));
+    expect(aligned.status).toBe("aligned");
+    expectAffineClose(aligned.transform!, known, 1e-9, 1e-7);
+    expect(alignStateOf("later", "first", new Map([["later", later]]))).toMatchObject({ status: "not-aligned", reason: expect.stringMatching(/first photo first/) });
+    expect(alignStateOf("later", "first", new Map([["first", ref]]))).toMatchObject({ status: "not-aligned", reason: "No control points placed yet." });
+    expect(alignStateOf("later", "first", new Map([["first", ref], ["later", { ...later, referencePhotoId: "older" }]]))).toMatchObject({ status: "stale" });
+    const three = { points: [...ref.points, { x: 10, y: 250 }], referencePhotoId: "first" };
+    expect(alignStateOf("later", "first", new Map([["first", three], ["later", later]]))).toMatchObject({ status: "stale", reason: expect.stringMatching(/first photo has 3 control points/) });
   });
 });
