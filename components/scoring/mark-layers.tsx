@@ -9,7 +9,7 @@ const GHOST_STROKE = "#f7e463";
 
 const pts = (points: readonly Point[]) => points.map((p) => `${p.x},${p.y}`).join(" ");
 
-function Shape({ shape, paint }: { shape: SpotMark; paint: string }) {
+export function Shape({ shape, paint }: { shape: SpotMark; paint: string }) {
   switch (shape.kind) {
     case "circle":
       return <circle cx={shape.cx} cy={shape.cy} r={shape.r} fill={paint} />;

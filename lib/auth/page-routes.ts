@@ -40,6 +40,7 @@ export const PAGE_ROUTES = {
   "/trials/[trialId]/grid": { permission: "lab.read" },
   "/trials/[trialId]/scoring": { permission: "lab.read" },
   "/trials/[trialId]/scoring/[photoId]": { permission: "scores.write" },
+  "/trials/[trialId]/align/[photoId]": { permission: "photos.upload" },
   "/trials/[trialId]/agreement": { permission: "analysis.read", results: true },
   "/trials/[trialId]/compare": { permission: "analysis.read", results: true },
   "/trials/[trialId]/humidity": { permission: "analysis.read", results: true },

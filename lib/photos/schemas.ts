@@ -39,3 +39,16 @@ export const deletePhotoSchema = z.object({
   /** The person saw what happens to the scores and marks made on this photo, and agreed. */
   confirmScores: checkbox,
 });
+
+// Control points for the aligned series (lib/photos/align): the form sends them as JSON, in the
+// order placed. How many and where is checked against the photo (controlPointProblem) by the query.
+const pointsJson = z.preprocess((v) => {
+  if (typeof v !== "string") return v;
+  try { return JSON.parse(v); } catch { return v; }
+}, z.array(z.object({ x: z.number().finite(), y: z.number().finite() }), "Place the control points on the photo.").max(10, "Place at most 3 control points."));
+
+export const controlPointsSchema = z.object({
+  trialId: z.guid("Not a valid trial."),
+  photoId: z.guid("Not a valid photo."),
+  points: pointsJson,
+});

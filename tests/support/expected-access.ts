@@ -57,6 +57,7 @@ export const PAGE_PERMISSIONS: Record<string, Permission> = {
   "/trials/[trialId]/grid": "lab.read",
   "/trials/[trialId]/scoring": "lab.read",
   "/trials/[trialId]/scoring/[photoId]": "scores.write",
+  "/trials/[trialId]/align/[photoId]": "photos.upload",
   "/trials/[trialId]/agreement": "analysis.read",
   "/trials/[trialId]/compare": "analysis.read",
   "/trials/[trialId]/humidity": "analysis.read",

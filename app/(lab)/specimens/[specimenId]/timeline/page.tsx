@@ -8,6 +8,9 @@ import { PhotoCard } from "@/components/photos/photo-card";
 import { PhotoCompare, type CompareEntry } from "@/components/photos/photo-compare";
 import { RefreshWhilePending } from "@/components/photos/refresh-while-pending";
 import { ScoreSummary, scoreText } from "@/components/photos/score-summary";
+import { AlignedSeries, type SeriesItem } from "@/components/photos/aligned-series";
+import { loadAlignedSeries } from "@/db/queries/photo-align";
+import { can } from "@/lib/auth/permissions";
 
 export const metadata = { title: "Specimen photo timeline" };
 
@@ -20,12 +23,31 @@ function compareEntries(t: TimelineTrial, label: string): CompareEntry[] {
   });
 }
 
+/** The aligned series of one trial: the first photo, then each inspection's representative photo. */
+async function alignedItems(labId: string, specimenId: string, t: TimelineTrial) {
+  const shown = t.entries.flatMap((e) => {
+    const p = representativePhoto(e.photos, e.score);
+    return p && p.status === "ready" ? [{ id: p.id, inspectionId: p.inspectionId }] : [];
+  });
+  // A blind scorer sees no scores of record, so no marks and no "new since" either.
+  const series = await loadAlignedSeries({ labId, trialId: t.id, specimenId, photos: shown, withMarks: !t.blind });
+  const byId = new Map(t.entries.flatMap((e) => e.photos.map((p) => [p.id, { p, e }] as const)));
+  const items: SeriesItem[] = series.entries.flatMap((entry) => {
+    const found = byId.get(entry.photoId);
+    if (!found) return [];
+    const day = `Day ${found.e.inspection.dayNumber}`;
+    return [{ entry, dayLabel: day, alt: day, src: found.p.displayUrl, width: found.p.width, height: found.p.height }];
+  });
+  return { reference: series.reference, items };
+}
+
 export default async function SpecimenTimelinePage({ params }: { params: Promise<{ specimenId: string }> }) {
   const { specimenId } = await params;
   const ctx = await labPage("/specimens/[specimenId]/timeline");
   const data = await getSpecimenTimeline({ labId: ctx.labId, specimenId, userId: ctx.userId, role: ctx.role });
   if (!data) notFound();
   const { specimen } = data;
+  const aligned = await Promise.all(data.trials.map((t) => alignedItems(ctx.labId, specimen.id, t)));
   const pending = data.trials.flatMap((t) => t.entries.flatMap((e) => e.photos)).filter((p) => p.status === "pending").length;
 
   return (
@@ -39,7 +61,7 @@ export default async function SpecimenTimelinePage({ params }: { params: Promise
       </header>
       <RefreshWhilePending pending={pending} />
       {data.trials.length === 0 && <EmptyState text="This specimen has not been placed in a trial, so it has no inspections or photos yet. Allocate it in a trial first." action={{ href: "/trials", label: "Go to trials" }} />}
-      {data.trials.map((t) => (
+      {data.trials.map((t, ti) => (
         <section key={t.id} className="space-y-4" aria-labelledby={`trial-${t.id}`}>
           <div className="space-y-1">
             <h2 id={`trial-${t.id}`} className="text-lg font-semibold"><Link className="link" href={`/trials/${t.id}`}>{t.title}</Link></h2>
@@ -51,6 +73,12 @@ export default async function SpecimenTimelinePage({ params }: { params: Promise
           <div className="panel p-4 space-y-2">
             <h3 className="font-semibold">Compare two dates</h3>
             <PhotoCompare entries={compareEntries(t, specimen.label)} title={`${specimen.label} in ${t.title}`} />
+          </div>
+          <div className="panel p-4 space-y-2">
+            <h3 className="font-semibold">Aligned series</h3>
+            <p className="text-sm muted">Each photo lined up with the first one from two or three control points{t.blind ? "" : "; red shows rust marked on the photo of record that was not marked at the previous inspection"}.</p>
+            <AlignedSeries items={aligned[ti].items.map((i) => ({ ...i, alt: `${specimen.label}, ${i.dayLabel}` }))} reference={aligned[ti].reference}
+              canAlign={can(ctx.role, "photos.upload")} alignHref={(photoId) => `/trials/${t.id}/align/${photoId}`} />
           </div>
           {t.entries.length === 0 ? (
             <EmptyState text="No inspection of this trial has been done yet; photos appear here as they are uploaded." />
