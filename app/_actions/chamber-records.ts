@@ -24,7 +24,8 @@ export const addHygrometerCheckAction = labAction("readings.write", hygrometerCh
   const row = await addHygrometerCheck({ labId: ctx.labId, userId: ctx.userId, chamberId: data.chamberId, values: data });
   revalidatePath(`/chambers/${data.chamberId}`);
   const sign = row.offsetRhPercent >= 0 ? "+" : "−";
-  return { message: `Check saved: "${row.instrument}" reads ${sign}${Math.abs(row.offsetRhPercent).toFixed(2)} %RH against ${row.saltId}${row.applied ? "; the offset now corrects its readings from that time on" : ""}.` };
+  const slope = row.slope != null ? ` and responds ${row.slope.toFixed(3)} %RH per %RH between ${row.saltId} and ${row.salt2Id}` : "";
+  return { message: `Check saved: "${row.instrument}" reads ${sign}${Math.abs(row.offsetRhPercent).toFixed(2)} %RH against ${row.saltId}${slope}${row.applied ? "; the check now corrects its readings" : ""}.` };
 });
 
 export const setCheckAppliedAction = labAction("readings.write", checkAppliedSchema, async (ctx, data) => {
