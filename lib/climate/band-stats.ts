@@ -45,6 +45,11 @@ export interface BandStats {
 
 const MS_PER_MIN = 60_000;
 
+/** A chamber's target band: setpoint ± tolerance, kept within 0–100 %RH. */
+export function chamberBand(chamber: { setpointRhPercent: number; toleranceRhPercent: number }): RhBand {
+  return { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+}
+
 function checkBand(band: RhBand): void {
   if (!(band.minRh <= band.maxRh) || !Number.isFinite(band.minRh) || !Number.isFinite(band.maxRh)) {
     throw new RangeError(`Band must have minRh ≤ maxRh; got ${band.minRh}…${band.maxRh}`);
