@@ -6,7 +6,7 @@ import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/der
 import type { Grouping } from "@/lib/analysis/groups";
 import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
-import { excludedByBand } from "@/lib/climate/exposure";
+import { DEFAULT_THRESHOLDS_RH_PERCENT, excludedByBand } from "@/lib/climate/exposure";
 import type { ExposureQuery } from "@/lib/analysis/params";
 import { loadTrialExposure, type PlacementExposureRow } from "./exposure";
 import { db } from "../client";
@@ -218,6 +218,8 @@ export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 
 /** The trial's data package as a zip (buffered: a trial's tables are a few MB at most). */
 export async function buildTrialDataPackage({ labId, trial, now = new Date() }: { labId: string; trial: AnalysisTrial; now?: Date }) {
-  const [rows, loaded] = await Promise.all([loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial })]);
-  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, now });
+  const [rows, loaded, exposure] = await Promise.all([
+    loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial }), loadTrialExposure({ labId, trial, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now }),
+  ]);
+  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, exposure, now });
 }
