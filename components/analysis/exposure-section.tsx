@@ -43,13 +43,13 @@ export function ExposureForm({ base, q, exposure, errors }: { base: string; q: A
       <div className="space-y-1">
         <label htmlFor="ex-above" className="block text-sm font-medium">Time above (%RH, comma-separated)</label>
         <input id="ex-above" name="above" className="field" defaultValue={exposure.query.thresholdsRhPercent.join(",")} aria-invalid={errors.above ? true : undefined} aria-describedby={errors.above ? "ex-above-error" : undefined} />
-        {errors.above && <p id="ex-above-error" className="text-sm text-red-700" role="alert">{errors.above[0]}</p>}
+        {errors.above && <p id="ex-above-error" className="text-sm text-rust-600" role="alert">{errors.above[0]}</p>}
       </div>
       <div className="space-y-1">
         <label htmlFor="ex-oob" className="block text-sm font-medium">Leave out specimens whose jar was out of band more than (%)</label>
         <input id="ex-oob" name="outOfBandMax" className="field" inputMode="decimal" defaultValue={keep.outOfBandMax ?? ""} placeholder="keep all"
           aria-invalid={errors.outOfBandMax ? true : undefined} aria-describedby={errors.outOfBandMax ? "ex-oob-error" : undefined} />
-        {errors.outOfBandMax && <p id="ex-oob-error" className="text-sm text-red-700" role="alert">{errors.outOfBandMax[0]}</p>}
+        {errors.outOfBandMax && <p id="ex-oob-error" className="text-sm text-rust-600" role="alert">{errors.outOfBandMax[0]}</p>}
       </div>
       <button type="submit" className="btn-quiet">Recompute</button>
     </form>

@@ -41,7 +41,9 @@ export default async function ComparePage(props: AnalysisPageProps) {
       </div>
 
       {analysis.exposure && <ExposureExclusionNote exposure={analysis.exposure} />}
-      {!c ? (
+      {!c && analysis.exposure?.excluded.length ? (
+        <EmptyState text="The re-analysis left out every scored specimen: raise the out-of-band share or clear it in the chamber exposure section below." />
+      ) : !c ? (
         <EmptyState
           text="Nothing to compare yet: this trial has no scores of record at done inspections. Record an inspection and score its photos; the comparison appears here as soon as the first scores are saved."
           action={{ href: `/trials/${trial.id}`, label: "Open the trial" }}

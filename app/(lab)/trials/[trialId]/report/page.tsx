@@ -63,7 +63,9 @@ export default async function ReportPage(props: AnalysisPageProps) {
         {analysis.exposure && <ExposureExclusionNote exposure={analysis.exposure} />}
       </header>
 
-      {!c ? (
+      {!c && analysis.exposure?.excluded.length ? (
+        <EmptyState text="The re-analysis left out every scored specimen: raise the out-of-band share or clear it on the comparison page." />
+      ) : !c ? (
         <EmptyState text="Nothing to report yet: this trial has no scores of record at done inspections." action={{ href: `/trials/${trial.id}`, label: "Open the trial" }} />
       ) : (
         <>
