@@ -89,11 +89,12 @@ export function twoSaltCorrection({ tempC, first, second }: TwoSaltCheckInput): 
 }
 
 /**
- * The correction a stored check stands for: with a slope (two salts) the line through the first
- * salt's point with that slope; without, the offset alone (slope 1).
+ * The correction a stored check stands for: without a slope (one salt) the offset alone; with one
+ * (two salts) the line through the first salt's (reading, reference) point with that slope.
  */
-export function correctionOf(check: { readingRhPercent: number; referenceRhPercent: number; slope?: number | null }): LinearCorrection {
-  const gain = check.slope != null ? 1 / check.slope : 1;
+export function correctionOf(check: { offsetRhPercent: number; readingRhPercent: number; referenceRhPercent: number; slope?: number | null }): LinearCorrection {
+  if (check.slope == null) return { gain: 1, shiftRhPercent: -check.offsetRhPercent };
+  const gain = 1 / check.slope;
   return { gain, shiftRhPercent: check.referenceRhPercent - gain * check.readingRhPercent };
 }
 

@@ -25,13 +25,13 @@ describe("two-salt hygrometer check", () => {
       expect(applyCorrection(x, c)).toBeCloseTo(mg + ((x - 35) * (na - mg)) / (78.5 - 35), 10);
     }
     // The stored form (first salt's reading and reference, and the slope) gives the same line.
-    const stored = correctionOf({ readingRhPercent: 35, referenceRhPercent: mg, slope: c.slope });
+    const stored = correctionOf({ offsetRhPercent: 35 - mg, readingRhPercent: 35, referenceRhPercent: mg, slope: c.slope });
     expect(stored.gain).toBeCloseTo(c.gain, 12);
     expect(stored.shiftRhPercent).toBeCloseTo(c.shiftRhPercent, 10);
   });
 
   it("a one-salt check is the plain offset (slope 1)", () => {
-    const c = correctionOf({ readingRhPercent: 77, referenceRhPercent: na, slope: null });
+    const c = correctionOf({ offsetRhPercent: 77 - na, readingRhPercent: 77, referenceRhPercent: na, slope: null });
     expect(applyCorrection(60, c)).toBeCloseTo(60 - (77 - na), 12);
   });
 
