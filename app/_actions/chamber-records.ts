@@ -5,7 +5,7 @@
 import { revalidatePath } from "next/cache";
 import { addDesiccantEvent, addHygrometerCheck, createChamberToken, revokeChamberToken, setHygrometerCheckApplied } from "@/db/queries/chambers";
 import { addManualReading } from "@/db/queries/readings";
-import { labAction } from "@/lib/auth/action";
+import { labAction, revalidate } from "@/lib/auth/action";
 import { checkAppliedSchema, createTokenSchema, desiccantEventSchema, hygrometerCheckSchema, manualReadingSchema, revokeTokenSchema } from "@/lib/validation/chambers";
 
 export const addReadingAction = labAction("readings.write", manualReadingSchema, async (ctx, data) => {
@@ -22,9 +22,10 @@ export const addDesiccantEventAction = labAction("desiccant.write", desiccantEve
 
 export const addHygrometerCheckAction = labAction("readings.write", hygrometerCheckSchema, async (ctx, data) => {
   const row = await addHygrometerCheck({ labId: ctx.labId, userId: ctx.userId, chamberId: data.chamberId, values: data });
-  revalidatePath(`/chambers/${data.chamberId}`);
+  revalidate(`/chambers/${data.chamberId}`);
   const sign = row.offsetRhPercent >= 0 ? "+" : "−";
-  return { message: `Check saved: "${row.instrument}" reads ${sign}${Math.abs(row.offsetRhPercent).toFixed(2)} %RH against ${row.saltId}${row.applied ? "; the offset now corrects its readings from that time on" : ""}.` };
+  const slope = row.slope != null ? ` and responds ${row.slope.toFixed(3)} %RH per %RH between ${row.saltId} and ${row.salt2Id}` : "";
+  return { message: `Check saved: "${row.instrument}" reads ${sign}${Math.abs(row.offsetRhPercent).toFixed(2)} %RH against ${row.saltId}${slope}${row.applied ? "; the check now corrects its readings" : ""}.` };
 });
 
 export const setCheckAppliedAction = labAction("readings.write", checkAppliedSchema, async (ctx, data) => {

@@ -7,9 +7,10 @@ import { OUTCOME_LABELS, OUTCOMES, type AnalysisQuery } from "@/lib/analysis/par
 
 const METHOD_LABELS: Record<CurveMethod, string> = { turnbull: "Turnbull (interval data)", km: "Kaplan–Meier (right endpoint)" };
 
-export function hrefFor(base: string, q: AnalysisQuery, change: Partial<AnalysisQuery>): string {
+/** keep: further parameters carried along unchanged (the exposure choices). */
+export function hrefFor(base: string, q: AnalysisQuery, change: Partial<AnalysisQuery>, keep: Record<string, string> = {}): string {
   const next = { ...q, ...change };
-  return `${base}?${new URLSearchParams({ groupBy: next.groupBy, outcome: next.outcome, method: next.method })}`;
+  return `${base}?${new URLSearchParams({ groupBy: next.groupBy, outcome: next.outcome, method: next.method, ...keep })}`;
 }
 
 function Choice<T extends string>({ id, label, options, labels, current, href }: {
@@ -35,22 +36,22 @@ function Choice<T extends string>({ id, label, options, labels, current, href }:
   );
 }
 
-export function CompareControls({ base, q }: { base: string; q: AnalysisQuery }) {
+export function CompareControls({ base, q, keep = {} }: { base: string; q: AnalysisQuery; keep?: Record<string, string> }) {
   return (
     <nav aria-label="Comparison options" className="panel p-3 flex flex-wrap gap-6 no-print">
-      <Choice id="groupby-l" label="Group by" options={GROUPINGS} labels={GROUPING_LABELS} current={q.groupBy} href={(v) => hrefFor(base, q, { groupBy: v })} />
-      <Choice id="outcome-l" label="Outcome" options={OUTCOMES} labels={OUTCOME_LABELS} current={q.outcome} href={(v) => hrefFor(base, q, { outcome: v })} />
+      <Choice id="groupby-l" label="Group by" options={GROUPINGS} labels={GROUPING_LABELS} current={q.groupBy} href={(v) => hrefFor(base, q, { groupBy: v }, keep)} />
+      <Choice id="outcome-l" label="Outcome" options={OUTCOMES} labels={OUTCOME_LABELS} current={q.outcome} href={(v) => hrefFor(base, q, { outcome: v }, keep)} />
       {(q.outcome === "first-rust" || q.outcome === "weeping") && (
-        <Choice id="method-l" label="Curves" options={CURVE_METHODS} labels={METHOD_LABELS} current={q.method} href={(v) => hrefFor(base, q, { method: v })} />
+        <Choice id="method-l" label="Curves" options={CURVE_METHODS} labels={METHOD_LABELS} current={q.method} href={(v) => hrefFor(base, q, { method: v }, keep)} />
       )}
     </nav>
   );
 }
 
-export function ExportLinks({ trialId, q, withReport = true }: { trialId: string; q: AnalysisQuery; withReport?: boolean }) {
+export function ExportLinks({ trialId, q, withReport = true, keep = {} }: { trialId: string; q: AnalysisQuery; withReport?: boolean; keep?: Record<string, string> }) {
   return (
     <ul className="flex flex-wrap gap-2 text-sm no-print" aria-label="Exports">
-      {withReport && <li><Link className="btn-quiet" href={hrefFor(`/trials/${trialId}/report`, q, {})}>Printable report</Link></li>}
+      {withReport && <li><Link className="btn-quiet" href={hrefFor(`/trials/${trialId}/report`, q, {}, keep)}>Printable report</Link></li>}
       <li><a className="btn-quiet" href={`/api/trials/${trialId}/export/outcomes.csv`} download>Outcomes (CSV)</a></li>
       <li><a className="btn-quiet" href={`/api/trials/${trialId}/export/datapackage.zip`} download>Data package (zip)</a></li>
     </ul>

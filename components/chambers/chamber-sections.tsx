@@ -65,20 +65,24 @@ export function HygrometerSection({ chamber, checks, instruments, canWrite }: { 
   return (
     <section className="panel p-4 space-y-4" aria-labelledby="hyg-h">
       <h2 id="hyg-h" className="font-semibold">Hygrometer checks</h2>
-      <p className="text-sm muted">Put the instrument in a jar over a saturated salt, let it settle, and record what it reads. The offset (reading − salt&apos;s fixed point) can correct that instrument&apos;s readings from the check on; two salts bracketing the band show whether one offset fits both ends.</p>
+      <p className="text-sm muted">Put the instrument in a jar over a saturated salt, let it settle, and record what it reads. The offset (reading − salt&apos;s fixed point) can correct that instrument&apos;s readings from the check on; two salts bracketing the band give the slope as well. The chart applies an applied check (offset, and slope when there are two salts) from its time on; a trial&apos;s exposure figures interpolate between checks (drift) and hold the nearest check before the first and after the last.</p>
       {checks.length === 0 ? (
         <EmptyState text="No checks recorded for the instruments in this chamber." />
       ) : (
         <table className="data">
-          <thead><tr><th>Checked</th><th>Instrument</th><th>Salt, °C</th><th>Read / reference</th><th>Offset</th><th>Applied</th></tr></thead>
+          <thead><tr><th>Checked</th><th>Instrument</th><th>Salt, °C</th><th>Read / reference</th><th>Offset</th><th>Slope</th><th>Applied</th></tr></thead>
           <tbody>
             {checks.map((c) => (
               <tr key={c.id}>
                 <td className="whitespace-nowrap">{formatDateTime(c.checkedAt)}</td>
                 <td>{c.instrument}</td>
-                <td>{c.saltId}, {c.tempC}</td>
-                <td>{c.readingRhPercent.toFixed(1)} / {c.referenceRhPercent.toFixed(2)} %RH</td>
+                <td>{c.saltId}{c.salt2Id ? ` + ${c.salt2Id}` : ""}, {c.tempC}</td>
+                <td>
+                  {c.readingRhPercent.toFixed(1)} / {c.referenceRhPercent.toFixed(2)} %RH
+                  {c.reading2RhPercent != null && c.reference2RhPercent != null ? <>; {c.reading2RhPercent.toFixed(1)} / {c.reference2RhPercent.toFixed(2)} %RH</> : null}
+                </td>
                 <td>{c.offsetRhPercent >= 0 ? "+" : "−"}{Math.abs(c.offsetRhPercent).toFixed(2)} %RH</td>
+                <td>{c.slope != null ? c.slope.toFixed(3) : "—"}</td>
                 <td>{canWrite ? <ApplyOffsetToggle chamberId={chamber.id} checkId={c.id} applied={c.applied} /> : c.applied ? "yes" : "no"}</td>
               </tr>
             ))}

@@ -4,7 +4,7 @@ import { useActionState, useState } from "react";
 import { addDesiccantEventAction, addHygrometerCheckAction, addReadingAction, setCheckAppliedAction } from "@/app/_actions/chamber-records";
 import { FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 import { SALT_IDS, SALTS, isSaltId } from "@/lib/humidity/salts";
-import { hygrometerOffset } from "@/lib/climate/hygrometer-check";
+import { hygrometerOffset, twoSaltCorrection } from "@/lib/climate/hygrometer-check";
 import { saltAt } from "@/lib/validation/chambers";
 import { ControlledInput, ControlledSelect, TextField, TimeZoneInput, WhenField } from "./form-controls";
 
@@ -52,6 +52,18 @@ export function DesiccantEventForm({ chamberId }: { chamberId: string }) {
 }
 
 const saltOptions = SALT_IDS.map((id) => ({ value: id, label: SALTS[id].displayName }));
+const salt2Options = [{ value: "", label: "None (one-salt check)" }, ...saltOptions];
+
+/** The two-salt slope for the preview, or null while the inputs cannot give one. */
+function slopePreview(salt: string, salt2: string, tempC: number, reading: number, reading2Text: string): string | null {
+  const reading2 = Number(reading2Text.replace(",", "."));
+  if (!isSaltId(salt) || !isSaltId(salt2) || reading2Text.trim() === "" || !Number.isFinite(reading2)) return null;
+  try {
+    return twoSaltCorrection({ tempC, first: { salt, readingRhPercent: reading }, second: { salt: salt2, readingRhPercent: reading2 } }).slope.toFixed(3);
+  } catch {
+    return null;
+  }
+}
 
 export function HygrometerCheckForm({ chamberId, instruments, defaultSalt, defaultTempC }: { chamberId: string; instruments: string[]; defaultSalt: string; defaultTempC: number }) {
   const [state, action] = useActionState(addHygrometerCheckAction, undefined);
@@ -62,6 +74,9 @@ export function HygrometerCheckForm({ chamberId, instruments, defaultSalt, defau
   const r = Number(reading.replace(",", "."));
   const at = isSaltId(salt) && temp.trim() !== "" && Number.isFinite(t) ? saltAt(salt, t) : null;
   const preview = at?.ok && reading.trim() !== "" && Number.isFinite(r) && r >= 0 && r <= 100 ? hygrometerOffset({ readingRhPercent: r, salt: salt as never, tempC: t }) : null;
+  const [salt2, setSalt2] = useState(state?.values?.salt2Id ?? "");
+  const [reading2, setReading2] = useState(state?.values?.reading2RhPercent ?? "");
+  const slope = preview ? slopePreview(salt, salt2, t, r, reading2) : null;
   return (
     <form action={action} className="space-y-3" noValidate>
       <input type="hidden" name="chamberId" value={chamberId} />
@@ -73,14 +88,20 @@ export function HygrometerCheckForm({ chamberId, instruments, defaultSalt, defau
         <ControlledInput name="tempC" id="hc-tempC" label="Jar temperature (°C)" inputMode="decimal" value={temp} onChange={setTemp} error={state?.errors?.tempC} warning={at && !at.ok ? at.message : null} />
         <ControlledInput name="readingRhPercent" id="hc-reading" label="Instrument read (%RH)" inputMode="decimal" value={reading} onChange={setReading} error={state?.errors?.readingRhPercent} />
       </div>
+      <div className="grid gap-3 sm:grid-cols-2">
+        <ControlledSelect name="salt2Id" id="hc-salt2Id" label="Second salt (optional)" value={salt2} onChange={setSalt2} options={salt2Options} error={state?.errors?.salt2Id}
+          hint="A second salt on the other side of the band gives the slope as well as the offset." />
+        <ControlledInput name="reading2RhPercent" id="hc-reading2" label="Instrument read over it (%RH)" inputMode="decimal" value={reading2} onChange={setReading2} error={state?.errors?.reading2RhPercent} />
+      </div>
       <p className="text-sm" aria-live="polite">
         {at?.ok ? <>Reference: {at.rhPercent.toFixed(2)} ± {at.uncertaintyPercent} %RH (Greenspan 1977).</> : null}
         {preview ? <> Offset: <strong>{preview.offsetPercent >= 0 ? "+" : "−"}{Math.abs(preview.offsetPercent).toFixed(2)} %RH</strong> ({preview.offsetPercent >= 0 ? "reads high" : "reads low"}).</> : null}
+        {slope ? <> Slope: <strong>{slope}</strong> %RH read per %RH (1 = no slope error).</> : null}
       </p>
       <WhenField name="checkedAt" id="hc-checkedAt" label="Checked at" error={state?.errors?.checkedAt} defaultValue={state?.values?.checkedAt} />
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" name="apply" className="mt-1" />
-        <span>Apply the offset: correct this instrument&apos;s readings from this time on (at display and analysis; the logged values stay as they are).</span>
+        <span>Apply the check: correct this instrument&apos;s readings (the chamber chart applies it, offset and slope, from this time on; a trial&apos;s exposure figures interpolate between checks and hold the nearest check before the first and after the last). The logged values stay as they are.</span>
       </label>
       <TextField name="notes" id="hc-notes" label="Notes" multiline error={state?.errors?.notes} value={state?.values?.notes} />
       <FormMessage state={state} />

@@ -6,6 +6,9 @@ import { deriveSpecimenOutcomes, type SpecimenOutcome } from "@/lib/analysis/der
 import type { Grouping } from "@/lib/analysis/groups";
 import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
+import { DEFAULT_THRESHOLDS_RH_PERCENT, excludedByBand } from "@/lib/climate/exposure";
+import type { ExposureQuery } from "@/lib/analysis/params";
+import { loadTrialExposure, type PlacementExposureRow } from "./exposure";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
 import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
@@ -136,21 +139,47 @@ export interface TrialAnalysis {
   leftOut: LeftOutScores[];
   /** Null when nothing is scored yet (the page shows its empty state). */
   comparison: ComparisonResult | null;
+  /** What each jar measured per placement, and the specimens the re-analysis left out; null when not asked. */
+  exposure: TrialExposure | null;
+}
+
+export interface TrialExposure {
+  query: ExposureQuery;
+  placements: PlacementExposureRow[];
+  /** Specimens left out of the comparison: a placement's jar was out of band more than the share. */
+  excluded: { specimenId: string; specimenLabel: string; chamberName: string; outOfBandPercent: number }[];
 }
 
 /** Everything the compare page, the report and the JSON endpoint show; another lab's trial is not found. */
-export async function getTrialAnalysis(
-  { labId, trialId, groupBy, method, endpoint }: { labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod; endpoint?: Endpoint },
-): Promise<TrialAnalysis> {
+export async function getTrialAnalysis({ labId, trialId, groupBy, method, endpoint, exposure: exposureQuery }: {
+  labId: string; trialId: string; groupBy: Grouping; method?: CurveMethod; endpoint?: Endpoint; exposure?: ExposureQuery;
+}): Promise<TrialAnalysis> {
   const trial = await getTrial({ labId, trialId });
-  const [loaded, pairs, leftOut] = await Promise.all([
+  const [loaded, pairs, leftOut, exposureRows] = await Promise.all([
     loadSpecimenOutcomes({ labId, trial }), loadGradePairs({ labId, trialId }), loadLeftOutScores({ labId, trialId }),
+    exposureQuery ? loadTrialExposure({ labId, trial, thresholdsRhPercent: exposureQuery.thresholdsRhPercent }) : null,
   ]);
-  const scored = loaded.outcomes.some((o) => o.interval);
+  const exposure = exposureQuery && exposureRows ? trialExposure(exposureQuery, exposureRows) : null;
+  const left = new Set(exposure?.excluded.map((e) => e.specimenId));
+  const analysed = left.size ? loaded.outcomes.filter((o) => !left.has(o.specimenId)) : loaded.outcomes;
+  const scored = analysed.some((o) => o.interval);
   const comparison = scored
-    ? compareGroups(loaded.outcomes, { groupBy, method, endpoint, agreement: scorerAgreement(pairs) })
+    ? compareGroups(analysed, { groupBy, method, endpoint, agreement: scorerAgreement(pairs) })
     : null;
-  return { trial, ...loaded, leftOut, comparison };
+  return { trial, ...loaded, leftOut, comparison, exposure };
+}
+
+/** The re-analysis's exclusions: each specimen once, with its worst placement. */
+function trialExposure(query: ExposureQuery, placements: PlacementExposureRow[]): TrialExposure {
+  const worst = new Map<string, TrialExposure["excluded"][number]>();
+  if (query.maxOutOfBandPercent != null) {
+    for (const p of excludedByBand(placements, query.maxOutOfBandPercent)) {
+      const outOfBandPercent = p.exposure.outOfBandShare! * 100;
+      const seen = worst.get(p.specimenId);
+      if (!seen || outOfBandPercent > seen.outOfBandPercent) worst.set(p.specimenId, { specimenId: p.specimenId, specimenLabel: p.specimenLabel, chamberName: p.chamberName, outOfBandPercent });
+    }
+  }
+  return { query, placements, excluded: [...worst.values()].sort((a, b) => a.specimenLabel.localeCompare(b.specimenLabel)) };
 }
 
 /** Raw rows of one trial for the data package; readings only for its chambers while it ran. */
@@ -189,6 +218,8 @@ export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 
 /** The trial's data package as a zip (buffered: a trial's tables are a few MB at most). */
 export async function buildTrialDataPackage({ labId, trial, now = new Date() }: { labId: string; trial: AnalysisTrial; now?: Date }) {
-  const [rows, loaded] = await Promise.all([loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial })]);
-  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, now });
+  const [rows, loaded, exposure] = await Promise.all([
+    loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial }), loadTrialExposure({ labId, trial, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now }),
+  ]);
+  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, exposure, now });
 }

@@ -2,7 +2,7 @@ import "server-only";
 import crypto from "node:crypto";
 import { and, asc, count, desc, eq, ilike, inArray, isNotNull, isNull, sql, type SQL } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
-import { hygrometerOffset } from "@/lib/climate/hygrometer-check";
+import { hygrometerOffset, twoSaltCorrection } from "@/lib/climate/hygrometer-check";
 import type { SaltId } from "@/lib/humidity/salts";
 import type { ChamberInput, DesiccantEventKind } from "@/lib/validation/chambers";
 import { recordAudit } from "../audit";
@@ -146,16 +146,23 @@ export type HygrometerCheck = typeof hygrometerChecks.$inferSelect;
 
 export async function addHygrometerCheck({ labId, userId, chamberId, values }: {
   labId: string; userId: string; chamberId: string;
-  values: { instrument: string; saltId: SaltId; tempC: number; readingRhPercent: number; checkedAt: Date; apply: boolean; notes: string };
+  values: { instrument: string; saltId: SaltId; tempC: number; readingRhPercent: number; salt2Id?: SaltId; reading2RhPercent?: number; checkedAt: Date; apply: boolean; notes: string };
 }) {
   const offset = hygrometerOffset({ readingRhPercent: values.readingRhPercent, salt: values.saltId, tempC: values.tempC });
+  const two = values.salt2Id !== undefined && values.reading2RhPercent !== undefined
+    ? twoSaltCorrection({ tempC: values.tempC, first: { salt: values.saltId, readingRhPercent: values.readingRhPercent }, second: { salt: values.salt2Id, readingRhPercent: values.reading2RhPercent } })
+    : null;
   return db.transaction(async (tx) => {
     const chamber = await getChamber({ labId, chamberId }, tx);
     const [row] = await tx.insert(hygrometerChecks).values({
       labId, chamberId, instrument: values.instrument, saltId: values.saltId, tempC: values.tempC, readingRhPercent: values.readingRhPercent,
-      referenceRhPercent: offset.referenceRhPercent, offsetRhPercent: offset.offsetPercent, applied: values.apply, checkedAt: values.checkedAt, notes: values.notes, createdBy: userId,
+      referenceRhPercent: offset.referenceRhPercent, offsetRhPercent: offset.offsetPercent,
+      salt2Id: two ? values.salt2Id : null, reading2RhPercent: two ? values.reading2RhPercent : null,
+      reference2RhPercent: two?.second.referenceRhPercent ?? null, slope: two?.slope ?? null,
+      applied: values.apply, checkedAt: values.checkedAt, notes: values.notes, createdBy: userId,
     }).returning();
-    await recordAudit(tx, { labId, userId, entity: "hygrometer-check", entityId: row.id, action: "create", summary: `Hygrometer "${values.instrument}" checked over ${values.saltId} (offset ${offset.offsetPercent.toFixed(2)} %RH${values.apply ? ", applied" : ""}) from "${chamber.name}"`, after: row });
+    const over = two ? `${values.saltId} and ${values.salt2Id} (offset ${offset.offsetPercent.toFixed(2)} %RH, slope ${two.slope.toFixed(3)}` : `${values.saltId} (offset ${offset.offsetPercent.toFixed(2)} %RH`;
+    await recordAudit(tx, { labId, userId, entity: "hygrometer-check", entityId: row.id, action: "create", summary: `Hygrometer "${values.instrument}" checked over ${over}${values.apply ? ", applied" : ""}) from "${chamber.name}"`, after: row });
     return row;
   });
 }

@@ -100,8 +100,11 @@ export async function loadBlocks({ client }: Snapshot, { labId, chamberId, width
  * the instrument, lab-wide), newest first like listHygrometerChecks.
  */
 export async function loadAppliedChecks({ client }: Snapshot, { labId, chamberId }: { labId: string; chamberId: string }) {
-  const res = await client.query<{ id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean }>({
-    text: `select h.id, h.instrument, h.offset_rh_percent as "offsetRhPercent", h.checked_at as "checkedAt", h.salt_id as "saltId", h.applied
+  const res = await client.query<{
+    id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean; readingRhPercent: number; referenceRhPercent: number; slope: number | null;
+  }>({
+    text: `select h.id, h.instrument, h.offset_rh_percent as "offsetRhPercent", h.checked_at as "checkedAt", h.salt_id as "saltId", h.applied,
+                  h.reading_rh_percent as "readingRhPercent", h.reference_rh_percent as "referenceRhPercent", h.slope
            from hygrometer_checks h
            where h.lab_id = $1 and h.applied
              and exists (select 1 from reading_blocks rb where rb.lab_id = $1 and rb.chamber_id = $2 and rb.width_hours = 6 and rb.instrument = h.instrument)

@@ -1,6 +1,6 @@
 import "server-only";
 import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
-import { bandStats, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
+import { bandStats, chamberBand, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
 import { condensationPointC } from "@/lib/humidity/psychrometrics";
 import type { Period } from "@/lib/validation/chambers";
 import type { Chamber } from "./chambers";
@@ -161,7 +161,7 @@ async function windowSeries(snap: Snapshot, { labId, chamberId, band, fromMs, to
  * chamber page (time-weighted mean RH, time in band), from the same readings and offsets.
  */
 export async function getChamberWindowStats({ labId, chamber, from, to }: { labId: string; chamber: Pick<Chamber, "id" | "setpointRhPercent" | "toleranceRhPercent">; from: Date; to: Date }) {
-  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  const band: RhBand = chamberBand(chamber);
   return withSnapshot(async (snap) => {
     const w = await windowSeries(snap, { labId, chamberId: chamber.id, band, fromMs: from.getTime(), toMs: to.getTime(), maxPoints: 200, allRowsLimit: ALL_ROWS_LIMIT });
     return { ...bandStats(w.series, band, { maxGapMinutes: w.maxGapMinutes }), readings: w.count };
@@ -179,7 +179,7 @@ export async function getChamberSeries({ labId, chamber, period, maxPoints = 160
 }) {
   const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
   const fromMs = from?.getTime() ?? null;
-  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  const band: RhBand = chamberBand(chamber);
   const key = { labId, chamberId: chamber.id };
 
   return withSnapshot(async (snap) => {

@@ -119,6 +119,12 @@ export const hygrometerChecks = pgTable("hygrometer_checks", {
   readingRhPercent: doublePrecision("reading_rh_percent").notNull(),
   referenceRhPercent: doublePrecision("reference_rh_percent").notNull(),
   offsetRhPercent: doublePrecision("offset_rh_percent").notNull(),
+  // A two-salt check: the second salt, the reading over it and its reference, and the instrument's
+  // slope (Δreading / Δreference); null for a one-salt check (slope 1).
+  salt2Id: text("salt2_id"),
+  reading2RhPercent: doublePrecision("reading2_rh_percent"),
+  reference2RhPercent: doublePrecision("reference2_rh_percent"),
+  slope: doublePrecision("slope"),
   applied: boolean("applied").notNull().default(false),
   // The chamber page the check was recorded from (informational; the offset belongs to the instrument).
   chamberId: uuid("chamber_id").references(() => chambers.id, { onDelete: "restrict" }),

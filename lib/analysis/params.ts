@@ -2,6 +2,7 @@
 // The outcome view a trial opens on comes from its primary outcome when the URL does not name one.
 import { z } from "zod";
 import { AppError } from "@/lib/auth/errors";
+import { DEFAULT_THRESHOLDS_RH_PERCENT } from "@/lib/climate/exposure";
 import type { PrimaryOutcome } from "@/lib/validation/trials";
 import { CURVE_METHODS, type Endpoint } from "./result";
 import { GROUPINGS } from "./groups";
@@ -68,4 +69,43 @@ export function pageQuery(params: Record<string, string | string[] | undefined>,
   const outcome = z.enum(OUTCOMES).safeParse(raw.outcome);
   if (outcome.success) out.outcome = outcome.data;
   return out;
+}
+
+// ——— Chamber exposure and the re-analysis without out-of-band jars ———
+
+export const MAX_THRESHOLDS = 5;
+
+export type ExposureQuery = {
+  /** RH thresholds (%RH, 0–100) for "time above"; defaults in lib/climate/exposure. URL: above=25,60 */
+  thresholdsRhPercent: number[];
+  /** Leave out specimens whose jar was out of band more than this share (%) of a placement; null = keep all. URL: outOfBandMax=10 */
+  maxOutOfBandPercent: number | null;
+};
+
+const parseNumber = (text: string) => (/^\s*-?\d+(\.\d+)?\s*$/.test(text) ? Number(text) : NaN);
+
+/** The exposure choices from the URL, and a message per bad parameter (which then takes its default). */
+export function exposureQuery(params: URLSearchParams | Record<string, string | string[] | undefined>): { value: ExposureQuery; errors: Record<string, string[]> } {
+  const raw = toObject(params);
+  const errors: Record<string, string[]> = {};
+  const value: ExposureQuery = { thresholdsRhPercent: [...DEFAULT_THRESHOLDS_RH_PERCENT], maxOutOfBandPercent: null };
+  if (raw.above !== undefined) {
+    const list = raw.above.split(",").map(parseNumber);
+    if (list.length > MAX_THRESHOLDS || list.some((t) => !(t >= 0 && t <= 100))) {
+      errors.above = [`RH thresholds must be up to ${MAX_THRESHOLDS} numbers from 0 to 100 %RH, separated by commas (got "${raw.above}").`];
+    } else value.thresholdsRhPercent = [...new Set(list)].sort((a, b) => a - b);
+  }
+  if (raw.outOfBandMax !== undefined) {
+    const share = parseNumber(raw.outOfBandMax);
+    if (!(share >= 0 && share <= 100)) errors.outOfBandMax = [`The out-of-band share must be a number from 0 to 100 % (got "${raw.outOfBandMax}").`];
+    else value.maxOutOfBandPercent = share;
+  }
+  return { value, errors };
+}
+
+/** For the API: a bad exposure parameter is a 422 naming it. */
+export function exposureApiQuery(params: URLSearchParams): ExposureQuery {
+  const { value, errors } = exposureQuery(params);
+  if (Object.keys(errors).length) throw new AppError("invalid", Object.values(errors)[0][0], errors);
+  return value;
 }

@@ -7,7 +7,7 @@ import { cache } from "react";
 import { forbidden, notFound, redirect } from "next/navigation";
 import { getTrialAnalysis } from "@/db/queries/analysis";
 import { getTrialAccess, type Trial } from "@/db/queries/trial-access";
-import { endpointOf, pageQuery } from "@/lib/analysis/params";
+import { endpointOf, exposureQuery, pageQuery } from "@/lib/analysis/params";
 import type { TrialAccess } from "@/lib/trials/access";
 import { currentIdentity, requireLab, type LabContext } from "./context";
 import { AppError } from "./errors";
@@ -65,6 +65,7 @@ export async function analysisPage(route: "/trials/[trialId]/compare" | "/trials
   const [{ trialId }, raw] = await Promise.all([params, searchParams]);
   const { ctx, trial, access } = await trialPage(route, trialId);
   const q = pageQuery(raw, trial.primaryOutcome);
-  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId: trial.id, groupBy: q.groupBy, method: q.method, endpoint: endpointOf(q.outcome) });
-  return { ctx, q, access, analysis, trial, c: analysis.comparison };
+  const exposure = exposureQuery(raw);
+  const analysis = await getTrialAnalysis({ labId: ctx.labId, trialId: trial.id, groupBy: q.groupBy, method: q.method, endpoint: endpointOf(q.outcome), exposure: exposure.value });
+  return { ctx, q, access, analysis, trial, c: analysis.comparison, exposureErrors: exposure.errors };
 }

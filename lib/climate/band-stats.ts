@@ -45,6 +45,11 @@ export interface BandStats {
 
 const MS_PER_MIN = 60_000;
 
+/** A chamber's target band: setpoint ± tolerance, kept within 0–100 %RH. */
+export function chamberBand(chamber: { setpointRhPercent: number; toleranceRhPercent: number }): RhBand {
+  return { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+}
+
 function checkBand(band: RhBand): void {
   if (!(band.minRh <= band.maxRh) || !Number.isFinite(band.minRh) || !Number.isFinite(band.maxRh)) {
     throw new RangeError(`Band must have minRh ≤ maxRh; got ${band.minRh}…${band.maxRh}`);
@@ -203,4 +208,27 @@ export function downsample<T extends ClimateReading>(readings: readonly T[], max
     else out.push(readings[hi], readings[lo]);
   }
   return out;
+}
+
+/**
+ * Counted time (the step rule and gap limit of bandStats) during which `holds` is true of the
+ * reading in force. holds may answer null when a reading cannot be judged (e.g. no temperature):
+ * its interval then counts in neither figure.
+ */
+export function countedMinutesWhere<T extends ClimateReading>(
+  readings: readonly T[], holds: (r: T) => boolean | null, options: { maxGapMinutes?: number } = {},
+): { minutes: number; judgedMinutes: number } {
+  const maxGapMs = (options.maxGapMinutes ?? 60) * MS_PER_MIN;
+  let ms = 0;
+  let judgedMs = 0;
+  for (let i = 0; i + 1 < readings.length; i++) {
+    const spanMs = readings[i + 1].takenAt.getTime() - readings[i].takenAt.getTime();
+    if (spanMs < 0) throw new RangeError("Readings must be sorted by time");
+    if (spanMs > maxGapMs) continue;
+    const h = holds(readings[i]);
+    if (h === null) continue;
+    judgedMs += spanMs;
+    if (h) ms += spanMs;
+  }
+  return { minutes: ms / MS_PER_MIN, judgedMinutes: judgedMs / MS_PER_MIN };
 }

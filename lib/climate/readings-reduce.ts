@@ -3,7 +3,7 @@
 // hours that need them into a short series on which lib/climate gives the same band statistics and
 // settle times as on every reading; chart thinning by time buckets. No database access here.
 import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
-import { applyOffset } from "@/lib/climate/hygrometer-check";
+import { applyCorrection, correctionOf, type LinearCorrection } from "@/lib/climate/hygrometer-check";
 
 export const HOUR_MS = 3_600_000;
 /** The coarse block width of reading_blocks (the fine one is an hour). */
@@ -11,8 +11,11 @@ export const COARSE_MS = 6 * HOUR_MS;
 
 /** One reading as the chart and analysis use it: rhPercent is corrected, rhRaw as logged. */
 export type Row = { takenAt: Date; rhPercent: number; rhRaw: number; tempC: number | null; dewLogged: number | null; instrument: string };
-export type OffsetInUse = { instrument: string; offsetPercent: number; from: Date; saltId: string };
-export type OffsetCheck = { id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean };
+export type OffsetInUse = { instrument: string; offsetPercent: number; slope: number | null; from: Date; saltId: string };
+/** A stored check; with a slope (two salts) it corrects along a line, else by its offset (hygrometer-check correctionOf). */
+export type OffsetCheck = {
+  id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean; readingRhPercent: number; referenceRhPercent: number; slope: number | null;
+};
 
 /** Applied hygrometer checks per instrument: the latest applied check at or before a time is in force. */
 export class OffsetTimeline {
@@ -46,15 +49,17 @@ export class OffsetTimeline {
   }
 }
 
+const NONE: LinearCorrection = { gain: 1, shiftRhPercent: 0 };
+
 /** Corrected RH of a raw value under a check (raw if none). */
 export function corrected(raw: number, check: OffsetCheck | null): number {
-  return check ? applyOffset(raw, check.offsetRhPercent) : raw;
+  return check ? applyCorrection(raw, correctionOf(check)) : raw;
 }
 
 export class OffsetsUsed {
   private readonly used = new Map<string, OffsetInUse>();
   note(check: OffsetCheck | null): void {
-    if (check) this.used.set(check.id, { instrument: check.instrument, offsetPercent: check.offsetRhPercent, from: check.checkedAt, saltId: check.saltId });
+    if (check) this.used.set(check.id, { instrument: check.instrument, offsetPercent: check.offsetRhPercent, slope: check.slope, from: check.checkedAt, saltId: check.saltId });
   }
   list(): OffsetInUse[] {
     return [...this.used.values()];
@@ -147,8 +152,8 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
     if (timeline.changesWithin(b.instrument, start, end)) irregular = f.chartRaw = true;
     if (b.maxSpanMs > maxGapMs) irregular = true;
     const check = timeline.at(b.instrument, start);
-    const off = check?.offsetRhPercent ?? 0;
-    if (check && (b.minRh - off < 0 || b.maxRh - off > 100)) irregular = true;
+    const c = check ? correctionOf(check) : NONE;
+    if (check && (c.gain * b.minRh + c.shiftRhPercent < 0 || c.gain * b.maxRh + c.shiftRhPercent > 100)) irregular = true;
     f.n += b.n;
     f.firstMs = Math.min(f.firstMs, b.firstMs);
     // The block's last reading: latest time, then the instrument that sorts last.
@@ -159,7 +164,7 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
     }
     f.vMin = Math.min(f.vMin, corrected(b.minRh, check));
     f.vMax = Math.max(f.vMax, corrected(b.maxRh, check));
-    f.innerWeighted += b.spanRhMs - off * b.spanMs;
+    f.innerWeighted += c.gain * b.spanRhMs + c.shiftRhPercent * b.spanMs;
   }
   if (!irregular) {
     if (f.vMin >= band.minRh && f.vMax <= band.maxRh) f.side = 0;

@@ -2,6 +2,7 @@
 // db/queries/analysis.ts loads the rows and the outcomes, package-zip.ts writes the zip.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { toPackageName } from "./datapackage";
+import { EXPOSURE_TABLE, exposureRows, type ExposurePlacement } from "./exposure-rows";
 import { outcomeRows } from "./outcome-rows";
 import { buildPackageZip, type PackageTable } from "./package-zip";
 import { formatDateTime } from "./table-schema";
@@ -37,6 +38,10 @@ under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 c
 - \`outcomes.csv\` is derived: for each placement, time to first rust as (last clean inspection,
   first rusted inspection] in days since the trial start, from scores of record at done inspections.
   An empty upper end means the specimen was never seen rusted (right-censored at the lower end).
+- \`exposure.csv\` is derived: for each placement, what its chamber measured — time-weighted mean RH,
+  share of time out of the chamber's band, hours above 25 and 60 %RH and hours with the dew point within
+  2 °C of the air temperature — from the readings corrected by applied hygrometer checks (linear drift
+  between checks; the nearest check held before the first and after the last).
 - \`photos.csv\` is a manifest: the image files stay in the lab's object storage; check a copy
   against its \`sha256\`.
 - User ids (scorer_id, done_by) are pseudonymous; \`blind\` marks scores made without seeing the treatment.
@@ -50,7 +55,9 @@ These results guide storage decisions; they do not replace a conservator's judge
 `;
 
 /** The zip of a trial's tables, their descriptor and the README, with its download name. */
-export async function trialDataPackage({ trial, rows, outcomes, now }: { trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; now: Date }) {
+export async function trialDataPackage({ trial, rows, outcomes, exposure = [], now }: {
+  trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; exposure?: readonly ExposurePlacement[]; now: Date;
+}) {
   const tables: PackageTable[] = [
     { spec: TRIAL_TABLE, rows: [trial] },
     { spec: SPECIMEN_TABLE, rows: rows.specimenRows },
@@ -62,13 +69,14 @@ export async function trialDataPackage({ trial, rows, outcomes, now }: { trial: 
     { spec: SCORE_TABLE, rows: rows.scoreRows },
     { spec: READING_TABLE, rows: rows.readingRows },
     { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes) },
+    { spec: EXPOSURE_TABLE, rows: exposureRows(exposure) },
     { spec: STORAGE_RULE_TABLE, rows: (rows.storageRuleRows ?? []).map((r) => ({ ...r, sourceTrialIdsText: r.sourceTrialIds.join(" ") })) },
   ];
   const name = toPackageName(`rustline-${trial.title}`);
   const result = await buildPackageZip({
     name,
     title: trial.title,
-    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest, per-specimen outcomes and the storage rules accepted from the trial.`,
+    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest, per-specimen outcomes, per-placement chamber exposure and the storage rules accepted from the trial.`,
     created: now,
     keywords: ["corrosion", "relative humidity", "time to first rust", "interval-censored"],
     readme: packageReadme(trial, now),

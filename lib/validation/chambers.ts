@@ -185,6 +185,9 @@ export const hygrometerCheckSchema = z
     saltId: z.string().refine(isSaltId, "Choose the salt."),
     tempC: num("temperature", " °C", -40, 100),
     readingRhPercent: num("reading", " %RH", 0, 100),
+    // Optional second salt of a two-salt check (offset and slope); both or neither.
+    salt2Id: z.preprocess((v) => (v === "" || v == null ? undefined : v), z.string().refine(isSaltId, "Choose the second salt.").optional()),
+    reading2RhPercent: optionalNum("reading over the second salt", " %RH", 0, 100),
     checkedAt: whenText,
     timeZone: timeZoneField,
     apply: z.preprocess((v) => v === "on" || v === "1" || v === true, z.boolean()),
@@ -195,9 +198,25 @@ export const hygrometerCheckSchema = z
       const at = saltAt(v.saltId, v.tempC);
       if (!at.ok) ctx.addIssue({ code: "custom", path: ["tempC"], message: at.message });
     }
+    checkSecondSalt(v, ctx);
     checkInstant(v.checkedAt, v.timeZone, "checkedAt", ctx);
   })
-  .transform((v) => ({ ...v, saltId: v.saltId as SaltId, checkedAt: localToInstant(v.checkedAt, v.timeZone)! }));
+  .transform((v) => ({ ...v, saltId: v.saltId as SaltId, salt2Id: v.salt2Id as SaltId | undefined, checkedAt: localToInstant(v.checkedAt, v.timeZone)! }));
+
+/** A two-salt check needs a second, different salt valid at the temperature, a reading over it, and a rising response. */
+function checkSecondSalt(v: { saltId: string; salt2Id?: string; tempC: number; readingRhPercent: number; reading2RhPercent?: number }, ctx: z.RefinementCtx) {
+  if (v.salt2Id === undefined && v.reading2RhPercent === undefined) return;
+  if (v.salt2Id === undefined) return ctx.addIssue({ code: "custom", path: ["salt2Id"], message: "Choose the second salt, or clear its reading for a one-salt check." });
+  if (v.reading2RhPercent === undefined) return ctx.addIssue({ code: "custom", path: ["reading2RhPercent"], message: "Enter the reading over the second salt." });
+  if (v.salt2Id === v.saltId) return ctx.addIssue({ code: "custom", path: ["salt2Id"], message: "A two-salt check needs two different salts: choose another second salt." });
+  if (!isSaltId(v.saltId) || !isSaltId(v.salt2Id)) return;
+  const a = saltAt(v.saltId, v.tempC);
+  const b = saltAt(v.salt2Id, v.tempC);
+  if (!b.ok) return ctx.addIssue({ code: "custom", path: ["salt2Id"], message: b.message });
+  if (a.ok && !((v.reading2RhPercent - v.readingRhPercent) / (b.rhPercent - a.rhPercent) > 0)) {
+    ctx.addIssue({ code: "custom", path: ["reading2RhPercent"], message: "The reading over the wetter salt must be higher than over the drier one; check the two readings." });
+  }
+}
 
 export const checkAppliedSchema = z.object({ chamberId: z.uuid(), checkId: z.uuid(), applied: z.enum(["0", "1"]) });
 

@@ -92,6 +92,26 @@ describe("compare treatment outcomes", () => {
     await expect(page.getByTestId("agreement-headline").textContent()).resolves.toMatch(/Kappa on ASTM D610 grades/);
   });
 
+  it("shows each placement's chamber exposure, names a bad share at its field, and re-analyses without out-of-band jars", async () => {
+    await page.goto(`${compareUrl}?outOfBandMax=150`);
+    const section = page.getByTestId("exposure-section");
+    await expect(page.locator("#ex-oob-error").textContent()).resolves.toMatch(/from 0 to 100 %/);
+    await expect(page.getByLabel(/Leave out specimens whose jar/).getAttribute("aria-invalid")).resolves.toBe("true");
+    // 24 demo specimens, one placement each (moves add more).
+    expect(await section.getByTestId("exposure-table").locator("tbody tr").count()).toBeGreaterThanOrEqual(24);
+    await expect(section.getByTestId("exposure-table").textContent()).resolves.toMatch(/%RH/);
+    await page.getByLabel(/Leave out specimens whose jar/).fill("100");
+    await section.getByRole("button", { name: "Recompute" }).click();
+    await page.waitForURL(/outOfBandMax=100/);
+    await expect(page.getByTestId("exposure-excluded").textContent()).resolves.toMatch(/no specimen was left out .* more than 100 %/);
+    await expect(page.getByTestId("plain-summary").textContent()).resolves.toMatch(/24 specimens/);
+    // The report carries the choice along and shows the same table.
+    await page.getByRole("link", { name: "Printable report" }).click();
+    await page.waitForURL(/\/report.*outOfBandMax=100/);
+    await expect(page.getByTestId("report-exposure").textContent()).resolves.toMatch(/Chamber exposure.*nearest check/);
+    expect(await axeViolations(page)).toEqual([]);
+  });
+
   it("opens the printable report with the summary, a chart and the method notes", async () => {
     await page.goto(compareUrl);
     await page.getByRole("link", { name: "Printable report" }).click();

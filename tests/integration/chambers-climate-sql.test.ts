@@ -69,14 +69,21 @@ beforeAll(async () => {
     { ...check, instrument: "probe-a", offsetRhPercent: 10, applied: false, checkedAt: new Date(at(3, 0)) },
     // probe-b reads 3 low from day 6 on: 98.5 %RH becomes 101.5, clipped to 100
     { ...check, instrument: "probe-b", offsetRhPercent: -3, applied: true, checkedAt: new Date(at(6, 0)) },
+    // a two-salt check of probe-a from 02:20 on day 8: slope 1.08 through (34 read, 32.8 reference)
+    { ...check, instrument: "probe-a", readingRhPercent: 34, referenceRhPercent: 32.8, offsetRhPercent: 1.2, slope: 1.08, applied: true, checkedAt: new Date(at(8, 2, 20)) },
   ]);
   // The reference: every reading, offsets applied as the chamber view always did (latest applied check at or before the reading).
   const raw = await db.select().from(readings).where(eq(readings.chamberId, chamber.id)).orderBy(asc(readings.takenAt), asc(readings.instrument));
   const offsetAt = (instrument: string, t: number) =>
     instrument === "probe-a" ? (t >= at(2, 7, 31) ? 1.5 : null) : t >= at(6, 0) ? -3 : null;
+  // The two-salt line written out: true = 32.8 + (reading − 34) / 1.08, kept within 0–100 %RH; as
+  // gain × reading + shift (the product's arithmetic order) so excursion extremes compare exactly.
+  const gain = 1 / 1.08;
+  const slopeLine = (rh: number) => Math.min(100, Math.max(0, gain * rh + (32.8 - gain * 34)));
   all = raw.map((r) => {
     const off = offsetAt(r.instrument, r.takenAt.getTime());
-    return { takenAt: r.takenAt, rhPercent: off == null ? r.rhPercent : applyOffset(r.rhPercent, off), rhRaw: r.rhPercent, instrument: r.instrument, tempC: r.tempC };
+    const rh = r.instrument === "probe-a" && r.takenAt.getTime() >= at(8, 2, 20) ? slopeLine(r.rhPercent) : off == null ? r.rhPercent : applyOffset(r.rhPercent, off);
+    return { takenAt: r.takenAt, rhPercent: rh, rhRaw: r.rhPercent, instrument: r.instrument, tempC: r.tempC };
   });
 });
 afterAll(async () => {
@@ -135,7 +142,7 @@ describe("chamber chart from block summaries (reference: lib/climate on every re
       for (const [i, ev] of events.entries()) {
         expect(s.settle[i].minutes).toBe(settleTimeMinutes(all, s.band, ev.at, { maxGapMinutes: s.maxGapMinutes }));
       }
-      expect(s.offsets.map((o) => [o.instrument, o.offsetPercent])).toEqual([["probe-a", 1.5], ["probe-b", -3]]);
+      expect(s.offsets.map((o) => [o.instrument, o.offsetPercent, o.slope])).toEqual([["probe-a", 1.5, null], ["probe-b", -3, null], ["probe-a", 1.2, 1.08]]);
       expect(s.instruments.sort()).toEqual(["probe-a", "probe-b"]);
 
       const width = maxPoints === 24 ? 6 * HOUR : HOUR;

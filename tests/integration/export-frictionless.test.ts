@@ -79,7 +79,7 @@ describe("data packages read by the Frictionless library", () => {
     expect(pkg.errors.map((e) => e.message)).toEqual([]);
     expect(pkg.valid).toBe(true);
     const counts = await readAll(pkg);
-    expect(counts).toMatchObject({ trial: 1, specimens: 4, inspections: 5, scores: 14, readings: 2, outcomes: 4 });
+    expect(counts).toMatchObject({ trial: 1, specimens: 4, inspections: 5, scores: 14, readings: 2, outcomes: 4, exposure: 4 });
 
     const zip = await JSZip.loadAsync(bytes);
     const table = async (name: string) => {

@@ -13,11 +13,14 @@ import { OutcomeTable } from "@/components/analysis/outcome-table";
 import { SummaryPanel } from "@/components/analysis/summary-panel";
 import { SurvivalSection } from "@/components/analysis/survival-section";
 import { EmptyState } from "@/components/ui/empty-state";
+import { ExposureExclusionNote, ExposureSection } from "@/components/analysis/exposure-section";
+import { exposureKeep } from "@/lib/analysis/exposure-params";
 
 export const metadata = { title: "Compare outcomes" };
 
 export default async function ComparePage(props: AnalysisPageProps) {
-  const { q, analysis, trial, c } = await analysisPage("/trials/[trialId]/compare", props);
+  const { q, analysis, trial, c, exposureErrors } = await analysisPage("/trials/[trialId]/compare", props);
+  const keep = analysis.exposure ? exposureKeep(analysis.exposure.query) : {};
   const base = `/trials/${trial.id}/compare`;
   const levels = humidityLevelCount(analysis.outcomes.map((o) => o.chamberRhPercent));
 
@@ -37,7 +40,10 @@ export default async function ComparePage(props: AnalysisPageProps) {
         <p className="text-sm muted" data-testid="moved-note">{MOVED_SPECIMEN_NOTE}</p>
       </div>
 
-      {!c ? (
+      {analysis.exposure && <ExposureExclusionNote exposure={analysis.exposure} />}
+      {!c && analysis.exposure?.excluded.length ? (
+        <EmptyState text="The re-analysis left out every scored specimen: raise the out-of-band share or clear it in the chamber exposure section below." />
+      ) : !c ? (
         <EmptyState
           text="Nothing to compare yet: this trial has no scores of record at done inspections. Record an inspection and score its photos; the comparison appears here as soon as the first scores are saved."
           action={{ href: `/trials/${trial.id}`, label: "Open the trial" }}
@@ -50,8 +56,8 @@ export default async function ComparePage(props: AnalysisPageProps) {
               time to first rust against the humidity each jar measured and gives the storage threshold.
             </p>
           )}
-          <CompareControls base={base} q={q} />
-          <ExportLinks trialId={trial.id} q={q} />
+          <CompareControls base={base} q={q} keep={keep} />
+          <ExportLinks trialId={trial.id} q={q} keep={keep} />
           <SummaryPanel c={c} />
           {(q.outcome === "first-rust" || q.outcome === "weeping") && <SurvivalSection c={c} />}
           {q.outcome === "area" && <AreaSection c={c} />}
@@ -62,6 +68,7 @@ export default async function ComparePage(props: AnalysisPageProps) {
           </details>
         </>
       )}
+      {analysis.exposure && <ExposureSection base={base} q={q} exposure={analysis.exposure} errors={exposureErrors} />}
     </div>
   );
 }

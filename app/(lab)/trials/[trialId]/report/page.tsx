@@ -13,6 +13,8 @@ import { SurvivalSection } from "@/components/analysis/survival-section";
 import { TrialRules } from "@/components/analysis/trial-rules";
 import { listStorageRules } from "@/db/queries/storage-rules";
 import { EmptyState } from "@/components/ui/empty-state";
+import { EXPOSURE_METHOD, ExposureExclusionNote, ExposureTable } from "@/components/analysis/exposure-section";
+import { exposureKeep } from "@/lib/analysis/exposure-params";
 
 export const metadata = { title: "Trial report" };
 
@@ -32,6 +34,7 @@ const PRINT_CSS = `
 
 export default async function ReportPage(props: AnalysisPageProps) {
   const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
+  const keep = analysis.exposure ? exposureKeep(analysis.exposure.query) : {};
   const generated = new Date();
   const rules = await listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id });
 
@@ -39,7 +42,7 @@ export default async function ReportPage(props: AnalysisPageProps) {
     <article className="report space-y-5 max-w-4xl mx-auto">
       <style>{PRINT_CSS}</style>
       <div className="flex flex-wrap items-start gap-3 no-print">
-        <Link className="link text-sm" href={hrefFor(`/trials/${trial.id}/compare`, q, {})}>Back to the comparison</Link>
+        <Link className="link text-sm" href={hrefFor(`/trials/${trial.id}/compare`, q, {}, keep)}>Back to the comparison</Link>
         <div className="ml-auto"><PrintButton /></div>
       </div>
       <header className="space-y-1">
@@ -57,9 +60,12 @@ export default async function ReportPage(props: AnalysisPageProps) {
             : "The trial is still open: scores may change, and blind scorers do not see this report until it is concluded."}
         </p>
         <LeftOutScoresNote trialId={trial.id} leftOut={analysis.leftOut} recordScores={analysis.recordScores} />
+        {analysis.exposure && <ExposureExclusionNote exposure={analysis.exposure} />}
       </header>
 
-      {!c ? (
+      {!c && analysis.exposure?.excluded.length ? (
+        <EmptyState text="The re-analysis left out every scored specimen: raise the out-of-band share or clear it on the comparison page." />
+      ) : !c ? (
         <EmptyState text="Nothing to report yet: this trial has no scores of record at done inspections." action={{ href: `/trials/${trial.id}`, label: "Open the trial" }} />
       ) : (
         <>
@@ -76,8 +82,15 @@ export default async function ReportPage(props: AnalysisPageProps) {
             <TrialRules rules={rules} empty="No storage rule has been accepted from this trial." />
             <p className="text-xs muted no-print"><Link className="link" href={`/trials/${trial.id}/humidity`}>Humidity response and thresholds</Link></p>
           </section>
+          {analysis.exposure && (
+            <section className="panel p-4 space-y-2" aria-labelledby="exposure-h" data-testid="report-exposure">
+              <h2 id="exposure-h" className="font-semibold">Chamber exposure</h2>
+              <p className="text-sm muted">{EXPOSURE_METHOD}</p>
+              <ExposureTable exposure={analysis.exposure} />
+            </section>
+          )}
           <MethodNotes />
-          <ExportLinks trialId={trial.id} q={q} withReport={false} />
+          <ExportLinks trialId={trial.id} q={q} withReport={false} keep={keep} />
         </>
       )}
     </article>

@@ -1,0 +1,80 @@
+import "server-only";
+import { and, asc, eq } from "drizzle-orm";
+import { chamberBand, type RhBand } from "@/lib/climate/band-stats";
+import { correctionOf, type TimedCorrection } from "@/lib/climate/hygrometer-check";
+import { placementExposure, type Exposure } from "@/lib/climate/exposure";
+import { COARSE_MS, gapLimitMinutes, groupBlocks } from "@/lib/climate/readings-reduce";
+import { db } from "../client";
+import { chambers, placements, specimens } from "../schema";
+import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type Snapshot } from "./climate-sql";
+import type { Trial } from "./trial-access";
+
+/** One placement and what its jar measured over it (no arm or treatment: exposure is about the jar). */
+export type PlacementExposureRow = {
+  placementId: string; specimenId: string; specimenLabel: string; chamberId: string; chamberName: string;
+  fromAt: Date; toAt: Date; open: boolean; band: RhBand; exposure: Exposure;
+};
+
+/** Applied checks of the chamber's instruments as timed corrections, per instrument, oldest first. */
+async function correctionsOf(snap: Snapshot, key: { labId: string; chamberId: string }) {
+  const byInstrument = new Map<string, TimedCorrection[]>();
+  for (const c of await loadAppliedChecks(snap, key)) {
+    byInstrument.set(c.instrument, [...(byInstrument.get(c.instrument) ?? []), { atMs: new Date(c.checkedAt).getTime(), ...correctionOf(c) }]);
+  }
+  for (const list of byInstrument.values()) list.sort((a, b) => a.atMs - b.atMs);
+  return byInstrument;
+}
+
+/**
+ * Per placement of a trial, what the jar measured over it: every reading of the placement's time
+ * (corrected: lib/climate/exposure), with the gap limit the chamber page uses for that window. A
+ * placement still open runs to the trial's conclusion, else to now. Placements of one jar over the
+ * same window are computed once.
+ */
+export async function loadTrialExposure({ labId, trial, thresholdsRhPercent, now = new Date() }: {
+  labId: string; trial: Pick<Trial, "id" | "startedAt" | "concludedAt">; thresholdsRhPercent: readonly number[]; now?: Date;
+}): Promise<PlacementExposureRow[]> {
+  const rows = await db
+    .select({
+      placementId: placements.id, specimenId: placements.specimenId, specimenLabel: specimens.label, chamberId: placements.chamberId,
+      chamberName: chambers.name, setpointRhPercent: chambers.setpointRhPercent, toleranceRhPercent: chambers.toleranceRhPercent,
+      fromAt: placements.fromAt, toAt: placements.toAt,
+    })
+    .from(placements)
+    .innerJoin(specimens, eq(specimens.id, placements.specimenId))
+    .innerJoin(chambers, eq(chambers.id, placements.chamberId))
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trial.id)))
+    .orderBy(asc(specimens.label), asc(placements.fromAt));
+  const end = trial.concludedAt ?? now;
+  const windows = rows.flatMap((r) => {
+    const fromAt = r.fromAt ?? trial.startedAt;
+    if (!fromAt) return [];
+    const toAt = r.toAt ?? end;
+    return toAt > fromAt ? [{ ...r, fromAt, toAt, open: r.toAt == null, band: chamberBand(r) }] : [];
+  });
+  const out: PlacementExposureRow[] = [];
+  for (const chamberId of new Set(windows.map((w) => w.chamberId))) {
+    const key = { labId, chamberId };
+    await withSnapshot(async (snap) => {
+      const checks = await correctionsOf(snap, key);
+      const done = new Map<string, Exposure>();
+      for (const w of windows.filter((x) => x.chamberId === chamberId)) {
+        const k = `${w.fromAt.getTime()}|${w.toAt.getTime()}`;
+        let exposure = done.get(k);
+        if (!exposure) {
+          const fromMs = w.fromAt.getTime();
+          const toMs = w.toAt.getTime();
+          const coarse = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: Math.floor(fromMs / COARSE_MS) * COARSE_MS, toMs }] }));
+          const readings = await loadRows(snap, { ...key, ranges: [{ fromMs, toMs, toInclusive: true }] });
+          exposure = placementExposure({
+            rows: readings.map((r) => ({ takenAt: r.takenAt, rhRaw: r.rhRaw, tempC: r.tempC, instrument: r.instrument })),
+            checks, band: w.band, thresholdsRhPercent, maxGapMinutes: gapLimitMinutes(coarse),
+          });
+          done.set(k, exposure);
+        }
+        out.push({ placementId: w.placementId, specimenId: w.specimenId, specimenLabel: w.specimenLabel, chamberId, chamberName: w.chamberName, fromAt: w.fromAt, toAt: w.toAt, open: w.open, band: w.band, exposure });
+      }
+    });
+  }
+  return out.sort((a, b) => a.specimenLabel.localeCompare(b.specimenLabel) || a.fromAt.getTime() - b.fromAt.getTime());
+}
