@@ -161,10 +161,18 @@ async function windowSeries(snap: Snapshot, { labId, chamberId, band, fromMs, to
  * chamber page (time-weighted mean RH, time in band), from the same readings and offsets.
  */
 export async function getChamberWindowStats({ labId, chamber, from, to }: { labId: string; chamber: Pick<Chamber, "id" | "setpointRhPercent" | "toleranceRhPercent">; from: Date; to: Date }) {
-  const band: RhBand = chamberBand(chamber);
+  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  return getBandWindowStats({ labId, chamberId: chamber.id, band, from, to });
+}
+
+/**
+ * Band statistics of a chamber or storage location over a window against any band (a storage rule's
+ * band runs from 0 to its threshold), counted as the chamber page counts them.
+ */
+export async function getBandWindowStats({ labId, chamberId, band, from, to }: { labId: string; chamberId: string; band: RhBand; from: Date; to: Date }) {
   return withSnapshot(async (snap) => {
-    const w = await windowSeries(snap, { labId, chamberId: chamber.id, band, fromMs: from.getTime(), toMs: to.getTime(), maxPoints: 200, allRowsLimit: ALL_ROWS_LIMIT });
-    return { ...bandStats(w.series, band, { maxGapMinutes: w.maxGapMinutes }), readings: w.count };
+    const w = await windowSeries(snap, { labId, chamberId, band, fromMs: from.getTime(), toMs: to.getTime(), maxPoints: 200, allRowsLimit: ALL_ROWS_LIMIT });
+    return { ...bandStats(w.series, band, { maxGapMinutes: w.maxGapMinutes }), readings: w.count, maxGapMinutes: w.maxGapMinutes };
   });
 }
 
