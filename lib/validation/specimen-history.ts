@@ -8,7 +8,7 @@ export const CHLORIDE_METHOD_LABELS: Record<(typeof CHLORIDE_METHODS)[number], s
   "silver-nitrate-spot": "Silver nitrate spot test on a swab or wash water",
   "chloride-strip": "Chloride test strip on wash water",
   "ion-chromatography": "Ion chromatography of wash water",
-  titration: "Titration (e.g. mercuric or silver nitrate) of wash water",
+  titration: "Titration of wash water",
   other: "Other (say which in the notes)",
 };
 export const CHLORIDE_RESULTS = ["present", "absent", "inconclusive"] as const;
