@@ -211,3 +211,9 @@ export function allocateByLabel(input: {
     byLabel,
   };
 }
+
+/** How a trial's allocation was blocked, in words, e.g. "blocked by material class and parent piece". */
+export function blockText(trial: { blockByMaterial: boolean; blockFactors: readonly string[] }): string {
+  const factors = [...(trial.blockByMaterial ? ["materialClass"] : []), ...trial.blockFactors].filter((f): f is BlockFactor => f in BLOCK_FACTOR_LABELS);
+  return factors.length ? `blocked by ${factors.map((f) => BLOCK_FACTOR_LABELS[f]).join(" and ")}` : "not blocked";
+}
