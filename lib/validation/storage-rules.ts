@@ -17,7 +17,7 @@ const pool = z.preprocess(
 
 /** Specimen-history covariates for the page's models (never part of an accepted storage rule). */
 const covariates = z.preprocess(
-  (v) => (typeof v === "string" ? v.split(",").filter(Boolean) : v ?? []),
+  (v) => { const list = typeof v === "string" ? v.split(",").filter(Boolean) : v ?? []; return Array.isArray(list) ? [...new Set(list)] : list; },
   z.array(z.enum(RESPONSE_COVARIATES, { error: `Covariates are ${RESPONSE_COVARIATES.join(" and ")}.` })).max(RESPONSE_COVARIATES.length),
 );
 
@@ -51,7 +51,7 @@ export function responsePageQuery(raw: Record<string, string | string[] | undefi
   if (p.success) query.pool = p.data;
   else problems.push(`${p.error.issues[0].message} No trials are pooled.`);
   const c = covariates.safeParse(raw.cov === undefined ? [] : Array.isArray(raw.cov) ? raw.cov : one("cov"));
-  if (c.success) query.cov = [...new Set(c.data)];
+  if (c.success) query.cov = c.data;
   else problems.push(`${c.error.issues[0].message} No history covariates are used.`);
   return { query, problems };
 }
