@@ -11,6 +11,7 @@ import { loadHistoryFactors, loadSpecimenHistory } from "@/db/queries/specimen-h
 import { blindTrialIds } from "@/db/queries/trial-access";
 import { auditEventForViewer } from "@/lib/trials/access";
 import { latestToday } from "@/lib/specimens/history";
+import { AKAGANEITE_METHODS, CHLORIDE_METHODS, CHLORIDE_RESULTS } from "@/lib/validation/specimen-history";
 import { createTestLab, type TestLab } from "../support/db";
 import { addChambers, addSpecimens, addTreatments } from "./trials-fixtures";
 
@@ -81,6 +82,19 @@ describe("specimen history", () => {
       expect(r.values?.[field]).toBe(input[field]); // what was typed comes back to the form
     }
     expect([await rowsOf(specimenId), await auditCount(a.labId)]).toEqual(before);
+  });
+
+  it("stores every method and result the form offers (the database checks the same lists)", async () => {
+    const [spec] = await addSpecimens(a, { "stony-iron": 1 });
+    for (const [i, method] of CHLORIDE_METHODS.entries()) {
+      const r = await addSpecimenHistoryAction.withIdentity(a.as("lead"), { specimenId: spec.id, kind: "chloride", testedOn: "2026-01-02", method, result: CHLORIDE_RESULTS[i % CHLORIDE_RESULTS.length] });
+      expect(r.ok, `${method}: ${r.message}`).toBe(true);
+    }
+    for (const method of AKAGANEITE_METHODS) {
+      const r = await addSpecimenHistoryAction.withIdentity(a.as("lead"), { specimenId: spec.id, kind: "akaganeite", checkedOn: "2026-01-02", method, seen: "no" });
+      expect(r.ok, `${method}: ${r.message}`).toBe(true);
+    }
+    expect(await rowsOf(spec.id)).toBe(CHLORIDE_METHODS.length + AKAGANEITE_METHODS.length);
   });
 
   it("does not write to another lab's specimen, and a technician or observer cannot write", async () => {
