@@ -6,7 +6,7 @@ import { hashPassword } from "@/lib/auth/password";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
 import { planDays } from "@/lib/schedule/plans";
 import {
-  DEMO_PASSWORD, demoAreaPercent, demoChambers, demoCourse, demoLab, demoReading, demoSpecimens, demoTrial, demoTreatments, demoUsers,
+  DEMO_PASSWORD, demoAreaPercent, demoChambers, demoCourse, demoLab, demoReading, demoSpecimenHistory, demoSpecimens, demoTrial, demoTreatments, demoUsers,
 } from "@/experiments/demo-lab";
 import { recordAudit } from "./audit";
 import { closeDb, db } from "./client";
@@ -53,6 +53,10 @@ async function main() {
       treatments[t.key] = row.id;
     }
     const specimenRows = await tx.insert(s.specimens).values(demoSpecimens().map((sp) => ({ ...sp, labId: lab.id, createdBy: users.researcher }))).returning();
+    const dayOf = (daysBefore: number) => new Date(start.getTime() - daysBefore * DAY).toISOString().slice(0, 10);
+    const history = demoSpecimens().map((sp, i) => ({ specimenId: specimenRows[i].id, ...demoSpecimenHistory(sp) }));
+    await tx.insert(s.chlorideTests).values(history.map((h) => ({ labId: lab.id, specimenId: h.specimenId, testedOn: dayOf(h.chloride.daysBeforeStart), method: h.chloride.method, result: h.chloride.result, createdBy: users.technician })));
+    await tx.insert(s.massMeasurements).values(history.map((h) => ({ labId: lab.id, specimenId: h.specimenId, measuredOn: dayOf(h.weighing.daysBeforeStart), massG: h.weighing.massG, createdBy: users.technician })));
 
     const [trial] = await tx.insert(s.trials).values({
       labId: lab.id, title: demoTrial.title, question: demoTrial.question, hypothesis: demoTrial.hypothesis,

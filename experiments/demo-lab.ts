@@ -44,7 +44,7 @@ export const demoTreatments = [
 
 const findNames = ["Corvenlow Tarn", "Esker Holloway", "Marrowby Sands", "Fennick Lowe", "Drumcairn Scar", "Velloby Rigg"];
 
-export type DemoSpecimen = { label: string; materialClass: "iron-meteorite" | "stony-iron"; findName: string; face: string; surfacePrep: string; massG: number; history: string; contaminationNotes: string };
+export type DemoSpecimen = { label: string; materialClass: "iron-meteorite" | "stony-iron"; findName: string; face: string; surfacePrep: string; massG: number; history: string; contaminationNotes: string; parentPiece: string; slice: string; provenance: string };
 
 export function demoSpecimens(): DemoSpecimen[] {
   const rng = createRng("tarrow-specimens");
@@ -61,9 +61,23 @@ export function demoSpecimens(): DemoSpecimen[] {
       massG: Math.round((12 + rng() * 40) * 10) / 10,
       history: `Slice from the ${find} mass, cut in 2025 for the trial.`,
       contaminationNotes: i % 5 === 0 ? "Earlier rust spots removed from the rind side; possible residual chloride." : "",
+      parentPiece: `${find} main mass`,
+      slice: `S${Math.floor(i / findNames.length) + 1}`,
+      provenance: `${find}: found by a field survey in 1978, Tarrow collection since 1979 (invented for the demo).`,
     });
   }
   return out;
+}
+
+/**
+ * Invented history of a demo specimen, in days before the trial's start: a chloride spot test three
+ * weeks before (chloride found where the contamination notes suspect it) and a weighing two weeks before.
+ */
+export function demoSpecimenHistory(sp: DemoSpecimen) {
+  return {
+    chloride: { daysBeforeStart: 21, method: "silver-nitrate-spot", result: sp.contaminationNotes ? "present" : "absent" },
+    weighing: { daysBeforeStart: 14, massG: sp.massG.toFixed(4) },
+  };
 }
 
 export const demoTrial = {
@@ -182,6 +196,9 @@ export function ladderSpecimens(): DemoSpecimen[] {
       massG: Math.round((8 + rng() * 25) * 10) / 10,
       history: `Thin slice from the ${find} mass, cut in 2025 for the humidity ladder.`,
       contaminationNotes: "",
+      parentPiece: `${find} ladder piece`,
+      slice: `L${i + 1}`,
+      provenance: `${find}: Tarrow collection since 1979 (invented for the demo).`,
     };
   });
 }

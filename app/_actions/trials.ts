@@ -29,7 +29,7 @@ export const updateTrialAction = labAction("trials.write", trialEditFormSchema, 
 });
 
 export const allocateAction = labAction("trials.write", allocationSchema, async (ctx, d) => {
-  const r = await allocateTrial({ actor: ctx, trialId: d.trialId, specimenIds: d.specimenIds, seed: d.seed, blockByMaterial: d.blockByMaterial });
+  const r = await allocateTrial({ actor: ctx, trialId: d.trialId, specimenIds: d.specimenIds, seed: d.seed, blockByMaterial: d.blockByMaterial, blockFactors: d.blockFactors });
   refresh(d.trialId);
   return { message: `Allocated ${r.assigned} specimens with seed "${d.seed}"${r.unallocated ? `; ${r.unallocated} left over` : ""}.` };
 });

@@ -5,7 +5,7 @@ import { createSpecimenAction, updateSpecimenAction } from "@/app/_actions/speci
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
 import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, SURFACE_PREP_STEPS, splitSurfacePrep } from "@/lib/validation/specimens";
 
-type Specimen = { id: string; label: string; materialClass: string; findName: string; face: string; description: string; surfacePrep: string; massG: number | null; history: string; contaminationNotes: string };
+type Specimen = { id: string; label: string; materialClass: string; findName: string; face: string; description: string; surfacePrep: string; massG: number | null; history: string; parentPiece: string; slice: string; provenance: string; contaminationNotes: string };
 
 const classOptions = MATERIAL_CLASSES.map((c) => ({ value: c, label: MATERIAL_CLASS_LABELS[c] }));
 
@@ -29,6 +29,8 @@ export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
         <Field name="findName" label="Find name" state={state} defaultValue={specimen?.findName} hint="The meteorite, site or batch the piece comes from." />
         <Field name="face" label="Face" state={state} defaultValue={specimen?.face} hint="Which surface is photographed, e.g. cut face, etched." />
         <Field name="massG" label="Mass (g)" type="number" step="0.01" min="0" state={state} defaultValue={specimen?.massG ?? ""} />
+        <Field name="parentPiece" label="Parent piece" state={state} defaultValue={specimen?.parentPiece} hint="The piece this was cut from, e.g. Tarrow mass 2 end piece. Slices of one parent can be balanced across arms." />
+        <Field name="slice" label="Slice" state={state} defaultValue={specimen?.slice} hint="This slice's mark on the parent piece, e.g. S3." />
       </div>
       <fieldset className="space-y-2" aria-describedby={prepErr ? "prep-err" : undefined}>
         <legend className="text-sm font-medium">Surface preparation</legend>
@@ -43,6 +45,7 @@ export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
         {prepErr && <p id="prep-err" role="alert" className="text-sm text-rust-600">{prepErr.join(" ")}</p>}
       </fieldset>
       <TextArea name="description" label="Description" state={state} defaultValue={specimen?.description} />
+      <TextArea name="provenance" label="Provenance" state={state} defaultValue={specimen?.provenance} hint="Find spot, collection, dealer, earlier owners and catalogue numbers." />
       <TextArea name="history" label="History" state={state} defaultValue={specimen?.history} hint="Where it has been stored, earlier treatments, cutting." />
       <TextArea name="contaminationNotes" label="Contamination notes" state={state} defaultValue={specimen?.contaminationNotes}
         hint="Soil salts, earlier rusting, fire or weather damage, handling residues — anything that could speed up or mask rust." />

@@ -16,8 +16,8 @@ function randomSeed() {
   return `seed-${(a[0] % 1_000_000).toString().padStart(6, "0")}`;
 }
 
-export function AllocationForm({ trialId, specimens, initialSelected, seed, blockByMaterial, needed, allocated }: {
-  trialId: string; specimens: SpecimenChoice[]; initialSelected: string[]; seed: string; blockByMaterial: boolean; needed: number; allocated: boolean;
+export function AllocationForm({ trialId, specimens, initialSelected, seed, blockByMaterial, blockFactors, needed, allocated }: {
+  trialId: string; specimens: SpecimenChoice[]; initialSelected: string[]; seed: string; blockByMaterial: boolean; blockFactors: string[]; needed: number; allocated: boolean;
 }) {
   const [state, dispatch, pending] = useActionState(allocateAction, undefined);
   const onSubmit = useFormSubmit(dispatch);
@@ -91,6 +91,13 @@ export function AllocationForm({ trialId, specimens, initialSelected, seed, bloc
         <label className="inline-flex items-center gap-2 text-sm">
           <input type="checkbox" name="blockByMaterial" defaultChecked={blockByMaterial} /> Block by material class (balance each class across the arms)
         </label>
+        <label className="inline-flex items-center gap-2 text-sm">
+          <input type="checkbox" name="blockFactors[]" value="parentPiece" defaultChecked={blockFactors.includes("parentPiece")} /> and by parent piece (slices of one piece spread over the arms)
+        </label>
+        <label className="inline-flex items-center gap-2 text-sm">
+          <input type="checkbox" name="blockFactors[]" value="chlorideState" defaultChecked={blockFactors.includes("chlorideState")} /> and by chloride test result (latest test on each specimen&apos;s page)
+        </label>
+        {state?.errors?.blockFactors && <p role="alert" className="text-sm text-rust-600">{state.errors.blockFactors.join(" ")}</p>}
       </div>
       <FormMessage state={state} />
       <PendingButton pending={pending} pendingText="Allocating…">{allocated ? "Re-roll allocation" : "Allocate"}</PendingButton>

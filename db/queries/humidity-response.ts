@@ -6,6 +6,7 @@ import { db } from "../client";
 import { chambers } from "../schema";
 import { loadSpecimenOutcomes } from "./analysis";
 import { getChamberWindowStats } from "./readings-series";
+import { loadHistoryFactors } from "./specimen-history";
 import { getTrial, type Trial } from "./trial-access";
 
 const DAY_MS = 86_400_000;
@@ -49,6 +50,10 @@ export async function loadHumidityResponse({ labId, trial, poolTrialIds = [], op
     const chamberById = new Map(chamberRows.map((c) => [c.id, c]));
     // Specimens at risk over the same window in the same jar share one climate read.
     const windows = new Map<string, Promise<{ meanRhPercent: number | null }>>();
+    // History covariates as known before the trial started (tests and weighings dated before its first day).
+    const history = options.covariates?.length
+      ? await loadHistoryFactors({ labId, specimenIds: outcomes.map((o) => o.specimenId), before: startAt.toISOString().slice(0, 10) })
+      : null;
 
     for (const o of outcomes) {
       if (!o.interval) continue;
@@ -74,6 +79,8 @@ export async function loadHumidityResponse({ labId, trial, poolTrialIds = [], op
         measuredRhPercent: measured ?? o.chamberRhPercent,
         materialClass: o.materialClass, treatmentId: o.treatmentId, treatmentName: o.treatmentName, treatmentKind: o.treatmentKind,
         lower, upper,
+        chloridePresent: history?.get(o.specimenId)?.chlorideState === "present",
+        initialMassG: history?.get(o.specimenId)?.initialMassG ?? null,
       });
       const jarKey = `${t.id}|${o.chamberId}`;
       const jar = jars.get(jarKey) ?? {

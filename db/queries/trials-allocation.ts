@@ -2,12 +2,13 @@ import "server-only";
 // Draft allocation of specimens to arms (seeded, optionally blocked by material class) and manual
 // swaps. Split from trials.ts to keep files short; the same lock rules apply (lockTrial).
 import { and, eq, inArray } from "drizzle-orm";
-import { allocateByLabel } from "@/lib/allocation/allocate";
+import { allocateByLabel, blockKeyOf, blockText, type BlockFactor } from "@/lib/allocation/allocate";
 import { AppError } from "@/lib/auth/errors";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { specimens, trialAllocations, trialArms, trials } from "../schema";
 import { assertAllowed, type Actor } from "./specimens";
+import { loadHistoryFactors } from "./specimen-history";
 import { assertWritable } from "@/lib/trials/lock";
 import { lockTrial } from "./trial-access";
 
@@ -18,9 +19,12 @@ export function newSeed() {
   return `${words[bytes[0] % words.length]}-${words[bytes[1] % words.length]}-${(bytes[2] * 256 + bytes[3]) % 10000}`;
 }
 
-export async function allocateTrial({ actor, trialId, specimenIds, seed, blockByMaterial }: {
+export async function allocateTrial({ actor, trialId, specimenIds, seed, blockByMaterial, blockFactors = [] }: {
   actor: Actor; trialId: string; specimenIds: string[]; seed: string; blockByMaterial: boolean;
+  /** Specimen-history factors blocked on beside the material class. */
+  blockFactors?: readonly ("parentPiece" | "chlorideState")[];
 }) {
+  const factors: BlockFactor[] = [...(blockByMaterial ? ["materialClass" as const] : []), ...new Set(blockFactors)];
   assertAllowed(actor, "trials.write");
   return db.transaction(async (tx) => {
     const trial = await lockTrial(tx, actor.labId, trialId);
@@ -28,7 +32,7 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
     const unique = [...new Set(specimenIds)];
     const [arms, chosen] = await Promise.all([
       tx.select({ id: trialArms.id, label: trialArms.label, chamberId: trialArms.chamberId }).from(trialArms).where(eq(trialArms.trialId, trialId)),
-      tx.select({ id: specimens.id, label: specimens.label, materialClass: specimens.materialClass }).from(specimens)
+      tx.select({ id: specimens.id, label: specimens.label, materialClass: specimens.materialClass, parentPiece: specimens.parentPiece }).from(specimens)
         .where(and(eq(specimens.labId, actor.labId), inArray(specimens.id, unique))),
     ]);
     if (chosen.length !== unique.length) throw new AppError("invalid", "A chosen specimen is not in this lab.", { specimenIds: ["Choose specimens of this lab."] });
@@ -39,22 +43,25 @@ export async function allocateTrial({ actor, trialId, specimenIds, seed, blockBy
     }
     // Keyed by the printed labels, not database ids, so anyone holding the allocation table and the
     // seed can recompute it with lib/allocation (labels are unique per lab and per trial).
-    const result = allocateByLabel({ specimens: chosen, arms, seed, blockBy: blockByMaterial ? "materialClass" : null, replicatesPerArm: trial.replicatesPerArm });
+    // The chloride state is the latest test's result when allocating (lib/specimens/history.ts).
+    const history = factors.includes("chlorideState") ? await loadHistoryFactors({ labId: actor.labId, specimenIds: unique }) : null;
+    const withHistory = chosen.map((c) => ({ ...c, chlorideState: history?.get(c.id)?.chlorideState ?? "untested" }));
+    const result = allocateByLabel({ specimens: withHistory, arms, seed, blockBy: factors, replicatesPerArm: trial.replicatesPerArm });
     const { byLabel } = result;
-    const classOf = new Map(chosen.map((c) => [c.id, c.materialClass]));
+    const keyOf = new Map(withHistory.map((c) => [c.id, blockKeyOf(c, factors)]));
     const previous = await tx.delete(trialAllocations).where(eq(trialAllocations.trialId, trialId)).returning();
     const rows = [
-      ...result.assignments.map((a) => ({ labId: actor.labId, trialId, specimenId: a.specimenId, armId: a.armId, blockKey: blockByMaterial ? classOf.get(a.specimenId)! : "" })),
-      ...result.unallocated.map((id) => ({ labId: actor.labId, trialId, specimenId: id, armId: null, blockKey: blockByMaterial ? classOf.get(id)! : "" })),
+      ...result.assignments.map((a) => ({ labId: actor.labId, trialId, specimenId: a.specimenId, armId: a.armId, blockKey: keyOf.get(a.specimenId)! })),
+      ...result.unallocated.map((id) => ({ labId: actor.labId, trialId, specimenId: id, armId: null, blockKey: keyOf.get(id)! })),
     ];
     for (let i = 0; i < rows.length; i += 1000) await tx.insert(trialAllocations).values(rows.slice(i, i + 1000));
-    const [after] = await tx.update(trials).set({ allocationSeed: seed, blockByMaterial, updatedAt: new Date() }).where(eq(trials.id, trialId)).returning();
+    const [after] = await tx.update(trials).set({ allocationSeed: seed, blockByMaterial, blockFactors: factors.filter((f) => f !== "materialClass"), updatedAt: new Date() }).where(eq(trials.id, trialId)).returning();
     await recordAudit(tx, {
       labId: actor.labId, userId: actor.userId, entity: "trial", entityId: trialId, action: "update",
-      summary: `${previous.length ? "Re-allocated" : "Allocated"} ${result.assignments.length} specimens with seed "${seed}"${blockByMaterial ? ", blocked by material class" : ""}`,
+      summary: `${previous.length ? "Re-allocated" : "Allocated"} ${result.assignments.length} specimens with seed "${seed}"${factors.length ? `, ${blockText({ blockByMaterial, blockFactors })}` : ""}`,
       before: previous.length ? { seed: trial.allocationSeed, assignments: previous.map((p) => ({ specimenId: p.specimenId, armId: p.armId })) } : null,
       // The label form is what reproduces it: allocateDetailed with these labels, arm labels and seed.
-      after: { seed, blockByMaterial, replicatesPerArm: trial.replicatesPerArm, byLabel: byLabel.assignments, leftOverLabels: byLabel.unallocated, assignments: result.assignments },
+      after: { seed, blockByMaterial, blockFactors: factors, chlorideStates: history ? Object.fromEntries(withHistory.map((c) => [c.label, c.chlorideState])) : undefined, replicatesPerArm: trial.replicatesPerArm, byLabel: byLabel.assignments, leftOverLabels: byLabel.unallocated, assignments: result.assignments },
     });
     return { trial: after, assigned: result.assignments.length, unallocated: result.unallocated.length };
   });

@@ -3,6 +3,7 @@ export * from "./auth";
 export * from "./audit";
 export * from "./chambers";
 export * from "./specimens";
+export * from "./specimen-history";
 export * from "./trials";
 export * from "./photos";
 export * from "./storage-rules";

@@ -13,6 +13,10 @@ export const specimens = pgTable("specimens", {
   surfacePrep: text("surface_prep").notNull().default(""),
   massG: doublePrecision("mass_g"),
   history: text("history").notNull().default(""),
+  // Where the piece was cut from: the parent piece's name and this slice's mark on it (blocking factors).
+  parentPiece: text("parent_piece").notNull().default(""),
+  slice: text("slice").notNull().default(""),
+  provenance: text("provenance").notNull().default(""),
   contaminationNotes: text("contamination_notes").notNull().default(""),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

@@ -21,6 +21,8 @@ export const trials = pgTable("trials", {
   replicatesPerArm: integer("replicates_per_arm").notNull().default(1),
   allocationSeed: text("allocation_seed"),
   blockByMaterial: boolean("block_by_material").notNull().default(true),
+  /** Specimen-history blocking factors used beside the material class (lib/allocation/allocate.ts BlockFactor). */
+  blockFactors: jsonb("block_factors").$type<string[]>().notNull().default([]),
   schedulePlan: jsonb("schedule_plan").$type<SchedulePlan>().notNull(),
   scoreRule: scoreRuleEnum("score_rule").notNull().default("primary-scorer"),
   primaryScorerId: uuid("primary_scorer_id").references(() => users.id, { onDelete: "set null" }),

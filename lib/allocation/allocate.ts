@@ -1,4 +1,5 @@
-// Seeded random allocation of specimens to treatment arms, optionally blocked by material class.
+// Seeded random allocation of specimens to treatment arms, optionally blocked by material class
+// and by specimen history (parent piece, chloride state).
 //
 // Rules (shown to researchers, so keep them plain):
 // - The result depends only on the seed and on the sets of specimen and arm ids, not on their
@@ -13,7 +14,14 @@
 //   proportion to block size (largest remainder, ties at random); the rest are reported unallocated.
 import { createRng, shuffled, type Rng } from "./prng";
 
-export type AllocationSpecimen = { id: string; materialClass: string };
+/** What a block can be made of; a block is the specimens sharing every chosen factor's value. */
+export const BLOCK_FACTORS = ["materialClass", "parentPiece", "chlorideState"] as const;
+export type BlockFactor = (typeof BLOCK_FACTORS)[number];
+export const BLOCK_FACTOR_LABELS: Record<BlockFactor, string> = { materialClass: "material class", parentPiece: "parent piece", chlorideState: "chloride test result" };
+/** null or [] is one block of all specimens; "materialClass" is the same as ["materialClass"]. */
+export type BlockBy = BlockFactor | readonly BlockFactor[] | null;
+
+export type AllocationSpecimen = { id: string; materialClass: string; parentPiece?: string; chlorideState?: string };
 export type AllocationArm = { id: string };
 export type Assignment = { specimenId: string; armId: string };
 
@@ -21,7 +29,7 @@ export type AllocationInput = {
   specimens: readonly AllocationSpecimen[];
   arms: readonly AllocationArm[];
   seed: string | number;
-  blockBy?: "materialClass" | null;
+  blockBy?: BlockBy;
   replicatesPerArm?: number | null;
 };
 
@@ -81,13 +89,27 @@ export function allocateDetailed(input: AllocationInput): AllocationResult {
 
 type Block = { key: string; ids: string[] };
 
-function groupIntoBlocks(specimens: readonly AllocationSpecimen[], blockBy: "materialClass" | null): Block[] {
-  if (blockBy === null) return [{ key: "", ids: specimens.map((s) => s.id) }];
+function factorsOf(blockBy: BlockBy): BlockFactor[] {
+  if (blockBy === null) return [];
+  return BLOCK_FACTORS.filter((f) => (typeof blockBy === "string" ? blockBy === f : blockBy.includes(f)));
+}
+
+/**
+ * A specimen's block: the values of the chosen factors in BLOCK_FACTORS order, joined by " · "
+ * (a missing value counts as "none"); with material class alone it is the class itself.
+ */
+export function blockKeyOf(s: AllocationSpecimen, blockBy: BlockBy): string {
+  return factorsOf(blockBy).map((f) => s[f] || "none").join(" · ");
+}
+
+function groupIntoBlocks(specimens: readonly AllocationSpecimen[], blockBy: BlockBy): Block[] {
+  if (factorsOf(blockBy).length === 0) return [{ key: "", ids: specimens.map((s) => s.id) }];
   const byKey = new Map<string, string[]>();
   for (const s of specimens) {
-    const list = byKey.get(s.materialClass) ?? [];
+    const key = blockKeyOf(s, blockBy);
+    const list = byKey.get(key) ?? [];
     list.push(s.id);
-    byKey.set(s.materialClass, list);
+    byKey.set(key, list);
   }
   return [...byKey.entries()]
     .sort(([a], [b]) => compareIds(a, b))
@@ -151,7 +173,7 @@ function compareIds(a: string, b: string): number {
   return a < b ? -1 : a > b ? 1 : 0;
 }
 
-export type LabelledSpecimen = { id: string; label: string; materialClass: string };
+export type LabelledSpecimen = { id: string; label: string; materialClass: string; parentPiece?: string; chlorideState?: string };
 export type LabelledArm = { id: string; label: string; chamberId: string };
 
 /** Arm keys for the allocation: the label, made unique with the chamber id if two chambers share a name. */
@@ -171,7 +193,7 @@ export function allocateByLabel(input: {
   specimens: readonly LabelledSpecimen[];
   arms: readonly LabelledArm[];
   seed: string | number;
-  blockBy?: "materialClass" | null;
+  blockBy?: BlockBy;
   replicatesPerArm?: number | null;
 }): AllocationResult & { byLabel: AllocationResult } {
   const armKeys = armKeysOf(input.arms);
@@ -179,7 +201,7 @@ export function allocateByLabel(input: {
   const specimenByLabel = new Map(input.specimens.map((s) => [s.label, s.id]));
   if (specimenByLabel.size !== input.specimens.length) throw new RangeError("specimen labels must be unique");
   const byLabel = allocateDetailed({
-    specimens: input.specimens.map((s) => ({ id: s.label, materialClass: s.materialClass })),
+    specimens: input.specimens.map((s) => ({ id: s.label, materialClass: s.materialClass, parentPiece: s.parentPiece, chlorideState: s.chlorideState })),
     arms: [...armByKey.keys()].map((id) => ({ id })),
     seed: input.seed, blockBy: input.blockBy, replicatesPerArm: input.replicatesPerArm,
   });
@@ -188,4 +210,10 @@ export function allocateByLabel(input: {
     unallocated: byLabel.unallocated.map((l) => specimenByLabel.get(l)!),
     byLabel,
   };
+}
+
+/** How a trial's allocation was blocked, in words, e.g. "blocked by material class and parent piece". */
+export function blockText(trial: { blockByMaterial: boolean; blockFactors: readonly string[] }): string {
+  const factors = [...(trial.blockByMaterial ? ["materialClass"] : []), ...trial.blockFactors].filter((f): f is BlockFactor => f in BLOCK_FACTOR_LABELS);
+  return factors.length ? `blocked by ${factors.map((f) => BLOCK_FACTOR_LABELS[f]).join(" and ")}` : "not blocked";
 }

@@ -11,6 +11,7 @@ import {
 } from "@/lib/stats/interval-regression";
 import { survivalCurveFromTurnbull, turnbull } from "@/lib/stats/turnbull";
 import { MATERIAL_LABELS } from "./groups";
+import { covariateDesign, type CovariateDesign } from "./humidity-covariates";
 import {
   DEFAULT_RESPONSE_OPTIONS, MIN_HUMIDITY_LEVELS, type ComboResult, type HumidityResponse, type LevelCheck, type ResponseOptions, type ResponseRow, type Threshold,
 } from "./humidity-result";
@@ -28,11 +29,13 @@ interface Design {
   materials: string[];
   treatments: { id: string; name: string; kind: string }[];
   trials: string[];
-  row(rh: number, material: string, treatmentId: string, trialId: string): number[];
+  row(rh: number, material: string, treatmentId: string, trialId: string, covariates?: readonly number[]): number[];
+  /** The design row of a response row, with its own covariate values. */
+  of(r: ResponseRow, rh?: number): number[];
 }
 
 /** Dummy coding with the most common material, the control (or first) treatment and the first trial as references. */
-function buildDesign(rows: readonly ResponseRow[], referenceTrialId: string): Design {
+function buildDesign(rows: readonly ResponseRow[], referenceTrialId: string, cov: CovariateDesign): Design {
   const countBy = (key: (r: ResponseRow) => string) => {
     const m = new Map<string, number>();
     for (const r of rows) m.set(key(r), (m.get(key(r)) ?? 0) + 1);
@@ -50,17 +53,18 @@ function buildDesign(rows: readonly ResponseRow[], referenceTrialId: string): De
     ...materials.slice(1).map((m) => `${MATERIAL_LABELS[m] ?? m} (vs ${MATERIAL_LABELS[materials[0]] ?? materials[0]})`),
     ...treatments.slice(1).map((t) => `${t.name} (vs ${treatments[0].name})`),
     ...trials.slice(1).map((_, i) => `Trial ${i + 2} (vs this trial)`),
+    ...cov.names,
+  ];
+  const row = (rh: number, material: string, treatmentId: string, trialId: string, covariates: readonly number[] = cov.reference) => [
+    rh,
+    ...materials.slice(1).map((m) => (m === material ? 1 : 0)),
+    ...treatments.slice(1).map((t) => (t.id === treatmentId ? 1 : 0)),
+    ...trials.slice(1).map((t) => (t === trialId ? 1 : 0)),
+    ...covariates,
   ];
   return {
-    names, materials, treatments, trials,
-    row(rh, material, treatmentId, trialId) {
-      return [
-        rh,
-        ...materials.slice(1).map((m) => (m === material ? 1 : 0)),
-        ...treatments.slice(1).map((t) => (t.id === treatmentId ? 1 : 0)),
-        ...trials.slice(1).map((t) => (t === trialId ? 1 : 0)),
-      ];
-    },
+    names, materials, treatments, trials, row,
+    of: (r, rh = r.measuredRhPercent) => row(rh, r.materialClass, r.treatmentId, r.trialId, cov.values(r)),
   };
 }
 
@@ -148,10 +152,12 @@ export function humidityLevels(rows: readonly ResponseRow[]) {
 }
 
 export function humidityResponse(
-  rows: readonly ResponseRow[],
+  allRows: readonly ResponseRow[],
   options: ResponseOptions = DEFAULT_RESPONSE_OPTIONS,
-  referenceTrialId: string = rows[0]?.trialId ?? "",
+  referenceTrialId: string = allRows[0]?.trialId ?? "",
 ): HumidityResponse {
+  const cov = covariateDesign(allRows, options.covariates);
+  const rows = cov.kept;
   if (!(options.p > 0 && options.p < 1)) throw new RangeError("The share rusted must be between 0 and 100 % (exclusive).");
   if (!(options.horizonDays > 0) || !Number.isFinite(options.horizonDays)) throw new RangeError("The horizon must be a positive number of days.");
   const levels = humidityLevels(rows);
@@ -160,7 +166,8 @@ export function humidityResponse(
     options,
     levels: levels.map(({ members: _m, ...l }) => l),
     fit: null, reason: null, combos: [], check: [], cox: null, coxError: null,
-    longestObservationDays: longest, warnings: [],
+    longestObservationDays: longest,
+    warnings: cov.leftOut ? [`${cov.leftOut} specimen${cov.leftOut === 1 ? " has" : "s have"} no weighing before the trial and ${cov.leftOut === 1 ? "is" : "are"} left out of the models with initial mass.`] : [],
   };
   const events = rows.filter((r) => Number.isFinite(r.upper)).length;
   if (levels.length < MIN_HUMIDITY_LEVELS) {
@@ -168,11 +175,8 @@ export function humidityResponse(
   }
   if (events === 0) return { ...base, reason: "No specimen has rusted yet: there is no time to first rust to model." };
 
-  const design = buildDesign(rows, referenceTrialId);
-  const fitRows = rows.map((r) => ({
-    lower: r.lower, upper: r.upper,
-    x: design.row(r.measuredRhPercent, r.materialClass, r.treatmentId, r.trialId),
-  }));
+  const design = buildDesign(rows, referenceTrialId, cov);
+  const fitRows = rows.map((r) => ({ lower: r.lower, upper: r.upper, x: design.of(r) }));
   let fit: IntervalRegressionFit;
   try {
     fit = weibullIntervalRegression(fitRows);
@@ -212,7 +216,7 @@ export function humidityResponse(
   const days = [...new Set(rows.flatMap((r) => [r.lower, r.upper]).filter((d) => Number.isFinite(d) && d > 0))].sort((a, b) => a - b);
   const check: LevelCheck[] = levels.map((level) => {
     const steps = survivalCurveFromTurnbull(turnbull(level.members.map((m) => ({ lower: m.lower, upper: m.upper }))));
-    const xs = level.members.map((m) => design.row(m.measuredRhPercent, m.materialClass, m.treatmentId, m.trialId));
+    const xs = level.members.map((m) => design.of(m));
     const grid = [0, ...days];
     return {
       label: level.label,
@@ -231,7 +235,7 @@ export function humidityResponse(
     const c = coxRegression(rows.map((r) => ({
       time: Number.isFinite(r.upper) ? Math.max(r.upper, 1e-6) : Math.max(r.lower, 1e-6),
       event: Number.isFinite(r.upper),
-      x: design.row(r.measuredRhPercent / 10, r.materialClass, r.treatmentId, r.trialId),
+      x: design.of(r, r.measuredRhPercent / 10),
     })));
     cox = {
       hazardRatios: design.names.map((name, i) => ({
@@ -244,7 +248,7 @@ export function humidityResponse(
     coxError = err instanceof Error ? err.message : String(err);
   }
 
-  const warnings: string[] = [];
+  const warnings: string[] = [...base.warnings];
   if (options.horizonDays > EXTRAPOLATION_FACTOR * longest) {
     warnings.push(`The horizon (${formatHorizon(options.horizonDays)}) lies far beyond the longest observation (${Math.round(longest)} days): the threshold extrapolates the fitted model and is only as good as its shape. Re-check it as the trial runs on.`);
   }

@@ -19,6 +19,9 @@ export interface ResponseRow {
   /** (lower, upper] in days; upper Infinity = never seen rusted; lower 0 = rusted at the first look. */
   lower: number;
   upper: number;
+  /** Specimen history before the trial (db/queries/specimen-history.ts loadHistoryFactors), for covariates. */
+  chloridePresent?: boolean;
+  initialMassG?: number | null;
 }
 
 export interface ResponseOptions {
@@ -26,6 +29,8 @@ export interface ResponseOptions {
   p: number;
   /** The storage horizon in days (default 10 years). */
   horizonDays: number;
+  /** Specimen-history covariates added to the models (lib/analysis/humidity-covariates.ts); none by default. */
+  covariates?: readonly ("chloride" | "initialMass")[];
 }
 
 export const DEFAULT_RESPONSE_OPTIONS: ResponseOptions = { p: 0.1, horizonDays: 3652.5 };

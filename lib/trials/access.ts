@@ -97,3 +97,35 @@ export function auditEventForViewer<T extends AuditEventView>(event: T, viewer: 
   const hidden = !!event.trialId && viewer.blindTrialIds.has(event.trialId) && event.userId !== viewer.userId;
   return hidden ? { ...event, summary: BLIND_HIDDEN, before: null, after: null, hidden } : { ...event, hidden };
 }
+
+type PlacementSpan = { trialId: string; fromAt: Date | string | null };
+
+/**
+ * A specimen's history (weighings, chloride and akaganeite findings, treatments) as a blind scorer
+ * may see it: prior treatments and earlier findings are history, not the arm, and stay visible; an
+ * entry dated on or after the day the specimen entered a trial the viewer scores blind is hidden
+ * (a weighing or a treatment recorded during the trial can tell a coated arm from a bare one).
+ * Returns the entries shown and how many were hidden.
+ */
+export function historyForViewer<T extends { on: string }>(entries: readonly T[], placements: readonly PlacementSpan[], blindTrialIds: ReadonlySet<string>): { shown: T[]; hidden: number } {
+  const starts = placements.filter((p) => p.fromAt && blindTrialIds.has(p.trialId)).map((p) => new Date(p.fromAt!).toISOString().slice(0, 10));
+  if (starts.length === 0) return { shown: entries.slice(), hidden: 0 };
+  const from = starts.reduce((a, b) => (a < b ? a : b));
+  const shown = entries.filter((e) => e.on < from);
+  return { shown, hidden: entries.length - shown.length };
+}
+
+/**
+ * The trial a history entry dated `on` belongs to, for its audit event (so the audit trail hides it
+ * from that trial's blind scorers as historyForViewer hides it on the page): the latest placement of
+ * the specimen that had started by that day; null before any placement.
+ */
+export function trialOfHistoryDate(on: string, placements: readonly PlacementSpan[]): string | null {
+  let best: { trialId: string; start: string } | null = null;
+  for (const p of placements) {
+    if (!p.fromAt) continue;
+    const start = new Date(p.fromAt).toISOString().slice(0, 10);
+    if (start <= on && (!best || start >= best.start)) best = { trialId: p.trialId, start };
+  }
+  return best?.trialId ?? null;
+}

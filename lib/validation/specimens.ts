@@ -38,6 +38,9 @@ export const specimenSchema = z.object({
   surfacePrep: text(300, "Surface preparation"),
   massG: z.preprocess(optionalNumber, z.coerce.number("Mass must be a number of grams.").positive("Mass must be above 0 g.").max(1_000_000, "Mass must be at most 1,000,000 g (1 t).").optional()),
   history: text(4000, "History"),
+  parentPiece: text(200, "Parent piece"),
+  slice: text(60, "Slice"),
+  provenance: text(4000, "Provenance"),
   contaminationNotes: text(4000, "Contamination notes"),
 });
 export type SpecimenInput = z.infer<typeof specimenSchema>;

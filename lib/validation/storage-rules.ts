@@ -2,6 +2,7 @@
 // rule: one schema each, for the page's URL, the form and the JSON API alike.
 import { z } from "zod";
 import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-result";
+import { RESPONSE_COVARIATES } from "@/lib/analysis/humidity-covariates";
 import { MATERIAL_CLASSES } from "./specimens";
 
 const YEAR_DAYS = 365.25;
@@ -15,10 +16,17 @@ const pool = z.preprocess(
   z.array(z.uuid({ error: "Pick trials from the list." })).max(10, "Pool at most 10 trials."),
 );
 
+/** Specimen-history covariates for the page's models (never part of an accepted storage rule). */
+const covariates = z.preprocess(
+  (v) => { const list = typeof v === "string" ? v.split(",").filter(Boolean) : v ?? []; return Array.isArray(list) ? [...new Set(list)] : list; },
+  z.array(z.enum(RESPONSE_COVARIATES, { error: `Covariates are ${RESPONSE_COVARIATES.join(" and ")}.` })).max(RESPONSE_COVARIATES.length),
+);
+
 export const responseQuerySchema = z.object({
   share: sharePercent.default(DEFAULT_RESPONSE_OPTIONS.p * 100),
   horizon: horizonYears.default(DEFAULT_RESPONSE_OPTIONS.horizonDays / YEAR_DAYS),
   pool,
+  cov: covariates,
 });
 export type ResponseQuery = z.infer<typeof responseQuerySchema>;
 
@@ -43,6 +51,9 @@ export function responsePageQuery(raw: Record<string, string | string[] | undefi
   const p = pool.safeParse(raw.pool === undefined ? [] : Array.isArray(raw.pool) ? raw.pool : one("pool"));
   if (p.success) query.pool = p.data;
   else problems.push(`${p.error.issues[0].message} No trials are pooled.`);
+  const c = covariates.safeParse(raw.cov === undefined ? [] : Array.isArray(raw.cov) ? raw.cov : one("cov"));
+  if (c.success) query.cov = c.data;
+  else problems.push(`${c.error.issues[0].message} No history covariates are used.`);
   return { query, problems };
 }
 

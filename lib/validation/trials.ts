@@ -132,15 +132,21 @@ const optionalDateTime = z.preprocess((v) => (v === "" || v == null ? undefined 
 const reason = z.string().trim().min(5, "Give a reason (at least 5 characters); it goes into the audit trail.").max(1000, "Use at most 1000 characters.");
 const trialId = z.uuid("Unknown trial.");
 
+/** Specimen-history blocking factors offered beside the material class (lib/allocation/allocate.ts). */
+export const HISTORY_BLOCK_FACTORS = ["parentPiece", "chlorideState"] as const;
+export const historyBlockFactors = z.array(z.enum(HISTORY_BLOCK_FACTORS, "Block by parent piece or chloride test result only.")).max(2).default([]);
+
 export const allocationSchema = z.preprocess((raw) => {
   if (typeof raw !== "object" || raw === null) return raw;
   const r = raw as Record<string, unknown>;
-  return { ...r, specimenIds: Array.isArray(r.specimenIds) ? r.specimenIds : list(r, "specimenIds"), blockByMaterial: r.blockByMaterial === true || r.blockByMaterial === "on" || r.blockByMaterial === "1" };
+  return { ...r, specimenIds: Array.isArray(r.specimenIds) ? r.specimenIds : list(r, "specimenIds"), blockByMaterial: r.blockByMaterial === true || r.blockByMaterial === "on" || r.blockByMaterial === "1",
+    blockFactors: Array.isArray(r.blockFactors) ? r.blockFactors : list(r, "blockFactors") };
 }, z.object({
   trialId,
   specimenIds: z.array(z.uuid()).min(1, "Choose the specimens to allocate.").max(5000, "At most 5000 specimens."),
   seed: z.string().trim().min(1, "Enter a seed (any word or number).").max(100, "Use at most 100 characters."),
   blockByMaterial: z.boolean(),
+  blockFactors: historyBlockFactors,
 }));
 
 export const swapSchema = z.object({ trialId, specimenA: z.uuid("Choose the first specimen."), specimenB: z.uuid("Choose the second specimen."), reason })

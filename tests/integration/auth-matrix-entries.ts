@@ -42,6 +42,7 @@ const CHAMBER = "app/_actions/chamber-records.ts";
 const CHAMBERS = "app/_actions/chambers.ts";
 const SETTINGS = "app/_actions/settings.ts";
 const SPECIMENS = "app/_actions/specimens.ts";
+const HISTORY = "app/_actions/specimen-history.ts";
 const TREATMENTS = "app/_actions/treatments.ts";
 const SCORE = "app/_actions/scores.ts";
 const PHOTOS = "app/_actions/photos.ts";
@@ -69,6 +70,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SPECIMENS}#createSpecimenAction`]: { permission: "specimens.write", empty: "invalid" },
   [`${SPECIMENS}#updateSpecimenAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, label: "TAKEN-1", materialClass: "steel-coupon" }) },
   [`${SPECIMENS}#importSpecimensAction`]: { permission: "specimens.write", empty: "invalid" },
+  [`${HISTORY}#addSpecimenHistoryAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, kind: "mass", measuredOn: "2026-01-05", mass: "12.3456", unit: "g" }) },
   [`${TREATMENTS}#createTreatmentAction`]: { permission: "treatments.write", empty: "invalid" },
   [`${TREATMENTS}#updateTreatmentAction`]: { permission: "treatments.write", empty: "invalid", foreign: (f) => ({ treatmentId: f.treatmentId, name: "Taken over", kind: "control" }) },
   // Looking after a recorded photo is part of taking photos (the same roles as uploading them).

@@ -8,6 +8,10 @@ import { can } from "@/lib/auth/permissions";
 import { formatDateTime, formatNumber } from "@/lib/format";
 import { MATERIAL_CLASS_LABELS } from "@/lib/validation/specimens";
 import { EmptyState } from "@/components/ui/empty-state";
+import { loadSpecimenHistory } from "@/db/queries/specimen-history";
+import { latestToday } from "@/lib/specimens/history";
+import { HistoryForm } from "@/components/specimens/history-form";
+import { SpecimenHistory } from "@/components/specimens/specimen-history";
 
 export const metadata = { title: "Specimen" };
 
@@ -27,6 +31,7 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
   if (!specimen) notFound();
   const [rawPlacements, blindIn] = await Promise.all([listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId })]);
   const placements = hideArmsOfTrials(rawPlacements, blindIn);
+  const history = await loadSpecimenHistory({ labId: ctx.labId, specimenId, blindTrialIds: blindIn });
   return (
     <div className="space-y-6">
       <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>
@@ -48,8 +53,20 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
         <dl className="grid gap-4 md:grid-cols-3 mt-4">
           <Fact term="Description">{specimen.description}</Fact>
           <Fact term="History">{specimen.history}</Fact>
+          <Fact term="Provenance">{specimen.provenance}</Fact>
+          <Fact term="Parent piece and slice">{[specimen.parentPiece, specimen.slice].filter(Boolean).join(", slice ")}</Fact>
           <Fact term="Contamination notes">{specimen.contaminationNotes}</Fact>
         </dl>
+      </section>
+      <section className="space-y-2" aria-labelledby="history-h">
+        <h2 id="history-h" className="text-lg font-semibold">Specimen history</h2>
+        <SpecimenHistory history={history} />
+        {can(ctx.role, "specimens.write") && (
+          <details className="panel p-4">
+            <summary className="cursor-pointer font-medium">Record a weighing, test, check or treatment</summary>
+            <div className="mt-3"><HistoryForm specimenId={specimen.id} today={new Date().toISOString().slice(0, 10)} maxDate={latestToday()} /></div>
+          </details>
+        )}
       </section>
       <section className="space-y-2" aria-labelledby="placements-h">
         <h2 id="placements-h" className="text-lg font-semibold">Placement history</h2>

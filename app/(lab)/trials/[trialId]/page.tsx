@@ -2,6 +2,7 @@ import Link from "next/link";
 import { listTrialInspections } from "@/db/queries/inspections";
 import { hasAllocation, listArms, listPeopleChoices, listTrialMembers, listTrialNotes } from "@/db/queries/trials";
 import { trialPage } from "@/lib/auth/page";
+import { blockText } from "@/lib/allocation/allocate";
 import { can } from "@/lib/auth/permissions";
 import { teamRights } from "@/lib/trials/team";
 import { designWarnings } from "@/lib/trials/design-checks";
@@ -52,7 +53,7 @@ export default async function TrialOverviewPage({ params }: { params: Promise<{ 
         <div><dt className="text-xs muted">Primary outcome</dt><dd>{PRIMARY_OUTCOMES[trial.primaryOutcome as PrimaryOutcome] ?? trial.primaryOutcome}</dd></div>
         {trial.hypothesis && <div className="md:col-span-3"><dt className="text-xs muted">Hypothesis</dt><dd className="whitespace-pre-wrap">{trial.hypothesis}</dd></div>}
         <div><dt className="text-xs muted">Arms</dt><dd>{arms.length} (chambers × treatments) × {trial.replicatesPerArm} replicate{trial.replicatesPerArm === 1 ? "" : "s"}</dd></div>
-        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated || trial.allocationSeed ? <>{access.blind ? "seed hidden from blind scorers" : <>seed <span className="font-mono">{trial.allocationSeed}</span></>}{trial.blockByMaterial ? ", blocked by material class" : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
+        <div><dt className="text-xs muted">Allocation</dt><dd>{allocated || trial.allocationSeed ? <>{access.blind ? "seed hidden from blind scorers" : <>seed <span className="font-mono">{trial.allocationSeed}</span></>}{trial.blockByMaterial || trial.blockFactors.length ? `, ${blockText(trial)}` : ""}</> : "not yet"} · <Link className="link" href={`${base}/allocation`}>table</Link></dd></div>
         <div><dt className="text-xs muted">Inspection plan</dt><dd>{planText(trial.schedulePlan)}</dd></div>
         {trial.status !== "draft" && <div><dt className="text-xs muted">Inspections</dt><dd>{done} of {inspections.length} done{next ? <> · next: <Link className="link" href={`${base}/inspections/${next.id}`}>day {next.dayNumber}, {formatDateTime(next.plannedAt)}</Link> ({next.status})</> : ""}</dd></div>}
       </dl>

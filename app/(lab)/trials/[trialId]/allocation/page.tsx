@@ -3,6 +3,7 @@ import { listSpecimenChoices } from "@/db/queries/specimens";
 import { newSeed } from "@/db/queries/trials-allocation";
 import { listAllocation, listArms, listTrialPlacements } from "@/db/queries/trials";
 import { trialPage } from "@/lib/auth/page";
+import { blockText } from "@/lib/allocation/allocate";
 import { hideArms } from "@/lib/trials/access";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -53,7 +54,7 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
           <h2 id="alloc-form-h" className="font-semibold">{rows.length ? "Re-roll while the trial is a draft" : "Allocate at random"}</h2>
           {arms.length === 0 ? <EmptyState text="The trial has no arms yet. Pick chambers and treatments in the design." action={{ href: `/trials/${trial.id}/edit`, label: "Edit the design" }} /> : (
             <AllocationForm trialId={trial.id} specimens={choices} initialSelected={rawRows.map((r) => r.specimenId)} seed={trial.allocationSeed ?? newSeed()}
-              blockByMaterial={trial.blockByMaterial} needed={needed} allocated={rows.length > 0} />
+              blockByMaterial={trial.blockByMaterial} blockFactors={trial.blockFactors} needed={needed} allocated={rows.length > 0} />
           )}
         </section>
       )}
@@ -65,18 +66,18 @@ export default async function AllocationPage({ params }: { params: Promise<{ tri
         ) : (
           <>
             <p className="text-sm">
-              {blind ? "Seed hidden while you score blind" : <>Seed <span className="font-mono">{trial.allocationSeed}</span></>} · {trial.blockByMaterial ? "blocked by material class" : "not blocked"} · {arms.length} arms × {trial.replicatesPerArm} replicates · printed {formatDateTime(new Date())}
+              {blind ? "Seed hidden while you score blind" : <>Seed <span className="font-mono">{trial.allocationSeed}</span></>} · {blockText(trial)} · {arms.length} arms × {trial.replicatesPerArm} replicates · printed {formatDateTime(new Date())}
             </p>
             <p className="text-xs muted">Reproducible: the allocation depends only on the seed, the specimen labels and the arm labels below (lib/allocation, specimens and arms sorted by label before any random draw).</p>
             <table className="data">
               <caption className="sr-only">Specimen to arm</caption>
-              <thead><tr><th scope="col">Arm (chamber / treatment)</th><th scope="col">Specimen</th><th scope="col">Material class (block)</th><th scope="col">Note</th></tr></thead>
+              <thead><tr><th scope="col">Arm (chamber / treatment)</th><th scope="col">Specimen</th><th scope="col">{trial.blockFactors.length ? "Block" : "Material class (block)"}</th><th scope="col">Note</th></tr></thead>
               <tbody>
                 {assigned.map((r) => (
                   <tr key={r.specimenId}>
                     <td>{r.armLabel ?? <span className="muted">hidden</span>}</td>
                     <td className="font-medium">{r.label}</td>
-                    <td>{MATERIAL_CLASS_LABELS[r.materialClass as MaterialClass]}</td>
+                    <td>{trial.blockFactors.length ? r.blockKey : MATERIAL_CLASS_LABELS[r.materialClass as MaterialClass]}</td>
                     <td className="text-xs">{r.swapReason ? `swapped: ${r.swapReason}` : ""}</td>
                   </tr>
                 ))}

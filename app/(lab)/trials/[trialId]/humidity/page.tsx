@@ -8,6 +8,7 @@ import { can } from "@/lib/auth/permissions";
 import { MIN_HUMIDITY_LEVELS, type Threshold } from "@/lib/analysis/humidity-result";
 import { formatHorizon } from "@/lib/analysis/humidity-sentences";
 import { responseOptions, responsePageQuery } from "@/lib/validation/storage-rules";
+import { COVARIATE_LABELS, RESPONSE_COVARIATES } from "@/lib/analysis/humidity-covariates";
 import { AcceptRuleForm } from "@/components/analysis/accept-rule-form";
 import { modelCheckSpec, responseSpec } from "@/components/analysis/humidity-specs";
 import { fmtStat } from "@/components/analysis/format";
@@ -34,12 +35,13 @@ export default async function HumidityPage({ params, searchParams }: { params: P
   // Trials that can be pooled: the lab's others with scores, except those the viewer scores blind.
   const poolable = candidates.filter((t) => t.id !== trial.id && t.recordScores > 0 && !blind.has(t.id));
   const pool = q.pool.filter((id) => poolable.some((t) => t.id === id));
-  const options = responseOptions(q);
+  // History covariates are for reading the models; a storage rule is accepted from the model without them.
+  const options = { ...responseOptions(q), covariates: q.cov };
   const [{ response: r, jars, trials, movedLeftOut }, rules] = await Promise.all([
     loadHumidityResponse({ labId: ctx.labId, trial, poolTrialIds: pool, options }),
     listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id }),
   ]);
-  const mayAccept = can(ctx.role, "storageRules.accept");
+  const mayAccept = can(ctx.role, "storageRules.accept") && q.cov.length === 0;
   const pct = `${+(options.p * 100).toFixed(1)} %`;
   const horizon = formatHorizon(options.horizonDays);
 
@@ -74,6 +76,17 @@ export default async function HumidityPage({ params, searchParams }: { params: P
             </div>
           </fieldset>
         )}
+        <fieldset className="space-y-1">
+          <legend className="text-sm font-medium">Specimen history in the models</legend>
+          <div className="flex flex-wrap gap-3">
+            {RESPONSE_COVARIATES.map((c) => (
+              <label key={c} className="flex items-center gap-1 text-sm">
+                <input type="checkbox" name="cov" value={c} defaultChecked={q.cov.includes(c)} /> {COVARIATE_LABELS[c]}
+              </label>
+            ))}
+          </div>
+          {q.cov.length > 0 && <p className="text-xs muted max-w-md">Curves and thresholds are drawn for specimens without chloride found and of mean initial mass. Storage rules are accepted from the model without these covariates.</p>}
+        </fieldset>
         <button type="submit" className="btn">Update</button>
       </form>
 

@@ -1,0 +1,68 @@
+// A specimen's history on its page: summary, weighings with mass change, tests, checks, treatments.
+import type { loadSpecimenHistory } from "@/db/queries/specimen-history";
+import { CHLORIDE_STATE_LABELS, type MassStep } from "@/lib/specimens/history";
+import { AKAGANEITE_METHOD_LABELS, CHLORIDE_METHOD_LABELS } from "@/lib/validation/specimen-history";
+import { BLIND_HIDDEN } from "@/lib/trials/access";
+
+type History = Awaited<ReturnType<typeof loadSpecimenHistory>>;
+
+const signed = (x: number, digits: number) => `${x > 0 ? "+" : x < 0 ? "−" : "±"}${Math.abs(x).toFixed(digits)}`;
+
+function Change({ s }: { s: MassStep | null }) {
+  if (!s) return <span className="muted">first weighing</span>;
+  return (
+    <span className="whitespace-nowrap">
+      {signed(s.changeG, 4)}&#8239;g ({signed(s.changePercent, 3)}&#8239;%) over {s.days} d
+      {s.gPerDay !== null && <span className="muted"> · {signed(s.gPerDay * 1000, 3)}&#8239;mg/d, {signed(s.percentPerDay!, 4)}&#8239;%/d</span>}
+    </span>
+  );
+}
+
+function Table({ caption, head, children }: { caption: string; head: string[]; children: React.ReactNode }) {
+  return (
+    <div className="panel overflow-x-auto">
+      <table className="data">
+        <caption className="text-left font-medium p-2">{caption}</caption>
+        <thead><tr>{head.map((h) => <th key={h} scope="col">{h}</th>)}</tr></thead>
+        <tbody>{children}</tbody>
+      </table>
+    </div>
+  );
+}
+
+export function SpecimenHistory({ history }: { history: History }) {
+  const { weighings, chlorideTests, akaganeiteChecks, priorTreatments } = history;
+  const last = weighings.at(-1);
+  return (
+    <div className="space-y-4">
+      <dl className="grid gap-4 md:grid-cols-3 panel p-4">
+        <div><dt className="text-xs muted">Chloride (latest test)</dt><dd>{CHLORIDE_STATE_LABELS[history.chlorideState]}</dd></div>
+        <div><dt className="text-xs muted">Akaganeite</dt><dd>{history.akaganeiteSeen === null ? "not checked" : history.akaganeiteSeen ? "seen" : "not seen"}</dd></div>
+        <div><dt className="text-xs muted">Mass change since first weighing</dt><dd>{last?.sinceFirst ? <Change s={last.sinceFirst} /> : weighings.length ? "one weighing so far" : "not weighed"}</dd></div>
+      </dl>
+      {history.hidden > 0 && <p className="text-sm muted">{history.hidden} later entr{history.hidden === 1 ? "y is" : "ies are"} {BLIND_HIDDEN}.</p>}
+      {weighings.length > 0 && (
+        <Table caption="Weighings" head={["Weighed on", "Mass (g)", "Since previous", "Since first", "Notes"]}>
+          {weighings.map((w) => (
+            <tr key={w.id}><td>{w.measuredOn}</td><td className="font-mono">{w.massG}</td><td><Change s={w.sincePrevious} /></td><td>{w.sinceFirst ? <Change s={w.sinceFirst} /> : "—"}</td><td>{w.notes}</td></tr>
+          ))}
+        </Table>
+      )}
+      {chlorideTests.length > 0 && (
+        <Table caption="Chloride tests" head={["Tested on", "Method", "Result", "Notes"]}>
+          {chlorideTests.map((c) => <tr key={c.id}><td>{c.testedOn}</td><td>{CHLORIDE_METHOD_LABELS[c.method as keyof typeof CHLORIDE_METHOD_LABELS] ?? c.method}</td><td>{c.result}</td><td>{c.notes}</td></tr>)}
+        </Table>
+      )}
+      {akaganeiteChecks.length > 0 && (
+        <Table caption="Akaganeite checks" head={["Checked on", "Method", "Seen", "Notes"]}>
+          {akaganeiteChecks.map((a) => <tr key={a.id}><td>{a.checkedOn}</td><td>{AKAGANEITE_METHOD_LABELS[a.method as keyof typeof AKAGANEITE_METHOD_LABELS] ?? a.method}</td><td>{a.seen ? "yes" : "no"}</td><td>{a.notes}</td></tr>)}
+        </Table>
+      )}
+      {priorTreatments.length > 0 && (
+        <Table caption="Earlier treatments" head={["Treated on", "Treatment", "Notes"]}>
+          {priorTreatments.map((t) => <tr key={t.id}><td>{t.treatedOn}</td><td>{t.treatment}</td><td>{t.notes}</td></tr>)}
+        </Table>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,124 @@
+import "server-only";
+// A specimen's history: chloride tests, akaganeite checks, prior treatments and weighings. Rules
+// (exact masses, mass change, chloride state) come from lib/specimens/history.ts; what a blind
+// scorer may see from lib/trials/access.ts.
+import { and, asc, eq, inArray } from "drizzle-orm";
+import type { PgColumn } from "drizzle-orm/pg-core";
+import { AppError } from "@/lib/auth/errors";
+import { isUuid } from "@/lib/ids";
+import { akaganeiteSeenOf, chlorideStateOf, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
+import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
+import type { HistoryEntryInput } from "@/lib/validation/specimen-history";
+import { recordAudit } from "../audit";
+import { db } from "../client";
+import { akaganeiteChecks, chlorideTests, massMeasurements, placements, priorTreatments, specimens } from "../schema";
+import { assertAllowed, type Actor } from "./specimens";
+
+const notFound = () => new AppError("not-found", "No such specimen in this lab.");
+
+/** Record one dated history entry of a specimen of the actor's lab, with its audit event. */
+export async function addHistoryEntry({ actor, input }: { actor: Actor; input: HistoryEntryInput }) {
+  assertAllowed(actor, "specimens.write");
+  if (!isUuid(input.specimenId)) throw notFound();
+  return db.transaction(async (tx) => {
+    const [specimen] = await tx.select({ id: specimens.id, label: specimens.label }).from(specimens)
+      .where(and(eq(specimens.labId, actor.labId), eq(specimens.id, input.specimenId))).for("share");
+    if (!specimen) throw notFound();
+    const spans = await tx.select({ trialId: placements.trialId, fromAt: placements.fromAt }).from(placements)
+      .where(and(eq(placements.labId, actor.labId), eq(placements.specimenId, specimen.id)));
+    const own = { labId: actor.labId, specimenId: specimen.id, notes: input.notes, createdBy: actor.userId };
+    let row: { id: string };
+    let entity: string;
+    let summary: string;
+    let on: string;
+    switch (input.kind) {
+      case "chloride":
+        [row] = await tx.insert(chlorideTests).values({ ...own, testedOn: input.testedOn, method: input.method, result: input.result }).returning();
+        entity = "chloride_test"; on = input.testedOn;
+        summary = `Chloride test of ${specimen.label} on ${on}: ${input.result}`;
+        break;
+      case "akaganeite":
+        [row] = await tx.insert(akaganeiteChecks).values({ ...own, checkedOn: input.checkedOn, method: input.method, seen: input.seen === "yes" }).returning();
+        entity = "akaganeite_check"; on = input.checkedOn;
+        summary = `Akaganeite check of ${specimen.label} on ${on}: ${input.seen === "yes" ? "seen" : "not seen"}`;
+        break;
+      case "treatment":
+        [row] = await tx.insert(priorTreatments).values({ ...own, treatedOn: input.treatedOn, treatment: input.treatment }).returning();
+        entity = "prior_treatment"; on = input.treatedOn;
+        summary = `Treatment of ${specimen.label} on ${on} recorded`;
+        break;
+      case "mass": {
+        const massG = tenthMgToGramsText(massToTenthMg(input.mass, input.unit)!);
+        [row] = await tx.insert(massMeasurements).values({ ...own, measuredOn: input.measuredOn, massG }).returning();
+        entity = "mass_measurement"; on = input.measuredOn;
+        summary = `Weighing of ${specimen.label} on ${on}: ${massG} g`;
+        break;
+      }
+    }
+    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(on, spans), action: "create", summary, after: row });
+    return { id: row.id, specimenLabel: specimen.label };
+  });
+}
+
+/** Everything recorded about one specimen, oldest first, as the viewer may see it (blind scorers: see historyForViewer). */
+export async function loadSpecimenHistory({ labId, specimenId, blindTrialIds }: { labId: string; specimenId: string; blindTrialIds: ReadonlySet<string> }) {
+  if (!isUuid(specimenId)) throw notFound();
+  const mine = (t: { labId: PgColumn; specimenId: PgColumn }) => and(eq(t.labId, labId), eq(t.specimenId, specimenId));
+  const [chloride, akaganeite, treatments, weighings, spans] = await Promise.all([
+    db.select().from(chlorideTests).where(mine(chlorideTests)).orderBy(asc(chlorideTests.testedOn), asc(chlorideTests.createdAt)),
+    db.select().from(akaganeiteChecks).where(mine(akaganeiteChecks)).orderBy(asc(akaganeiteChecks.checkedOn), asc(akaganeiteChecks.createdAt)),
+    db.select().from(priorTreatments).where(mine(priorTreatments)).orderBy(asc(priorTreatments.treatedOn), asc(priorTreatments.createdAt)),
+    db.select().from(massMeasurements).where(mine(massMeasurements)).orderBy(asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
+    db.select({ trialId: placements.trialId, fromAt: placements.fromAt }).from(placements).where(and(eq(placements.labId, labId), eq(placements.specimenId, specimenId))),
+  ]);
+  const view = <T,>(rows: T[], on: (r: T) => string) => historyForViewer(rows.map((x) => ({ ...x, on: on(x) })), spans, blindTrialIds);
+  const c = view(chloride, (r) => r.testedOn);
+  const a = view(akaganeite, (r) => r.checkedOn);
+  const t = view(treatments, (r) => r.treatedOn);
+  const m = view(weighings, (r) => r.measuredOn);
+  return {
+    chlorideTests: c.shown, akaganeiteChecks: a.shown, priorTreatments: t.shown,
+    weighings: massChanges(m.shown),
+    chlorideState: chlorideStateOf(c.shown), akaganeiteSeen: akaganeiteSeenOf(a.shown),
+    hidden: c.hidden + a.hidden + t.hidden + m.hidden,
+  };
+}
+
+export type HistoryFactors = { chlorideState: ChlorideState; akaganeiteSeen: boolean | null; initialMassG: number | null };
+
+/**
+ * Per specimen, what its history says before a given day (a trial's allocation or start): the
+ * chloride state of the latest test, whether akaganeite was ever seen, and the first weighing.
+ * Used as blocking factors in allocation and as covariates in the humidity-response models.
+ */
+export async function loadHistoryFactors({ labId, specimenIds, before }: { labId: string; specimenIds: readonly string[]; before?: string }): Promise<Map<string, HistoryFactors>> {
+  const ids = [...new Set(specimenIds)].filter(isUuid);
+  const out = new Map<string, HistoryFactors>(ids.map((id) => [id, { chlorideState: "untested", akaganeiteSeen: null, initialMassG: null }]));
+  if (ids.length === 0) return out;
+  const [chloride, akaganeite, weighings] = await Promise.all([
+    db.select({ specimenId: chlorideTests.specimenId, testedOn: chlorideTests.testedOn, result: chlorideTests.result, createdAt: chlorideTests.createdAt }).from(chlorideTests)
+      .where(and(eq(chlorideTests.labId, labId), inArray(chlorideTests.specimenId, ids))),
+    db.select({ specimenId: akaganeiteChecks.specimenId, checkedOn: akaganeiteChecks.checkedOn, seen: akaganeiteChecks.seen }).from(akaganeiteChecks)
+      .where(and(eq(akaganeiteChecks.labId, labId), inArray(akaganeiteChecks.specimenId, ids))),
+    db.select({ specimenId: massMeasurements.specimenId, measuredOn: massMeasurements.measuredOn, massG: massMeasurements.massG }).from(massMeasurements)
+      .where(and(eq(massMeasurements.labId, labId), inArray(massMeasurements.specimenId, ids))).orderBy(asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
+  ]);
+  const inTime = (on: string) => before === undefined || on < before;
+  const group = <T extends { specimenId: string }>(rows: T[]) => {
+    const m = new Map<string, T[]>();
+    for (const r of rows) m.set(r.specimenId, [...(m.get(r.specimenId) ?? []), r]);
+    return m;
+  };
+  const cBy = group(chloride.filter((r) => inTime(r.testedOn)));
+  const aBy = group(akaganeite.filter((r) => inTime(r.checkedOn)));
+  const wBy = group(weighings.filter((r) => inTime(r.measuredOn)));
+  for (const id of ids) {
+    const first = wBy.get(id)?.[0];
+    out.set(id, {
+      chlorideState: chlorideStateOf(cBy.get(id) ?? []),
+      akaganeiteSeen: akaganeiteSeenOf(aBy.get(id) ?? []),
+      initialMassG: first ? Number(first.massG) : null,
+    });
+  }
+  return out;
+}
