@@ -2,7 +2,8 @@ import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images/specimen-face";
 import { pointInPolygon } from "@/lib/scoring/geometry";
-import { estimateRustFraction, isRustColour, rustMask, srgbToLab } from "@/lib/scoring/rust-estimate";
+import { srgbToLab } from "@/lib/scoring/colour-space";
+import { estimateRustFraction, isRustColour, rustMask } from "@/lib/scoring/rust-estimate";
 
 const W = 800;
 const H = 600;
@@ -108,8 +109,8 @@ describe("rustMask", () => {
       for (let x = 0; x < W; x++) {
         const inside = pointInPolygon({ x: x + 0.5, y: y + 0.5 }, img.face);
         if (inside) facePixels++;
-        rust += mask[y * W + x];
-        if (!inside && mask[y * W + x] === 1) rustOutside++;
+        if (mask[y * W + x] > 0) rust++;
+        if (!inside && mask[y * W + x] > 0) rustOutside++;
       }
     }
     expect(rust).toBeGreaterThan(0);
