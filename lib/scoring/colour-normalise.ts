@@ -66,6 +66,11 @@ export function measurePatch(image: RgbaImage, rect: PatchRect): PatchStats {
   return { pixels: n, meanLinear: [sr / n, sg / n, sb / n], clippedFraction: clipped / n };
 }
 
+/** What a recorded colour estimate was read from: the grey patch and its gains, or the pixels as they were. */
+export type EstimateColourBasis =
+  | { normalised: false }
+  | { normalised: true; patch: PatchRect; patchLightness: number; meanLinear: [number, number, number]; gains: [number, number, number] };
+
 export type PatchProblem = "too-small" | "clipped" | "too-dark" | "not-neutral";
 
 /** Why a patch cannot be used, as a sentence for the field; null when it can. */
