@@ -127,3 +127,14 @@ export function normaliseImage(image: RgbaImage, gains: readonly [number, number
 export function meanSrgb8(stats: PatchStats): [number, number, number] {
   return [linearToSrgb8(stats.meanLinear[0]), linearToSrgb8(stats.meanLinear[1]), linearToSrgb8(stats.meanLinear[2])];
 }
+
+/** The basis a recorded estimate keeps when it was read through a grey patch (gains recomputed from the reading). */
+export function normalisedBasis(patch: PatchRect & { patchLightness: number } & PatchStats): EstimateColourBasis {
+  return {
+    normalised: true,
+    patch: { x: patch.x, y: patch.y, width: patch.width, height: patch.height },
+    patchLightness: patch.patchLightness,
+    meanLinear: [...patch.meanLinear],
+    gains: patchGains(patch, patch.patchLightness),
+  };
+}
