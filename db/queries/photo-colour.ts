@@ -44,16 +44,23 @@ export async function saveColourPatch(tx: Tx, actor: { labId: string; userId: st
   return after;
 }
 
-/** The grey patch of a photo, else the one on the latest earlier photo of the same specimen; null when none. */
-export async function colourPatchForPage({ labId, photo }: { labId: string; photo: Pick<PhotoRow, "id" | "specimenId" | "createdAt"> }): Promise<PatchOnPage | null> {
+/**
+ * The grey patch of a photo; with `previous`, else the one on the latest earlier photo of the same
+ * specimen (position only); null when none. Blind scoring passes previous: false, since a patch
+ * carried over would tie a photo to the specimen's earlier photos.
+ */
+export async function colourPatchForPage({ labId, photoId, previous }: { labId: string; photoId: string; previous: boolean }): Promise<PatchOnPage | null> {
   const pick = { x: photoColourPatches.x, y: photoColourPatches.y, width: photoColourPatches.width, height: photoColourPatches.height, patchLightness: photoColourPatches.patchLightness };
   const [own] = await db.select(pick).from(photoColourPatches)
-    .where(and(eq(photoColourPatches.labId, labId), eq(photoColourPatches.photoId, photo.id)));
+    .where(and(eq(photoColourPatches.labId, labId), eq(photoColourPatches.photoId, photoId)));
   if (own) return { ...own, from: "this-photo" };
+  if (!previous) return null;
+  const [photo] = await db.select({ specimenId: photos.specimenId, createdAt: photos.createdAt }).from(photos).where(and(eq(photos.labId, labId), eq(photos.id, photoId)));
+  if (!photo) return null;
   const [earlier] = await db.select(pick).from(photoColourPatches)
     .innerJoin(photos, eq(photos.id, photoColourPatches.photoId))
     .where(and(eq(photoColourPatches.labId, labId), eq(photos.labId, labId), eq(photos.specimenId, photo.specimenId),
-      ne(photos.id, photo.id), lt(photos.createdAt, photo.createdAt)))
+      ne(photos.id, photoId), lt(photos.createdAt, photo.createdAt)))
     .orderBy(desc(photos.createdAt))
     .limit(1);
   return earlier ? { ...earlier, from: "previous-photo" } : null;

@@ -69,7 +69,11 @@ export function measurePatch(image: RgbaImage, rect: PatchRect): PatchStats {
 /** What a recorded colour estimate was read from: the grey patch and its gains, or the pixels as they were. */
 export type EstimateColourBasis =
   | { normalised: false }
-  | { normalised: true; patch: PatchRect; patchLightness: number; meanLinear: [number, number, number]; gains: [number, number, number] };
+  | {
+    normalised: true; patch: PatchRect; patchLightness: number;
+    /** The patch's reading (PatchStats) and the gains made from it. */
+    meanLinear: [number, number, number]; clippedFraction: number; pixels: number; gains: [number, number, number];
+  };
 
 export type PatchProblem = "too-small" | "clipped" | "too-dark" | "not-neutral";
 
@@ -135,6 +139,8 @@ export function normalisedBasis(patch: PatchRect & { patchLightness: number } & 
     patch: { x: patch.x, y: patch.y, width: patch.width, height: patch.height },
     patchLightness: patch.patchLightness,
     meanLinear: [...patch.meanLinear],
+    clippedFraction: patch.clippedFraction,
+    pixels: patch.pixels,
     gains: patchGains(patch, patch.patchLightness),
   };
 }

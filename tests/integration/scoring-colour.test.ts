@@ -122,12 +122,14 @@ describe("saving the patch with the score", () => {
     expect((await row()).autoEstimateColour).toBeNull();
   });
 
-  it("the specimen's next photo starts from this photo's patch; another lab sees none", async () => {
-    const photos = await db.select().from(s.photos).where(inArray(s.photos.id, [first.photoId, second.photoId]));
-    const p1 = photos.find((p) => p.id === first.photoId)!;
-    const p2 = photos.find((p) => p.id === second.photoId)!;
-    expect(await colourPatchForPage({ labId: lab.labId, photo: p1 })).toEqual({ ...RECT, patchLightness: 50, from: "this-photo" });
-    expect(await colourPatchForPage({ labId: lab.labId, photo: p2 })).toEqual({ ...RECT, patchLightness: 50, from: "previous-photo" });
-    expect(await colourPatchForPage({ labId: other.labId, photo: p2 })).toBeNull();
+  it("the specimen's next photo starts from this photo's patch, except when scoring blind; another lab sees none", async () => {
+    const p1 = { photoId: first.photoId, previous: true };
+    const p2 = { photoId: second.photoId, previous: true };
+    expect(await colourPatchForPage({ labId: lab.labId, ...p1 })).toEqual({ ...RECT, patchLightness: 50, from: "this-photo" });
+    expect(await colourPatchForPage({ labId: lab.labId, ...p2 })).toEqual({ ...RECT, patchLightness: 50, from: "previous-photo" });
+    // Blind: no carrying over, which would tie the photo to the specimen's earlier ones.
+    expect(await colourPatchForPage({ labId: lab.labId, ...p2, previous: false })).toBeNull();
+    expect(await colourPatchForPage({ labId: other.labId, ...p1 })).toBeNull();
+    expect(await colourPatchForPage({ labId: other.labId, ...p2 })).toBeNull();
   });
 });
