@@ -44,7 +44,10 @@ export function EstimatePanel(p: Props) {
       {!p.canRun && !p.readOnly && <p className="text-xs muted">Outline the face first: the estimate looks only inside it.</p>}
       <div aria-live="polite" className="text-sm space-y-2">
         {p.state.status === "running" && <p role="status"><progress className="align-middle mr-2" aria-label="Estimating" /> {p.state.stage}</p>}
-        {p.state.status === "error" && <p role="alert" className="text-rust-600">{p.state.message}</p>}
+        {p.state.status === "error" && (p.state.field === "patch"
+          // The reason is shown once, at the grey patch panel.
+          ? <p>The estimate did not run: the grey patch cannot be used (see Grey patch).</p>
+          : <p role="alert" className="text-rust-600">{p.state.message}</p>)}
         {done && (
           <>
             <p>
