@@ -46,7 +46,10 @@ async function canvasTools(page: Page) {
   const canvas = page.getByTestId("annotation-canvas");
   await canvas.waitFor();
   await canvas.scrollIntoViewIfNeeded();
+  // Clicking a panel button below the canvas scrolls the page; centre the canvas again first, or a
+  // point near the photo's top edge lies above the viewport and the mouse misses it.
   const at = (x: number, y: number) => canvas.evaluate((svg, p) => {
+    svg.scrollIntoView({ block: "center" });
     const q = new DOMPoint(p.x, p.y).matrixTransform((svg as SVGSVGElement).getScreenCTM()!);
     return { x: q.x, y: q.y };
   }, { x, y });
