@@ -35,6 +35,18 @@ export function MethodNotes() {
           call of the same photos (the call that defines first rust: any spot, any rusted area or weeping); then κ on ASTM D610
           grades (0–10), unweighted and quadratic-weighted; described with Landis and Koch&apos;s bands.
         </li>
+        <li>
+          <strong>Colour estimate.</strong> A scorer may run a colour estimate of the rusted area and accept it, correct it with marks or
+          reject it; the score keeps the estimate beside it and whether it was normalised. Pixels are classified in CIELAB (D65) as rust,
+          dark rust or pale weeping droplets by hue, chroma and lightness windows that are Rustline&apos;s own choice (no published
+          threshold exists). When the colour card&apos;s grey patch is marked, white balance and exposure are normalised first: one gain
+          per channel in linear light (IEC 61966-2-1 decoding) brings the patch to neutral grey of its stated lightness. A clipped or
+          coloured patch is refused. <em>Validated on:</em> the demo generator&apos;s synthetic specimen faces, including faces under shifted
+          light of known gains (the normalised colours return to within about one ΔE*ab unit, and the estimate to within 5 % of its
+          value under the original light) and synthetic dark-crust and droplet spots. <em>Not validated on:</em> real cameras (their
+          own colour processing and tone curves are not one gain per channel), mixed or uneven lighting across the face, glare, or real
+          patina and corrosion products; on real photos treat the estimate as a starting point for the scorer&apos;s marks.
+        </li>
         <li>Implementations are checked against R&apos;s survival package (survfit, survdiff), fisher.test and p.adjust on published data sets.</li>
       </ul>
       <h3 className="font-medium">Sources</h3>
@@ -48,6 +60,7 @@ export function MethodNotes() {
         <li>Freeman GH, Halton JH (1951). Note on an exact treatment of contingency, goodness of fit and other problems of significance. Biometrika 38:141–149.</li>
         <li>Kruskal WH, Wallis WA (1952). Use of ranks in one-criterion variance analysis. J Am Stat Assoc 47:583–621.</li>
         <li>Cohen J (1960). A coefficient of agreement for nominal scales. Educ Psychol Meas 20:37–46; Landis JR, Koch GG (1977). Biometrics 33:159–174.</li>
+        <li>IEC 61966-2-1:1999, Multimedia systems and equipment — Colour measurement and management — Default RGB colour space — sRGB; CIE 15:2004, Colorimetry (CIELAB).</li>
         <li>ASTM D610, Standard practice for evaluating degree of rusting on painted steel surfaces (rust grades by rusted area).</li>
         <li>Frictionless Data: Data Package and Table Schema specifications, specs.frictionlessdata.io (the export format).</li>
       </ol>

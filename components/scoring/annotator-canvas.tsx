@@ -2,13 +2,14 @@
 // The photo with its SVG overlay: wheel/drag zoom and pan, and drawing with the chosen tool.
 // All geometry is in original-image pixels because the SVG's user space is the original image.
 import { useCallback, useEffect, useId, useRef, useState } from "react";
+import type { PatchRect } from "@/lib/scoring/colour-normalise";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import type { Annotation, AnnotationAction } from "./use-annotation";
 import { isTyping } from "./use-annotation";
 import { DraftLayer, FaceLayer, GhostLayer, SpotLayer, type Draft } from "./mark-layers";
 import { panBy, zoomAt, type ViewBox } from "./view-box";
 
-export type Tool = "pan" | "face" | "circle" | "polygon" | "brush" | "erase";
+export type Tool = "pan" | "face" | "circle" | "polygon" | "brush" | "erase" | "patch";
 
 export type Ghost = { face: Point[] | null; marks: Mark[]; sx: number; sy: number };
 
@@ -30,15 +31,26 @@ type Props = {
   showSpots?: boolean;
   readOnly: boolean;
   label: string;
+  /** The colour card's grey patch (drawn as a dashed rectangle) and where a new one is dragged to. */
+  patch?: PatchRect | null;
+  onPatch?: (r: PatchRect) => void;
 };
+
+/** The rectangle spanned by two corners, rounded to whole image pixels. */
+function rectOf(a: Point, b: Point): PatchRect {
+  const x = Math.round(Math.min(a.x, b.x));
+  const y = Math.round(Math.min(a.y, b.y));
+  return { x, y, width: Math.round(Math.max(a.x, b.x)) - x, height: Math.round(Math.max(a.y, b.y)) - y };
+}
 
 const CLOSE_PX = 10; // click this close to the first point to close an outline
 
-export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, annotation, dispatch, ghost, maskUrl, maskOpacity = 0.7, showSpots = true, readOnly, label }: Props) {
+export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, annotation, dispatch, ghost, maskUrl, maskOpacity = 0.7, showSpots = true, readOnly, label, patch = null, onPatch }: Props) {
   const svgRef = useRef<SVGSVGElement>(null);
   const maskId = useId().replace(/:/g, "");
   const [draft, setDraft] = useState<Draft | null>(null);
   const [hover, setHover] = useState<Point | null>(null);
+  const [patchDraft, setPatchDraft] = useState<{ a: Point; b: Point } | null>(null);
   const panRef = useRef<{ x: number; y: number; view: ViewBox } | null>(null);
   const spaceRef = useRef(false);
 
@@ -99,7 +111,10 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
   }, [draft, closePoints]);
 
   // A tool change abandons a half-drawn shape rather than finishing it as something else.
-  useEffect(() => setDraft(null), [tool]);
+  useEffect(() => {
+    setDraft(null);
+    setPatchDraft(null);
+  }, [tool]);
 
   const onPointerDown = (e: React.PointerEvent<SVGSVGElement>) => {
     const panning = tool === "pan" || readOnly || e.button === 1 || spaceRef.current;
@@ -124,6 +139,8 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
       } else {
         setDraft({ kind: "points", target, points: [p] });
       }
+    } else if (tool === "patch") {
+      setPatchDraft({ a: p, b: p });
     } else if (tool === "circle") {
       setDraft({ kind: "circle", c: p, r: 0 });
     } else if (tool === "brush" || tool === "erase") {
@@ -141,6 +158,7 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
     }
     const p = toImage(e.clientX, e.clientY);
     setHover(p);
+    if (patchDraft) setPatchDraft({ ...patchDraft, b: p });
     if (draft?.kind === "circle") setDraft({ ...draft, r: Math.hypot(p.x - draft.c.x, p.y - draft.c.y) });
     else if (draft?.kind === "stroke") {
       const last = draft.points[draft.points.length - 1];
@@ -152,6 +170,12 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
     if (e.currentTarget.hasPointerCapture(e.pointerId)) e.currentTarget.releasePointerCapture(e.pointerId);
     if (panRef.current) {
       panRef.current = null;
+      return;
+    }
+    if (patchDraft) {
+      const r = rectOf({ x: Math.max(0, patchDraft.a.x), y: Math.max(0, patchDraft.a.y) }, { x: Math.min(W, patchDraft.b.x), y: Math.min(H, patchDraft.b.y) });
+      if (r.width >= 2 && r.height >= 2) onPatch?.(r);
+      setPatchDraft(null);
       return;
     }
     if (draft?.kind === "circle") {
@@ -189,6 +213,15 @@ export function AnnotatorCanvas({ src, W, H, view, setView, tool, brushRadius, a
       {/* Over the spots, so it stays visible where they cover it; its opacity is the scorer's choice. */}
       {maskUrl && <image href={maskUrl} x={0} y={0} width={W} height={H} preserveAspectRatio="none" opacity={maskOpacity} style={{ imageRendering: "pixelated" }} data-testid="estimate-mask" />}
       {ghost && <GhostLayer {...ghost} />}
+      {(patchDraft || patch) && (() => {
+        const r = patchDraft ? rectOf(patchDraft.a, patchDraft.b) : patch!;
+        return (
+          <g pointerEvents="none" data-testid="grey-patch">
+            <rect x={r.x} y={r.y} width={r.width} height={r.height} fill="none" stroke="#000000" strokeWidth={3} vectorEffect="non-scaling-stroke" />
+            <rect x={r.x} y={r.y} width={r.width} height={r.height} fill="none" stroke="#ffffff" strokeWidth={1.5} strokeDasharray="6 4" vectorEffect="non-scaling-stroke" />
+          </g>
+        );
+      })()}
       <DraftLayer draft={draft} unit={u} hover={draft?.kind === "points" ? hover : null} />
       {hover && !readOnly && (tool === "brush" || tool === "erase") && (
         <circle cx={hover.x} cy={hover.y} r={brushRadius} fill="none" stroke={tool === "erase" ? "#ffffff" : "#ff7a1a"} strokeWidth={1.5} vectorEffect="non-scaling-stroke" pointerEvents="none" />

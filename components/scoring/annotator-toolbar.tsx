@@ -12,6 +12,7 @@ export const TOOLS: { tool: Tool; label: string; key: string; hint: string }[] =
   { tool: "polygon", label: "Polygon spot", key: "p", hint: "Click around a spot; close as for the face." },
   { tool: "brush", label: "Brush", key: "b", hint: "Paint rusted area with the brush radius." },
   { tool: "erase", label: "Erase", key: "e", hint: "Paint over marks to take area away again." },
+  { tool: "patch", label: "Grey patch", key: "g", hint: "Drag a rectangle inside the colour card's neutral grey patch, clear of its edges." },
 ];
 
 type Props = {

@@ -7,7 +7,8 @@ import { startTransition, useActionState, useEffect, useRef, useState } from "re
 import type { ActionState } from "@/lib/auth/action";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { ASTM_DISTRIBUTION, ISO_RULE_TEXT, astmD610Grade, formatAstm, formatIso, isoRustDegree, type AstmDistributionLetter } from "@/lib/scoring/grades";
-import type { AreaSource } from "@/lib/validation/scores";
+import type { EstimateColourBasis } from "@/lib/scoring/colour-normalise";
+import type { AreaSource, ColourPatchInput } from "@/lib/validation/scores";
 import { FormMessage } from "@/components/ui/form";
 import { countSpotMarks } from "./use-annotation";
 
@@ -20,6 +21,8 @@ export type ScoreValues = {
   notes: string;
   noChange?: boolean;
   autoEstimatePercent?: number | null;
+  /** How the recorded colour estimate was read: through a grey patch or not. */
+  autoEstimateColour?: EstimateColourBasis | null;
   areaSource?: string | null;
 };
 
@@ -32,6 +35,9 @@ type Props = {
   areaSource: AreaSource;
   setAreaSource: (s: AreaSource) => void;
   autoEstimate: number | null;
+  /** The grey patch reading to save on the photo (null: none), and whether the recorded estimate used it. */
+  colourPatch: ColourPatchInput | null;
+  estimateNormalised: boolean;
   initial: ScoreValues | null;
   initialMarkCount: number;
   previous: (ScoreValues & { dayNumber: number }) | null;
@@ -133,6 +139,8 @@ export function ScoreForm(p: Props) {
       {p.hidden.photoId && <input type="hidden" name="marks" value={JSON.stringify(p.marks)} />}
       <input type="hidden" name="areaSource" value={p.areaSource} />
       <input type="hidden" name="autoEstimatePercent" value={p.autoEstimate ?? ""} />
+      {p.hidden.photoId && <input type="hidden" name="colourPatch" value={p.colourPatch ? JSON.stringify(p.colourPatch) : ""} />}
+      <input type="hidden" name="estimateNormalised" value={p.estimateNormalised ? "1" : ""} />
 
       {p.previous && !ro && (
         <label className="flex items-start gap-2 text-sm">
@@ -225,7 +233,7 @@ export function ScoreForm(p: Props) {
         <Err state={state} name="notes" />
       </div>
 
-      {["face", "marks", "photoId", "inspectionId", "specimenId", "trialId"].map((n) => <Err key={n} state={state} name={n} />)}
+      {["face", "marks", "colourPatch", "photoId", "inspectionId", "specimenId", "trialId"].map((n) => <Err key={n} state={state} name={n} />)}
       <FormMessage state={state} />
       {!ro && (
         <div className="space-y-1">

@@ -1,8 +1,12 @@
 // Saved scores and first-rust intervals as text (server-rendered; no interactivity).
 import { formatAstm, formatIso, type AstmDistributionLetter, type IsoRustDegree } from "@/lib/scoring/grades";
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
+import type { EstimateColourBasis } from "@/lib/scoring/colour-normalise";
 
-type Scoreish = { spotCount: number; areaPercent: number; astmGrade: number | null; astmLetter: string | null; isoDegree: number | null; weeping: boolean; silicateChange: string };
+type Scoreish = {
+  spotCount: number; areaPercent: number; astmGrade: number | null; astmLetter: string | null; isoDegree: number | null; weeping: boolean; silicateChange: string;
+  autoEstimatePercent?: number | null; autoEstimateColour?: EstimateColourBasis | null;
+};
 
 export function astmText(s: Pick<Scoreish, "astmGrade" | "astmLetter">): string {
   if (s.astmGrade == null) return "—";
@@ -22,6 +26,14 @@ export function ScoreLine({ score }: { score: Scoreish }) {
       {score.weeping ? " · weeping" : ""}{score.silicateChange !== "none" ? ` · ${score.silicateChange} silicate discoloration` : ""}
     </span>
   );
+}
+
+/** The colour estimate kept with a score and whether it was read through the grey patch; nothing without one. */
+export function EstimateNote({ score }: { score: Pick<Scoreish, "autoEstimatePercent" | "autoEstimateColour"> }) {
+  if (score.autoEstimatePercent == null) return null;
+  const basis = score.autoEstimateColour;
+  const how = !basis ? "" : basis.normalised ? ", white balance and exposure normalised from the grey patch" : ", not normalised (no grey patch)";
+  return <p className="text-xs muted" data-testid="saved-estimate">Colour estimate kept beside it: {score.autoEstimatePercent} %{how}.</p>;
 }
 
 function intervalText(i: SpecimenOutcome["interval"]): string {

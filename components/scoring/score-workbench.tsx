@@ -5,9 +5,11 @@
 import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
 import type { ActionState } from "@/lib/auth/action";
 import { rustedAreaDetail, type Mark, type Point } from "@/lib/scoring/geometry";
-import type { AreaSource } from "@/lib/validation/scores";
+import { DEFAULT_PATCH_LIGHTNESS, type EstimateColourBasis, type PatchRect } from "@/lib/scoring/colour-normalise";
+import type { AreaSource, ColourPatchInput } from "@/lib/validation/scores";
 import { AnnotatorCanvas, type Ghost, type Tool } from "./annotator-canvas";
 import { AnnotatorToolbar } from "./annotator-toolbar";
+import { ColourPatchPanel, type PatchFrom } from "./colour-patch-panel";
 import { EstimatePanel, type EstimateDecision } from "./estimate-panel";
 import { ScoreForm, type ScoreValues } from "./score-form";
 import { countSpotMarks, useAnnotation, useUndoKeys } from "./use-annotation";
@@ -47,7 +49,15 @@ type Props = {
   canvasLabel: string;
   /** The next unscored photo ("Save and next"); null when there is none, absent where not offered. */
   next?: { href: string } | null;
+  /** The grey patch saved on this photo, or carried over from the specimen's previous photo. */
+  initialPatch?: (PatchRect & { patchLightness: number; from: "this-photo" | "previous-photo" }) | null;
 };
+
+/** The reading a saved, normalised estimate was made from, as the form sends it again. */
+function readingOf(basis: EstimateColourBasis | null | undefined): ColourPatchInput | null {
+  if (!basis?.normalised) return null;
+  return { ...basis.patch, patchLightness: basis.patchLightness, meanLinear: basis.meanLinear, clippedFraction: basis.clippedFraction, pixels: basis.pixels };
+}
 
 export function ScoreWorkbench(p: Props) {
   const W = p.photo?.width ?? 1;
@@ -67,6 +77,16 @@ export function ScoreWorkbench(p: Props) {
     (p.initialScore?.areaSource as AreaSource | undefined) ?? (p.photo ? "marks" : "manual"),
   );
   const estimate = useRustEstimate(p.photo?.url ?? null, W, H);
+  const ip = p.initialPatch;
+  const [patch, setPatch] = useState<PatchRect | null>(ip ? { x: ip.x, y: ip.y, width: ip.width, height: ip.height } : null);
+  const [patchFrom, setPatchFrom] = useState<PatchFrom | null>(ip?.from ?? null);
+  const [lightnessText, setLightnessText] = useState(String(ip?.patchLightness ?? DEFAULT_PATCH_LIGHTNESS));
+  const lightness = Number(lightnessText);
+  const lightnessError = lightnessText.trim() === "" || !Number.isFinite(lightness) || lightness < 20 || lightness > 95
+    ? "Enter the patch's L* between 20 and 95." : null;
+  const patchChoice = useMemo(() => (patch && !lightnessError ? { ...patch, patchLightness: lightness } : null), [patch, lightness, lightnessError]);
+  // The patch reading behind the recorded estimate (kept with Accept / Correct, dropped with Reject).
+  const [autoPatch, setAutoPatch] = useState<ColourPatchInput | null>(() => readingOf(p.initialScore?.autoEstimateColour));
 
   // The area is re-measured on every change; deferring keeps drawing responsive on big brush strokes.
   const current = useMemo(() => ({ face: ann.face, marks: ann.marks }), [ann.face, ann.marks]);
@@ -81,17 +101,20 @@ export function ScoreWorkbench(p: Props) {
   }, [deferred]);
 
   const done = estimate.state.status === "done" ? estimate.state : null;
-  const stale = !!done && done.faceKey !== faceKey(ann.face);
+  const stale = !!done && done.faceKey !== faceKey(ann.face, patchChoice);
   const decide = useCallback((d: EstimateDecision) => {
     setDecision(d);
     if (d === "accepted" && done) {
       setAutoEstimate(done.percent);
+      setAutoPatch(done.basis.normalised ? done.patchReading : null);
       setAreaSource("estimate");
     } else if (d === "corrected" && done) {
       setAutoEstimate(done.percent);
+      setAutoPatch(done.basis.normalised ? done.patchReading : null);
       setAreaSource("marks");
     } else if (d === "rejected") {
       setAutoEstimate(null);
+      setAutoPatch(null);
       setShowMask(false);
       setAreaSource(ann.face ? "marks" : "manual");
     }
@@ -107,7 +130,8 @@ export function ScoreWorkbench(p: Props) {
   const form = (
     <ScoreForm action={p.action} hidden={{ ...p.hidden, photoId: p.photo?.id }} face={ann.face} marks={ann.marks}
       marksArea={areaDetail?.percent ?? (ann.face ? 0 : null)} areaSource={areaSource} setAreaSource={setAreaSource}
-      autoEstimate={autoEstimate} initial={p.initialScore} initialMarkCount={countSpotMarks(p.initialMarks)} previous={p.previous} readOnly={p.readOnly} next={p.next} />
+      autoEstimate={autoEstimate} colourPatch={autoPatch ?? (done && !stale ? done.patchReading : null)}
+      estimateNormalised={autoEstimate != null && autoPatch != null} initial={p.initialScore} initialMarkCount={countSpotMarks(p.initialMarks)} previous={p.previous} readOnly={p.readOnly} next={p.next} />
   );
   if (!p.photo) return <div className="max-w-xl">{form}</div>;
 
@@ -123,7 +147,8 @@ export function ScoreWorkbench(p: Props) {
         <div className="h-[62vh] min-h-80">
           <AnnotatorCanvas src={p.photo.url} W={W} H={H} view={view} setView={setView} tool={tool} brushRadius={brushRadius}
             annotation={{ face: ann.face, marks: ann.marks }} dispatch={ann.dispatch} ghost={ghost}
-            maskUrl={done && showMask ? done.maskUrl : null} maskOpacity={maskOpacityPct / 100} showSpots={showSpots} readOnly={p.readOnly} label={p.canvasLabel} />
+            maskUrl={done && showMask ? done.maskUrl : null} maskOpacity={maskOpacityPct / 100} showSpots={showSpots} readOnly={p.readOnly} label={p.canvasLabel}
+            patch={patch} onPatch={(r) => { setPatch(r); setPatchFrom("marked"); }} />
         </div>
         <div className="flex flex-wrap items-center gap-4 text-sm" aria-live="polite">
           <span data-testid="live-area">
@@ -157,8 +182,11 @@ export function ScoreWorkbench(p: Props) {
             </label>
           )}
         </fieldset>
-        <EstimatePanel state={estimate.state} canRun={!!ann.face && !!p.photo.url} stale={stale} decision={decision}
-          onRun={() => { if (ann.face) { setDecision("none"); estimate.run(ann.face); } }}
+        <ColourPatchPanel patch={patch} from={patchFrom} lightnessText={lightnessText} setLightnessText={setLightnessText}
+          lightnessError={lightnessError} patchError={estimate.state.status === "error" && estimate.state.field === "patch" ? estimate.state.message : null}
+          marking={tool === "patch"} onMark={() => setTool("patch")} onClear={() => { setPatch(null); setPatchFrom(null); }} readOnly={p.readOnly} />
+        <EstimatePanel state={estimate.state} canRun={!!ann.face && !!p.photo.url && !(patch && lightnessError)} stale={stale} decision={decision}
+          onRun={() => { if (ann.face) { setDecision("none"); estimate.run(ann.face, patchChoice); } }}
           onDecide={decide} readOnly={p.readOnly} />
       </div>
       <div className="space-y-3">{form}</div>

@@ -3,6 +3,7 @@ import "server-only";
 // picks the score of record.
 import { and, asc, eq, inArray, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
+import { normalisedBasis, type EstimateColourBasis } from "@/lib/scoring/colour-normalise";
 import { astmD610Grade, isoRustDegree } from "@/lib/scoring/grades";
 import { rustedAreaPercent, type Mark, type Point } from "@/lib/scoring/geometry";
 import type { ConsensusScoreInput, SaveScoreInput } from "@/lib/validation/scores";
@@ -11,6 +12,7 @@ import { assertWritable } from "@/lib/trials/lock";
 import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
 import { inspections, marks, photos, placements, scores, trials } from "../schema";
+import { saveColourPatch } from "./photo-colour";
 import { lockTrial, scorerAssignment } from "./trial-access";
 
 export type ScoreActor = { labId: string; userId: string };
@@ -125,6 +127,10 @@ export async function saveScore(actor: ScoreActor, input: SaveScoreInput) {
 
     // Marks first: if the score write fails afterwards, the transaction takes the marks back too.
     if (photo) await replaceMarks(tx, actor, trial.id, photo.id, input.face, input.marks);
+    if (photo && input.colourPatch) await saveColourPatch(tx, actor, trial.id, photo, input.colourPatch);
+    // The estimate keeps how its pixels were read; no estimate, no basis.
+    const autoEstimateColour: EstimateColourBasis | null = input.autoEstimatePercent == null ? null
+      : input.estimateNormalised && input.colourPatch ? normalisedBasis(input.colourPatch) : { normalised: false };
 
     const values = {
       photoId: photo?.id ?? before?.photoId ?? null,
@@ -133,6 +139,7 @@ export async function saveScore(actor: ScoreActor, input: SaveScoreInput) {
       areaPercent: input.areaPercent,
       ...grades(input.areaPercent, input.astmLetter),
       autoEstimatePercent: input.autoEstimatePercent ?? null,
+      autoEstimateColour,
       areaSource: input.areaSource,
       weeping: input.weeping,
       silicateChange: input.silicateChange,

@@ -1,5 +1,6 @@
 import { sql } from "drizzle-orm";
 import { boolean, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid, bigint } from "drizzle-orm/pg-core";
+import type { EstimateColourBasis } from "../../lib/scoring/colour-normalise";
 import type { Mark } from "../../lib/scoring/geometry";
 import { labs, users } from "./auth";
 import { photoStatusEnum, silicateChangeEnum } from "./enums";
@@ -77,6 +78,8 @@ export const scores = pgTable("scores", {
   astmLetter: text("astm_letter"),
   isoDegree: integer("iso_degree"),
   autoEstimatePercent: doublePrecision("auto_estimate_percent"),
+  /** How the colour estimate's pixels were read: normalised from a grey patch (with its basis) or not; null without an estimate. */
+  autoEstimateColour: jsonb("auto_estimate_colour").$type<EstimateColourBasis>(),
   weeping: boolean("weeping").notNull().default(false),
   silicateChange: silicateChangeEnum("silicate_change").notNull().default("none"),
   noChange: boolean("no_change").notNull().default(false),
@@ -92,4 +95,29 @@ export const scores = pgTable("scores", {
   uniqueIndex("scores_record_idx").on(t.inspectionId, t.specimenId).where(sql`${t.isRecord}`),
   uniqueIndex("scores_consensus_idx").on(t.inspectionId, t.specimenId).where(sql`${t.scorerId} is null`),
   index("scores_lab_trial_idx").on(t.labId, t.trialId, t.specimenId),
+]);
+
+/**
+ * The colour card's neutral patch marked on a photo (original-image pixels), its known lightness and
+ * what it read (mean in linear light, share of clipped pixels). One per photo: the last one marked;
+ * the next photo of the specimen starts from its position (found through the photo, so a photo moved
+ * to another specimen takes its patch along).
+ */
+export const photoColourPatches = pgTable("photo_colour_patches", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  photoId: uuid("photo_id").notNull().references(() => photos.id, { onDelete: "cascade" }),
+  x: doublePrecision("x").notNull(),
+  y: doublePrecision("y").notNull(),
+  width: doublePrecision("width").notNull(),
+  height: doublePrecision("height").notNull(),
+  patchLightness: doublePrecision("patch_lightness").notNull(),
+  meanLinear: jsonb("mean_linear").$type<[number, number, number]>().notNull(),
+  clippedFraction: doublePrecision("clipped_fraction").notNull(),
+  pixels: integer("pixels").notNull(),
+  markedBy: uuid("marked_by").references(() => users.id, { onDelete: "set null" }),
+  createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
+  updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
+}, (t) => [
+  uniqueIndex("photo_colour_patches_photo_idx").on(t.photoId),
 ]);

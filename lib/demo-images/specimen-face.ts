@@ -7,9 +7,12 @@
 //     .jpeg({ quality: 90 }).toFile("face.jpg");
 import { createRng, randomBetween, randomInt, type Rng } from "@/lib/allocation/prng";
 import { polygonCrossings, type Point } from "@/lib/scoring/geometry";
+import { addSensorNoise, applyLighting, hashInt, paintGreyPatch, setRgb, softenEdges, type GreyPatch, type LightingShift } from "./photo-effects";
 
 export type SpecimenKind = "iron" | "stony-iron";
-export type RustSpot = { x: number; y: number; r: number };
+/** "rust" (default): orange- to red-brown with a dark rim; "dark": thick black-brown crust; "droplet": a pale weeping bead. */
+export type RustSpotKind = "rust" | "dark" | "droplet";
+export type RustSpot = { x: number; y: number; r: number; kind?: RustSpotKind };
 
 export type SpecimenFaceOptions = {
   width: number;
@@ -17,6 +20,10 @@ export type SpecimenFaceOptions = {
   seed: string | number;
   kind: SpecimenKind;
   rustSpots: readonly RustSpot[];
+  /** A colour card's neutral patch painted on the backdrop (outside the face), of known L*. */
+  greyPatch?: GreyPatch;
+  /** The scene photographed under other light (gains in linear light), before sensor noise. */
+  lighting?: LightingShift;
 };
 
 export type SpecimenFace = {
@@ -46,6 +53,8 @@ const RUST_CORES: Rgb[] = [
   [130, 58, 38], // red-brown
 ];
 const RUST_RIM: Rgb = [100, 46, 30]; // darker red-brown rim around a spot
+const DARK_RUST: Rgb = [62, 34, 24]; // thick black-brown crust
+const DROPLET: Rgb = [234, 204, 160]; // pale buff weeping bead
 
 /** The face outline for a seed: an irregular slice filling most of the frame. */
 export function specimenFaceOutline(width: number, height: number, seed: string | number): Point[] {
@@ -97,7 +106,9 @@ export function renderSpecimenFace(opts: SpecimenFaceOptions): SpecimenFace {
   const rustMask = new Uint8Array(width * height);
   for (const spot of opts.rustSpots) paintRustSpot(data, faceMask, rustMask, width, height, spot, rng);
   // Lens softness then sensor noise, so spot edges and grain edges blend as on a real photo.
+  if (opts.greyPatch) paintGreyPatch(data, width, height, opts.greyPatch);
   softenEdges(data, width, height);
+  if (opts.lighting) applyLighting(data, opts.lighting);
   addSensorNoise(data, randomInt(rng, 2 ** 31));
 
   let facePixels = 0;
@@ -200,6 +211,17 @@ function paintRustSpot(
   spot: RustSpot,
   rng: Rng,
 ): void {
+  if (spot.kind === "dark" || spot.kind === "droplet") {
+    // Flat beads of one colour, a little darker at the edge; no stain and no rim.
+    const base = spot.kind === "dark" ? DARK_RUST : DROPLET;
+    paintBlob(width, height, rng, spot.x, spot.y, spot.r, (i, t) => {
+      if (faceMask[i] === 0) return;
+      rustMask[i] = 1;
+      const k = 1 - 0.06 * t;
+      setRgb(data, i, base[0] * k, base[1] * k, base[2] * k);
+    });
+    return;
+  }
   const core = RUST_CORES[randomInt(rng, RUST_CORES.length)];
   const rimStart = randomBetween(rng, 0.65, 0.8);
   const mottleSalt = randomInt(rng, 1e6);
@@ -224,24 +246,6 @@ function paintRustSpot(
       setRgb(data, i, core[0] * k, core[1] * k, core[2] * k);
     }
   });
-}
-
-/** Separable [1 2 1]/4 blur in both directions, in place (one row of scratch per pass). */
-function softenEdges(data: Uint8ClampedArray, width: number, height: number): void {
-  const line = new Float32Array(Math.max(width, height) * 3);
-  for (let y = 0; y < height; y++) {
-    const row = y * width * 4;
-    for (let x = 0; x < width; x++) for (let c = 0; c < 3; c++) line[x * 3 + c] = data[row + x * 4 + c];
-    for (let x = 1; x < width - 1; x++) {
-      for (let c = 0; c < 3; c++) data[row + x * 4 + c] = (line[(x - 1) * 3 + c] + 2 * line[x * 3 + c] + line[(x + 1) * 3 + c]) / 4;
-    }
-  }
-  for (let x = 0; x < width; x++) {
-    for (let y = 0; y < height; y++) for (let c = 0; c < 3; c++) line[y * 3 + c] = data[(y * width + x) * 4 + c];
-    for (let y = 1; y < height - 1; y++) {
-      for (let c = 0; c < 3; c++) data[(y * width + x) * 4 + c] = (line[(y - 1) * 3 + c] + 2 * line[y * 3 + c] + line[(y + 1) * 3 + c]) / 4;
-    }
-  }
 }
 
 /**
@@ -275,26 +279,4 @@ function paintBlob(
       if (d <= edge) paint(y * width + x, d / edge);
     }
   }
-}
-
-function setRgb(data: Uint8ClampedArray, i: number, r: number, g: number, b: number): void {
-  data[i * 4] = r;
-  data[i * 4 + 1] = g;
-  data[i * 4 + 2] = b;
-}
-
-/** Mild, independent per-channel noise (about ±4 levels) from a hash, fast enough for 24 MP. */
-function addSensorNoise(data: Uint8ClampedArray, salt: number): void {
-  for (let o = 0; o < data.length; o += 4) {
-    const h = hashInt(o ^ salt);
-    data[o] += ((h & 15) - 7.5) / 2 + ((h >>> 4) & 3) - 1.5;
-    data[o + 1] += (((h >>> 8) & 15) - 7.5) / 2 + ((h >>> 12) & 3) - 1.5;
-    data[o + 2] += (((h >>> 16) & 15) - 7.5) / 2 + ((h >>> 20) & 3) - 1.5;
-  }
-}
-
-function hashInt(n: number): number {
-  let h = Math.imul(n ^ (n >>> 16), 0x45d9f3b);
-  h = Math.imul(h ^ (h >>> 16), 0x45d9f3b);
-  return (h ^ (h >>> 16)) >>> 0;
 }

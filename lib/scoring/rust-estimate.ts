@@ -2,8 +2,11 @@
 // A suggestion for the scorer to accept or correct, never a score by itself.
 //
 // Pixels are converted sRGB → CIELAB (D65, 2° observer) and classified by lightness L*, chroma
-// C*ab and hue angle h_ab. The face is filled by scanline (crossings per pixel row), so the cost
+// C*ab and hue angle h_ab into three rust classes (rust, dark rust, pale weeping droplets); a
+// white-balance and exposure normalisation from a grey patch (colour-normalise.ts) may map each
+// pixel through a per-channel table first. The face is filled by scanline (crossings per pixel row), so the cost
 // is one pass over the face's pixels with no per-pixel point-in-polygon test.
+import { chroma, srgbToLab } from "./colour-space";
 import { polygonCrossings, type Point } from "./geometry";
 
 export type RgbaImage = { width: number; height: number; data: Uint8ClampedArray };
@@ -29,72 +32,83 @@ export const RUST_COLOUR_THRESHOLDS = {
   lightnessMax: 82,
 } as const;
 
-// sRGB 8-bit → linear light, once; the per-pixel loop then only does table look-ups.
-const SRGB_TO_LINEAR = new Float64Array(256);
-for (let i = 0; i < 256; i++) {
-  const c = i / 255;
-  SRGB_TO_LINEAR[i] = c <= 0.04045 ? c / 12.92 : Math.pow((c + 0.055) / 1.055, 2.4);
+/**
+ * Dark rust: thick or wet red-brown to black-brown crust that falls below the main window's L* 20.
+ * Our own choice like the window above: the same hue range, but a lower chroma floor (dark colours
+ * carry little chroma) and L* 8–20. Dark troilite and silicate grains and shadow are near-neutral
+ * (C* below ~5) or bluish, so they stay out; below L* 8 hue is noise.
+ */
+export const DARK_RUST_THRESHOLDS = {
+  hueMinDeg: 25,
+  hueMaxDeg: 75,
+  chromaMin: 10,
+  lightnessMin: 8,
+  lightnessMax: 20,
+} as const;
+
+/**
+ * Pale weeping droplets: light yellow-orange to buff beads of chloride-bearing solution, too light or
+ * too yellow for the main window. Our own choice: hue 55°–90° (buff to pale yellow-orange), chroma
+ * above 14 so that near-neutral specular highlights on metal (C* below ~8) stay out, L* 72–95 so
+ * that olive and yellow-brown silicate grains (L* below ~65) stay out.
+ */
+export const PALE_DROPLET_THRESHOLDS = {
+  hueMinDeg: 55,
+  hueMaxDeg: 90,
+  chromaMin: 14,
+  lightnessMin: 72,
+  lightnessMax: 95,
+} as const;
+
+/** What a pixel's colour reads as: 0 not rust, 1 rust, 2 dark rust, 3 pale weeping droplet. */
+export type RustClass = 0 | 1 | 2 | 3;
+export const RUST_CLASS_NAMES = ["not rust", "rust", "dark rust", "pale droplet"] as const;
+
+type Window = { hueMinDeg: number; hueMaxDeg: number; chromaMin: number; lightnessMin: number; lightnessMax: number };
+
+function inWindow(w: Window, L: number, c: number, hDeg: number): boolean {
+  return L >= w.lightnessMin && L <= w.lightnessMax && c > w.chromaMin && hDeg >= w.hueMinDeg && hDeg <= w.hueMaxDeg;
 }
 
-// D65 reference white for the sRGB → XYZ matrix below (IEC 61966-2-1 primaries).
-const XN = 0.95047;
-const YN = 1.0;
-const ZN = 1.08883;
-const EPS = 216 / 24389; // (6/29)^3
-const KAPPA_OVER_116 = 24389 / 27 / 116;
-
-function labF(t: number): number {
-  return t > EPS ? Math.cbrt(t) : KAPPA_OVER_116 * t + 16 / 116;
+/** The class of an 8-bit sRGB colour (after any normalisation). */
+export function rustClass(r: number, g: number, b: number): RustClass {
+  const lab = srgbToLab(r, g, b);
+  const c = chroma(lab);
+  const hDeg = (Math.atan2(lab.b, lab.a) * 180) / Math.PI;
+  if (inWindow(RUST_COLOUR_THRESHOLDS, lab.L, c, hDeg)) return 1;
+  if (inWindow(DARK_RUST_THRESHOLDS, lab.L, c, hDeg)) return 2;
+  if (inWindow(PALE_DROPLET_THRESHOLDS, lab.L, c, hDeg)) return 3;
+  return 0;
 }
 
-/** CIELAB (D65) of an 8-bit sRGB colour. */
-export function srgbToLab(r: number, g: number, b: number): { L: number; a: number; b: number } {
-  const rl = SRGB_TO_LINEAR[r & 255];
-  const gl = SRGB_TO_LINEAR[g & 255];
-  const bl = SRGB_TO_LINEAR[b & 255];
-  const fx = labF((0.4124564 * rl + 0.3575761 * gl + 0.1804375 * bl) / XN);
-  const fy = labF((0.2126729 * rl + 0.7151522 * gl + 0.072175 * bl) / YN);
-  const fz = labF((0.0193339 * rl + 0.119192 * gl + 0.9503041 * bl) / ZN);
-  return { L: 116 * fy - 16, a: 500 * (fx - fy), b: 200 * (fy - fz) };
-}
-
-const T = RUST_COLOUR_THRESHOLDS;
-const TAN_HUE_MIN = Math.tan((T.hueMinDeg * Math.PI) / 180);
-const TAN_HUE_MAX = Math.tan((T.hueMaxDeg * Math.PI) / 180);
-const CHROMA_MIN_SQ = T.chromaMin * T.chromaMin;
-// L* limits turned into limits on f(Y) so the loop can reject on lightness before the other cube roots.
-const FY_MIN = (T.lightnessMin + 16) / 116;
-const FY_MAX = (T.lightnessMax + 16) / 116;
-
-/** True when an 8-bit sRGB colour falls in the rust window. */
+/** True when an 8-bit sRGB colour reads as rust of any class. */
 export function isRustColour(r: number, g: number, b: number): boolean {
-  const rl = SRGB_TO_LINEAR[r & 255];
-  const gl = SRGB_TO_LINEAR[g & 255];
-  const bl = SRGB_TO_LINEAR[b & 255];
-  const fy = labF(0.2126729 * rl + 0.7151522 * gl + 0.072175 * bl);
-  if (fy < FY_MIN || fy > FY_MAX) return false;
-  const a = 500 * (labF((0.4124564 * rl + 0.3575761 * gl + 0.1804375 * bl) / XN) - fy);
-  // Both hue limits lie in the first quadrant, so a* and b* must both be positive.
-  if (a <= 0) return false;
-  const bb = 200 * (fy - labF((0.0193339 * rl + 0.119192 * gl + 0.9503041 * bl) / ZN));
-  if (bb <= 0) return false;
-  if (a * a + bb * bb <= CHROMA_MIN_SQ) return false;
-  // h = atan2(b, a) in [min, max] ⇔ tan(min)·a ≤ b ≤ tan(max)·a for a > 0, without calling atan2.
-  return bb >= TAN_HUE_MIN * a && bb <= TAN_HUE_MAX * a;
+  return rustClass(r, g, b) !== 0;
 }
 
-// Photos repeat colours heavily; remembering each 24-bit colour's verdict makes a 24-megapixel
-// face a table look-up per pixel. 0 = not seen yet, 1 = not rust, 2 = rust. 16 MB, allocated on
-// first use and kept, since the thresholds never change at run time.
+// Photos repeat colours heavily; remembering each 24-bit colour's class makes a 24-megapixel face a
+// table look-up per pixel. 0 = not seen yet, else class + 1. 16 MB, allocated on first use and kept,
+// since the thresholds never change at run time. Normalisation maps a pixel to another 24-bit colour
+// first (colour-normalise.ts), so the cache stays keyed by the colour that is classified.
 let verdictCache: Uint8Array | null = null;
 
-function classifyFace(image: RgbaImage, face: readonly Point[], mask: Uint8Array | null): { face: number; rust: number } {
+/** Face pixels and rust pixels by class (index 1–3 as RustClass; index 0 unused). */
+export type RustCounts = { face: number; rust: number; byClass: [number, number, number, number] };
+
+/**
+ * A per-channel 8-bit → 8-bit table (768 entries: red, green, blue) applied before classifying:
+ * the white-balance and exposure normalisation from colour-normalise.ts. Absent: pixels as they are.
+ */
+export type ChannelTable = Uint8Array;
+
+function classifyFace(image: RgbaImage, face: readonly Point[], mask: Uint8Array | null, table: ChannelTable | null): RustCounts {
   const { width, height, data } = image;
   if (!Number.isInteger(width) || !Number.isInteger(height) || width <= 0 || height <= 0) {
     throw new RangeError(`image size must be positive integers, got ${width}×${height}`);
   }
   if (data.length < width * height * 4) throw new RangeError("image data is shorter than width × height × 4");
   if (face.length < 3) throw new RangeError("face outline needs at least 3 points");
+  if (table && table.length !== 768) throw new RangeError("a channel table has 768 entries");
   const cache = (verdictCache ??= new Uint8Array(1 << 24));
   let ys = Infinity;
   let ye = -Infinity;
@@ -106,7 +120,7 @@ function classifyFace(image: RgbaImage, face: readonly Point[], mask: Uint8Array
   const rowEnd = Math.min(height, Math.ceil(ye));
   const crossings: number[] = [];
   let facePixels = 0;
-  let rustPixels = 0;
+  const byClass: [number, number, number, number] = [0, 0, 0, 0];
   for (let y = rowStart; y < rowEnd; y++) {
     polygonCrossings(face, y + 0.5, crossings);
     for (let c = 0; c + 1 < crossings.length; c += 2) {
@@ -117,42 +131,49 @@ function classifyFace(image: RgbaImage, face: readonly Point[], mask: Uint8Array
       facePixels += x1 - x0;
       let o = (y * width + x0) * 4;
       for (let x = x0; x < x1; x++, o += 4) {
-        const r = data[o];
-        const g = data[o + 1];
-        const b = data[o + 2];
+        let r = data[o];
+        let g = data[o + 1];
+        let b = data[o + 2];
+        if (table) {
+          r = table[r];
+          g = table[256 + g];
+          b = table[512 + b];
+        }
         const key = (r << 16) | (g << 8) | b;
         let v = cache[key];
         if (v === 0) {
-          v = isRustColour(r, g, b) ? 2 : 1;
+          v = rustClass(r, g, b) + 1;
           cache[key] = v;
         }
-        if (v === 2) {
-          rustPixels++;
-          if (mask) mask[y * width + x] = 1;
+        if (v > 1) {
+          byClass[v - 1]++;
+          if (mask) mask[y * width + x] = v - 1;
         }
       }
     }
   }
-  return { face: facePixels, rust: rustPixels };
+  return { face: facePixels, rust: byClass[1] + byClass[2] + byClass[3], byClass };
 }
 
 /**
- * Fraction (0–1) of the pixels inside the face polygon that are rust-coloured.
- * Face points are in image pixel coordinates; a pixel counts as inside when its centre is.
- * Throws RangeError when the face covers no pixel of the image.
+ * Face and rust pixel counts (all classes, and by class). Face points are in image pixel coordinates;
+ * a pixel counts as inside when its centre is. Throws RangeError when the face covers no pixel.
  */
-export function estimateRustFraction(
-  image: { width: number; height: number; data: Uint8ClampedArray /* RGBA */ },
-  face: { x: number; y: number }[],
-): number {
-  const counts = classifyFace(image, face, null);
+export function countRust(image: RgbaImage, face: readonly Point[], table: ChannelTable | null = null, mask: Uint8Array | null = null): RustCounts {
+  const counts = classifyFace(image, face, mask, table);
   if (counts.face === 0) throw new RangeError("the face outline covers no pixel of the image");
+  return counts;
+}
+
+/** Fraction (0–1) of the pixels inside the face polygon whose colour reads as rust of any class. */
+export function estimateRustFraction(image: RgbaImage, face: readonly Point[], table: ChannelTable | null = null): number {
+  const counts = countRust(image, face, table);
   return counts.rust / counts.face;
 }
 
-/** Per-pixel mask for the overlay: 1 = rust-coloured pixel inside the face, 0 = anything else. */
-export function rustMask(image: RgbaImage, face: readonly Point[]): Uint8Array {
+/** Per-pixel mask for the overlay: the RustClass of each pixel inside the face (0 = not rust or outside). */
+export function rustMask(image: RgbaImage, face: readonly Point[], table: ChannelTable | null = null): Uint8Array {
   const mask = new Uint8Array(image.width * image.height);
-  classifyFace(image, face, mask);
+  classifyFace(image, face, mask, table);
   return mask;
 }

@@ -1,6 +1,7 @@
 // Rust scores and marks: one set of schemas for the score form (FormData strings), the JSON API and
 // the client (which reuses them to show the same messages before sending).
 import { z } from "zod";
+import { patchProblem } from "@/lib/scoring/colour-normalise";
 import { ASTM_DISTRIBUTION } from "@/lib/scoring/grades";
 
 // Coordinates are original-image pixels; a 200-megapixel frame is ~20 000 px on a side, so ±1e6 is
@@ -40,6 +41,29 @@ const optionalPercent = z.preprocess(
   z.coerce.number("Enter a percentage.").min(0, "Cannot be below 0 %.").max(100, "Cannot be above 100 %.").optional(),
 );
 
+const linearLevel = z.number().finite().min(0).max(1);
+/**
+ * The grey patch as the estimate measured it: the rectangle (original-image pixels), the patch's known
+ * lightness and its reading. A clipped, dark, tiny or coloured patch is refused here, on the client
+ * and the server alike, with the sentence from colour-normalise.ts.
+ */
+export const colourPatchSchema = z
+  .object({
+    x: coord,
+    y: coord,
+    width: length,
+    height: length,
+    patchLightness: z.number("Enter the patch's lightness L*.").min(20, "The patch's L* must be 20 or more.").max(95, "The patch's L* must be 95 or less."),
+    pixels: z.number().int().min(0),
+    meanLinear: z.tuple([linearLevel, linearLevel, linearLevel]),
+    clippedFraction: z.number().min(0).max(1),
+  }, "The grey patch must be a rectangle with its reading.")
+  .superRefine((p, ctx) => {
+    const problem = patchProblem(p);
+    if (problem) ctx.addIssue({ code: "custom", message: problem.message });
+  });
+export type ColourPatchInput = z.infer<typeof colourPatchSchema>;
+
 export const ASTM_LETTERS = Object.keys(ASTM_DISTRIBUTION) as (keyof typeof ASTM_DISTRIBUTION)[];
 export const SILICATE_CHANGES = ["none", "slight", "marked"] as const;
 export const AREA_SOURCES = ["marks", "estimate", "manual", "previous"] as const;
@@ -73,6 +97,9 @@ export const saveScoreSchema = scoreFieldsSchema
     photoId: optionalUuid,
     face: jsonField(faceSchema.nullable().optional()),
     marks: jsonField(z.array(markSchema, "Marks must be a list of shapes.").max(2000, "At most 2000 marks per photo.").default([])),
+    colourPatch: jsonField(colourPatchSchema.nullable().optional()),
+    // The recorded colour estimate was read through the grey patch's white balance and exposure.
+    estimateNormalised: checkbox,
   })
   .superRefine((data, ctx) => {
     letterWhenRusted(data, ctx);
@@ -82,7 +109,10 @@ export const saveScoreSchema = scoreFieldsSchema
     if (data.marks.length > 0 && !data.face) {
       ctx.addIssue({ code: "custom", path: ["face"], message: "Outline the specimen face before marking spots: the area is measured within it." });
     }
-    if ((data.marks.length > 0 || data.face) && !data.photoId) {
+    if (data.estimateNormalised && !data.colourPatch) {
+      ctx.addIssue({ code: "custom", path: ["colourPatch"], message: "The estimate says it was normalised, but no grey patch came with it; mark the patch and run the estimate again." });
+    }
+    if ((data.marks.length > 0 || data.face || data.colourPatch) && !data.photoId) {
       ctx.addIssue({ code: "custom", path: ["photoId"], message: "Marks belong to a photo; say which one." });
     }
   });

@@ -5,7 +5,8 @@ import { randomUUID } from "node:crypto";
 import sharp from "sharp";
 import { db } from "@/db/client";
 import * as s from "@/db/schema";
-import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
+import type { GreyPatch, LightingShift } from "@/lib/demo-images/photo-effects";
+import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline, type RustSpot } from "@/lib/demo-images/specimen-face";
 import type { Point } from "@/lib/scoring/geometry";
 import { derivativeKey, photoKey } from "@/storage/keys";
 import { putObject } from "@/storage/objects";
@@ -72,13 +73,15 @@ export type MadePhoto = { photoId: string; width: number; height: number; face: 
 export async function createReadyPhoto(opts: {
   labId: string; trialId: string; inspectionId: string; specimenId: string; uploadedBy: string;
   width?: number; height?: number; seed?: string; spots?: number; filename?: string;
+  /** Passed to the generator: a colour card's grey patch, a change of light, spots placed by hand. */
+  greyPatch?: GreyPatch; lighting?: LightingShift; rustSpots?: RustSpot[];
 }): Promise<MadePhoto> {
   const width = opts.width ?? 800;
   const height = opts.height ?? 600;
   const seed = opts.seed ?? randomUUID();
   const face = specimenFaceOutline(width, height, seed);
-  const rustSpots = scatterRustSpots(face, { count: opts.spots ?? 4, rMin: width / 60, rMax: width / 25, seed });
-  const img = renderSpecimenFace({ width, height, seed, kind: "iron", rustSpots });
+  const rustSpots = opts.rustSpots ?? scatterRustSpots(face, { count: opts.spots ?? 4, rMin: width / 60, rMax: width / 25, seed });
+  const img = renderSpecimenFace({ width, height, seed, kind: "iron", rustSpots, greyPatch: opts.greyPatch, lighting: opts.lighting });
   const raw = { raw: { width, height, channels: 4 as const } };
   const original = await sharp(Buffer.from(img.data.buffer), raw).jpeg({ quality: 92 }).toBuffer();
   const display = await sharp(original).resize({ width: Math.round(width / 2) }).jpeg({ quality: 88 }).toBuffer();

@@ -2,7 +2,8 @@ import sharp from "sharp";
 import { describe, expect, it } from "vitest";
 import { renderSpecimenFace, scatterRustSpots, specimenFaceOutline, type SpecimenKind } from "@/lib/demo-images/specimen-face";
 import { pointInPolygon } from "@/lib/scoring/geometry";
-import { estimateRustFraction, isRustColour, rustMask, srgbToLab } from "@/lib/scoring/rust-estimate";
+import { srgbToLab } from "@/lib/scoring/colour-space";
+import { countRust, estimateRustFraction, isRustColour, rustClass, rustMask } from "@/lib/scoring/rust-estimate";
 
 const W = 800;
 const H = 600;
@@ -41,6 +42,36 @@ describe("isRustColour", () => {
     expect(isRustColour(112, 108, 52)).toBe(false); // olive
     expect(isRustColour(48, 46, 42)).toBe(false); // dark grain
     expect(isRustColour(250, 250, 250)).toBe(false); // highlight
+  });
+});
+
+describe("rust classes", () => {
+  it("reads dark crust and pale droplets as their own classes, not dark grains, shadow or highlights", () => {
+    expect(rustClass(170, 88, 38)).toBe(1); // orange-brown
+    expect(rustClass(62, 34, 24)).toBe(2); // black-brown crust, L* ≈ 17 (below the main window)
+    expect(rustClass(234, 204, 160)).toBe(3); // pale buff droplet, L* ≈ 84, hue ≈ 80°
+    expect(rustClass(48, 46, 42)).toBe(0); // dark grain, C* ≈ 3
+    expect(rustClass(34, 34, 37)).toBe(0); // backdrop / shadow, bluish
+    expect(rustClass(245, 243, 238)).toBe(0); // highlight on metal, near-neutral
+    expect(rustClass(150, 160, 72)).toBe(0); // yellow-green silicate, hue ≈ 110°
+    expect(rustClass(120, 110, 60)).toBe(0); // olive-brown silicate, L* ≈ 46
+  });
+
+  // The generator paints each kind of spot; the true area is its own painted pixels.
+  const kinds: Array<["dark" | "droplet", 2 | 3, number, number]> = [
+    ["dark", 2, 10, 35],
+    ["droplet", 3, 4, 14],
+  ];
+  it.each(kinds)("finds %s spots on a stony-iron face within ±35 %% of their true area", (kind, cls, rMin, rMax) => {
+    const outline = specimenFaceOutline(W, H, `only-${kind}`);
+    const rustSpots = scatterRustSpots(outline, { count: 12, rMin, rMax, seed: `only-${kind}` }).map((s) => ({ ...s, kind }));
+    const img = renderSpecimenFace({ width: W, height: H, seed: `only-${kind}`, kind: "stony-iron", rustSpots });
+    expect(img.trueRustFraction).toBeGreaterThan(0.002);
+    const counts = countRust(img, img.face);
+    const est = counts.rust / counts.face;
+    expect(Math.abs(est - img.trueRustFraction) / img.trueRustFraction).toBeLessThanOrEqual(0.35);
+    // Most of it is found by the class made for it: the orange-brown window alone would miss it.
+    expect(counts.byClass[cls]).toBeGreaterThan(counts.rust * 0.6);
   });
 });
 
@@ -108,8 +139,8 @@ describe("rustMask", () => {
       for (let x = 0; x < W; x++) {
         const inside = pointInPolygon({ x: x + 0.5, y: y + 0.5 }, img.face);
         if (inside) facePixels++;
-        rust += mask[y * W + x];
-        if (!inside && mask[y * W + x] === 1) rustOutside++;
+        if (mask[y * W + x] > 0) rust++;
+        if (!inside && mask[y * W + x] > 0) rustOutside++;
       }
     }
     expect(rust).toBeGreaterThan(0);

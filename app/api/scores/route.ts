@@ -11,6 +11,7 @@ export const POST = labRoute("scores.write", async (ctx, req) => {
   const own = {
     id: score.id, spotCount: score.spotCount, areaPercent: score.areaPercent, astmGrade: score.astmGrade, astmLetter: score.astmLetter,
     isoDegree: score.isoDegree, weeping: score.weeping, silicateChange: score.silicateChange, autoEstimatePercent: score.autoEstimatePercent,
+    autoEstimateColour: score.autoEstimateColour,
     areaSource: score.areaSource, noChange: score.noChange, notes: score.notes, blind: score.blind, updatedAt: score.updatedAt,
   };
   const body = blind ? own : { ...own, trialId: score.trialId, inspectionId: score.inspectionId, specimenId: score.specimenId, photoId: score.photoId, isRecord: score.isRecord };

@@ -1,11 +1,12 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
+import { colourPatchForPage } from "@/db/queries/photo-colour";
 import { getLabPhoto } from "@/db/queries/scores-read";
 import { getBlindPhoto } from "@/db/queries/scores-queue";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
-import { ScoreLine } from "@/components/scoring/score-summary";
+import { EstimateNote, ScoreLine } from "@/components/scoring/score-summary";
 import { saveScoreAction } from "@/app/_actions/scores";
 import { orNotFound } from "@/lib/auth/not-found";
 import { isUuid } from "@/lib/ids";
@@ -25,6 +26,8 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
   }
   const view = await getBlindPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, photoId }).catch(orNotFound);
   const canScore = can(ctx.role, "scores.write") && !access.locked;
+  // This photo's own patch only: one carried over from an earlier photo would tie it to its specimen.
+  const initialPatch = await colourPatchForPage({ labId: ctx.labId, photoId: view.photo.id, previous: false });
 
   return (
     <div className="space-y-4">
@@ -41,6 +44,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
         <section className="panel p-3 text-sm" aria-labelledby="saved-h">
           <h2 id="saved-h" className="font-semibold">Your saved score</h2>
           <p data-testid="saved-score"><ScoreLine score={view.mine} /></p>
+          <EstimateNote score={view.mine} />
         </section>
       )}
       <ScoreWorkbenchFor
@@ -55,6 +59,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
         readOnly={!canScore}
         next={view.nextPhotoId ? { href: `/trials/${trialId}/scoring/${view.nextPhotoId}` } : null}
         canvasLabel={`Photo ${view.position} of ${view.total}`}
+        initialPatch={initialPatch}
       />
     </div>
   );

@@ -1,12 +1,13 @@
 import Link from "next/link";
 import { notFound, redirect } from "next/navigation";
+import { colourPatchForPage } from "@/db/queries/photo-colour";
 import { getScorePage, nextUnscoredPhoto } from "@/db/queries/scores-read";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
 import { ConsensusForm } from "@/components/scoring/consensus-form";
 import { ScoreWorkbenchFor } from "@/components/scoring/score-workbench";
-import { FirstRustNote, ScoreLine } from "@/components/scoring/score-summary";
+import { EstimateNote, FirstRustNote, ScoreLine } from "@/components/scoring/score-summary";
 import { EmptyState } from "@/components/ui/empty-state";
 import { saveConsensusAction, saveScoreAction } from "@/app/_actions/scores";
 import { orNotFound } from "@/lib/auth/not-found";
@@ -31,6 +32,7 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   const canScore = can(ctx.role, "scores.write") && !concluded;
   const shown = canScore ? mine : record?.score ?? null;
   const base = `/trials/${trialId}/inspections/${inspectionId}/score`;
+  const initialPatch = data.photo ? await colourPatchForPage({ labId: ctx.labId, photoId: data.photo.id, previous: canScore }) : null;
   const next = canScore ? await nextUnscoredPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId }) : null;
   const others = data.pairScores.filter((r) => r.score.scorerId !== null);
   const consensus = data.pairScores.find((r) => r.score.scorerId === null)?.score ?? null;
@@ -54,6 +56,7 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
         <section className="panel p-3 text-sm space-y-1" aria-labelledby="saved-h">
           <h2 id="saved-h" className="font-semibold">{canScore ? "Your saved score" : "Score of record"}</h2>
           <p data-testid="saved-score"><ScoreLine score={shown} /></p>
+          <EstimateNote score={shown} />
           <p className="muted text-xs">
             Saved {formatDateTime(shown.updatedAt)}.{" "}
             {canScore && (record?.score.id === shown.id ? "This is the score of record." : record ? `The score of record is ${record.scorerName ?? "the consensus score"}'s.` : "")}
@@ -86,6 +89,7 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
         readOnly={!canScore}
         next={next ? { href: `${base}/${next.specimenId}?photo=${next.photoId}` } : null}
         canvasLabel={`Photo of ${specimen.label} at day ${inspection.dayNumber}`}
+        initialPatch={initialPatch}
       />
 
       {trial.scoreRule === "consensus" && can(ctx.role, "scores.consensus") && (
