@@ -30,6 +30,8 @@ export const PERMISSIONS = {
   "scores.write": STAFF,
   // Recording the agreed score after scorers discussed a disagreement (trials with the consensus rule).
   "scores.consensus": DESIGN,
+  // Moving collection objects between storage locations (done at the shelf, so technicians too).
+  "collection.move": STAFF,
   // A storage rule is the lab's policy for its collection: the lead accepts it.
   "storageRules.accept": ["lead"],
 } as const satisfies Record<string, readonly Role[]>;
