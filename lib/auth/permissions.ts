@@ -45,6 +45,6 @@ export function can(role: Role | null | undefined, permission: Permission): bool
 export const ROLE_LABELS: Record<Role, { name: string; summary: string }> = {
   lead: { name: "Lead", summary: "Everything, including members, scorer assignment and concluding trials" },
   researcher: { name: "Researcher", summary: "Designs trials, chambers, specimens and treatments; runs analysis" },
-  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings and desiccant upkeep" },
+  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings, desiccant upkeep and object moves" },
   observer: { name: "Observer", summary: "Reads everything except photo locations; changes nothing" },
 };
