@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { createLocationAction, moveObjectAction } from "@/app/_actions/collection";
+import { createLocationAction, moveObjectAction, reparentLocationAction } from "@/app/_actions/collection";
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
 import { LOCATION_KIND_LABELS, STORAGE_KINDS } from "@/lib/collection/locations";
 import { DESICCANTS } from "@/lib/humidity/desiccant";
@@ -51,6 +51,18 @@ export function MoveObjectForm({ objects, locations }: { objects: Option[]; loca
       <Field name="at" label="When" type="datetime-local" state={state} />
       <Field name="reason" label="Reason" state={state} hint="optional, e.g. rehousing, survey" />
       <div className="sm:col-span-2 flex items-center gap-3"><SubmitButton pendingText="Recording…">Record move</SubmitButton><FormMessage state={state} /></div>
+    </form>
+  );
+}
+
+/** Put a location (with everything in it) inside another one, or at the top level. */
+export function ReparentLocationForm({ locations }: { locations: Option[] }) {
+  const [state, action] = useActionState(reparentLocationAction, undefined);
+  return (
+    <form action={action} className="grid gap-3 sm:grid-cols-2" noValidate>
+      <SelectField name="locationId" label="Location" state={state} options={[{ value: "", label: "— choose —" }, ...locations]} defaultValue="" />
+      <SelectField name="parentId" label="Now inside" state={state} options={[{ value: "", label: "— top level —" }, ...locations]} defaultValue="" />
+      <div className="sm:col-span-2 flex items-center gap-3"><SubmitButton pendingText="Moving…">Move location</SubmitButton><FormMessage state={state} /></div>
     </form>
   );
 }

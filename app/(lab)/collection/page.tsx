@@ -1,5 +1,5 @@
 import Link from "next/link";
-import { MoveObjectForm, NewLocationForm } from "@/components/collection/collection-forms";
+import { MoveObjectForm, NewLocationForm, ReparentLocationForm } from "@/components/collection/collection-forms";
 import { EmptyState } from "@/components/ui/empty-state";
 import { listLocationTree } from "@/db/queries/locations";
 import { listMembers } from "@/db/queries/memberships";
@@ -90,6 +90,10 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
         <section aria-labelledby="new-h" className="space-y-2">
           <h2 id="new-h" className="text-lg font-semibold">New location</h2>
           <NewLocationForm parents={locationOptions} members={members.map((m) => ({ value: m.userId, label: m.name }))} />
+          {locationOptions.length > 1 && (<>
+            <h2 className="text-lg font-semibold pt-4">Move a location in the tree</h2>
+            <ReparentLocationForm locations={locationOptions} />
+          </>)}
         </section>
       )}
     </div>
