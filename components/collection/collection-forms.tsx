@@ -60,8 +60,8 @@ export function ReparentLocationForm({ locations }: { locations: Option[] }) {
   const [state, action] = useActionState(reparentLocationAction, undefined);
   return (
     <form action={action} className="grid gap-3 sm:grid-cols-2" noValidate>
-      <SelectField name="locationId" label="Location" state={state} options={[{ value: "", label: "— choose —" }, ...locations]} defaultValue="" />
-      <SelectField name="parentId" label="Now inside" state={state} options={[{ value: "", label: "— top level —" }, ...locations]} defaultValue="" />
+      <SelectField idPrefix="tree" name="locationId" label="Location" state={state} options={[{ value: "", label: "— choose —" }, ...locations]} defaultValue="" />
+      <SelectField idPrefix="tree" name="parentId" label="Now inside" state={state} options={[{ value: "", label: "— top level —" }, ...locations]} defaultValue="" />
       <div className="sm:col-span-2 flex items-center gap-3"><SubmitButton pendingText="Moving…">Move location</SubmitButton><FormMessage state={state} /></div>
     </form>
   );

@@ -51,6 +51,6 @@ describe("collection page", () => {
     await form.getByLabel("Location", { exact: true }).selectOption({ label: "Store 2 (basement) / Metals cabinet M1" });
     await form.getByLabel("Now inside").selectOption({ label: "Store 2 (basement) / Metals cabinet M1 / Drawer M1-1" });
     await form.getByRole("button", { name: "Move location" }).click();
-    await expect(form.locator("#f-parentId-err").textContent()).resolves.toBe("Choose a location that is not this one or inside it.");
+    await expect(form.locator("#tree-parentId-err").textContent()).resolves.toBe("Choose a location that is not this one or inside it.");
   });
 });
