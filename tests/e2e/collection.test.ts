@@ -24,7 +24,8 @@ describe("collection page", () => {
   it("shows the demo store as a tree with microclimates and object counts", async () => {
     await page.goto(`${APP_URL}/collection`);
     const tree = page.getByTestId("location-tree");
-    await expect(tree.locator("li").first().textContent()).resolves.toContain("Display case 3");
+    await expect(tree.locator("li").first().textContent()).resolves.toMatch(/^Store 2 \(basement\) Room · Open to the room · 45 ± 10 %RH · keeper Priya Castell · 0 objects$/);
+    await expect(tree.locator("li").nth(1).textContent()).resolves.toContain("Display case 3 Case · Salt-buffered");
     await expect(tree.locator("li", { hasText: "Sealed box 14" }).textContent()).resolves.toMatch(/Sealed box · Desiccant · 15 ± 5 %RH · keeper Tomasz Ridley · 2 objects/);
     await expect(row("TV-A-130").locator("td").nth(4).textContent()).resolves.toMatch(/^Store 2 \(basement\) \/ Metals cabinet M1 \/ Drawer M1-2 \(since/);
   });
@@ -34,7 +35,9 @@ describe("collection page", () => {
     const move = async (to: string) => {
       await form.getByLabel("Object").selectOption({ label: "TV-A-130 (TAR.1988.7.1)" });
       await form.getByLabel("To").selectOption({ label: to });
-      await form.getByLabel("When").fill(new Date(Date.now() - 60_000).toISOString().slice(0, 16));
+      // A minute ago on the browser's wall clock (the form sends the browser's zone with it).
+      const local = await page.evaluate(() => { const d = new Date(Date.now() - 60_000); d.setMinutes(d.getMinutes() - d.getTimezoneOffset()); return d.toISOString().slice(0, 16); });
+      await form.getByLabel("When").fill(local);
       await form.getByRole("button", { name: "Record move" }).click();
     };
     await move("Store 2 (basement) / Metals cabinet M1 / Drawer M1-2 / Sealed box 15 (silica gel)");
