@@ -5,7 +5,7 @@ import { checkMove } from "@/lib/collection/stays";
 import type { MoveObjectInput } from "@/lib/validation/collection";
 import { recordAudit } from "../audit";
 import { db, type DbOrTx, type Tx } from "../client";
-import { objectLocations, placements, specimens } from "../schema";
+import { chambers, objectLocations, placements, specimens } from "../schema";
 import { locationPaths, requireStorageLocation } from "./locations";
 import { blindTrialIds } from "./trial-access";
 
@@ -23,6 +23,8 @@ export async function moveObject({ labId, userId, input }: { labId: string; user
       const [object] = await tx.select({ id: specimens.id, label: specimens.label }).from(specimens)
         .where(and(eq(specimens.labId, labId), eq(specimens.id, input.specimenId))).for("update");
       if (!object) throw new AppError("not-found", "No such object in this lab.", { specimenId: ["Choose an object of this lab."] });
+      // Held for share: archiving the location (an update of its row) waits for this move.
+      await tx.select({ id: chambers.id }).from(chambers).where(and(eq(chambers.id, input.locationId), eq(chambers.labId, labId))).for("share");
       const location = await requireStorageLocation(tx, { labId, locationId: input.locationId });
       const [open] = await tx.select().from(objectLocations).where(and(eq(objectLocations.specimenId, object.id), isNull(objectLocations.toAt)));
       const check = checkMove(open ?? null, location.id, input.at);

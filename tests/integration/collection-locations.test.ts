@@ -157,6 +157,11 @@ describe("object moves", () => {
     expect(stays).toHaveLength(2);
   });
 
+  it("refuses archiving a location that still holds objects or open locations", async () => {
+    await expect(setChamberArchived({ labId: a.labId, userId: a.users.lead.id, chamberId: ids.drawer, archived: true })).rejects.toMatchObject({ code: "conflict", message: '"Drawer 3" still holds 1 object(s) and 1 location(s); move them out before archiving it.' });
+    expect((await db.select().from(s.chambers).where(eq(s.chambers.id, ids.drawer)))[0].archivedAt).toBeNull();
+  });
+
   it("counts objects per location in the tree", async () => {
     const flat = flattenTree(await listLocationTree({ labId: a.labId }));
     expect(Object.fromEntries(flat.map((n) => [n.name, n.objectCount]))).toMatchObject({ "Drawer 3": 1, "Box 14": 1, "Store 2": 0 });
