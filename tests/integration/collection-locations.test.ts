@@ -157,6 +157,29 @@ describe("object moves", () => {
     expect(stays).toHaveLength(2);
   });
 
+  it("serialises concurrent moves of one object: never two open stays, never an overlap", async () => {
+    const [sp] = await db.insert(s.specimens).values({ labId: a.labId, label: "RACE-1", materialClass: "other" }).returning();
+    const results = await Promise.all([ids.store, ids.box, ids.cab].map((locationId, i) =>
+      moveObjectAction.withIdentity(a.as("technician"), { specimenId: sp.id, locationId, at: `2025-04-0${i + 1}T10:00`, timeZone: "UTC" })));
+    expect(results.some((r) => r.ok)).toBe(true);
+    const stays = await db.select().from(s.objectLocations).where(eq(s.objectLocations.specimenId, sp.id)).orderBy(asc(s.objectLocations.fromAt));
+    expect(stays.filter((x) => x.toAt === null)).toHaveLength(1);
+    for (let i = 1; i < stays.length; i++) expect(stays[i - 1].toAt?.getTime()).toBe(stays[i].fromAt.getTime());
+    expect(stays).toHaveLength(results.filter((r) => r.ok).length);
+  });
+
+  it("serialises concurrent tree changes: two swaps that together would close a loop cannot both pass", async () => {
+    const mk = async (name: string) => ((await createLocationAction.withIdentity(a.as("lead"), place(name, "case", ids.store))).data as { id: string }).id;
+    const [x, y] = [await mk("Case X"), await mk("Case Y")];
+    const r = await Promise.all([
+      reparentLocationAction.withIdentity(a.as("lead"), { locationId: x, parentId: y }),
+      reparentLocationAction.withIdentity(a.as("lead"), { locationId: y, parentId: x }),
+    ]);
+    expect(r.filter((q) => q.ok)).toHaveLength(1);
+    const rows = await db.select({ id: s.chambers.id, parentId: s.chambers.parentId }).from(s.chambers).where(sql`${s.chambers.id} in (${x}, ${y})`);
+    expect(rows.filter((q) => q.parentId === x || q.parentId === y)).toHaveLength(1);
+  });
+
   it("refuses archiving a location that still holds objects or open locations", async () => {
     await expect(setChamberArchived({ labId: a.labId, userId: a.users.lead.id, chamberId: ids.drawer, archived: true })).rejects.toMatchObject({ code: "conflict", message: '"Drawer 3" still holds 1 object(s) and 1 location(s); move them out before archiving it.' });
     expect((await db.select().from(s.chambers).where(eq(s.chambers.id, ids.drawer)))[0].archivedAt).toBeNull();
