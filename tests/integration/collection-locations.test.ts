@@ -6,7 +6,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createLocationAction, moveObjectAction, reparentLocationAction } from "@/app/_actions/collection";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
-import { createChamberToken, setChamberArchived } from "@/db/queries/chambers";
+import { addDesiccantEvent, addHygrometerCheck, createChamberToken, setChamberArchived } from "@/db/queries/chambers";
 import { listLocationTree } from "@/db/queries/locations";
 import { listObjectStays } from "@/db/queries/object-locations";
 import { postReadingsWithToken } from "@/db/queries/readings";
@@ -91,6 +91,14 @@ describe("location tree", () => {
     const { token } = await createChamberToken({ labId: a.labId, userId: a.users.researcher.id, chamberId: ids.box, label: "box logger" });
     const res = await postReadingsWithToken({ token, chamberId: ids.box, body: [{ takenAt: "2025-06-01T10:00:00Z", rhPercent: 14.2, tempC: 18.1 }] });
     expect(res).toMatchObject({ received: 1, stored: 1 });
+    // Desiccant upkeep and hygrometer checks are the chamber ones too.
+    const charge = await addDesiccantEvent({ labId: a.labId, userId: a.users.technician.id, chamberId: ids.box, kind: "charged", at: new Date("2025-06-01T09:00:00Z"), massG: 250, notes: "fresh gel" });
+    expect(charge).toMatchObject({ chamberId: ids.box, kind: "charged", massG: 250 });
+    await expect(addDesiccantEvent({ labId: a.labId, userId: a.users.technician.id, chamberId: ids.store, kind: "charged", at: new Date("2025-06-01T09:00:00Z"), notes: "" })).rejects.toMatchObject({ message: "This chamber does not use a desiccant." });
+    const check = await addHygrometerCheck({ labId: a.labId, userId: a.users.technician.id, chamberId: ids.box, values: { instrument: "logger", saltId: "NaCl", tempC: 20, readingRhPercent: 77, checkedAt: new Date("2025-06-02T09:00:00Z"), apply: false, notes: "" } });
+    // Greenspan 1977, "Humidity fixed points of binary saturated aqueous solutions", Table 1: NaCl 75.47 %RH at
+    // 20 °C (from memory), so a 77 %RH reading is about 1.5 %RH high.
+    expect(check.offsetRhPercent).toBeCloseTo(77 - 75.47, 1);
     const archived = await createLocationAction.withIdentity(a.as("researcher"), place("Old shelf", "case", ids.store));
     const archivedId = (archived.data as { id: string }).id;
     const t2 = await createChamberToken({ labId: a.labId, userId: a.users.researcher.id, chamberId: archivedId, label: "old" });

@@ -4,7 +4,7 @@
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createLocationAction, moveObjectAction } from "@/app/_actions/collection";
-import { importSpecimensAction } from "@/app/_actions/specimens";
+import { createSpecimenAction, importSpecimensAction } from "@/app/_actions/specimens";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { currentPlaces, listObjectStays } from "@/db/queries/object-locations";
@@ -64,6 +64,13 @@ describe("register CSV import", () => {
     expect([places.get(byLabel["R-1"].id)?.locationId, places.get(byLabel["R-2"].id)?.locationId, places.get(byLabel["R-3"].id)]).toEqual([ids.d1a, ids.cabB, undefined]);
     const audits = await db.select().from(s.auditEvents).where(and(eq(s.auditEvents.labId, a.labId), eq(s.auditEvents.entity, "object-location")));
     expect(audits).toHaveLength(2);
+  });
+
+  it("keeps accession numbers unique in the lab on the form too, case-insensitively, at the field", async () => {
+    const r = await createSpecimenAction.withIdentity(a.as("researcher"), { label: "NEW-9", materialClass: "other", accessionNumber: "tar.2001.2" });
+    expect(r).toMatchObject({ ok: false, errors: { accessionNumber: ["This accession number is already used in this lab."] } });
+    const ok = await createSpecimenAction.withIdentity(a.as("researcher"), { label: "NEW-9", materialClass: "other", accessionNumber: "", chlorideState: "present" });
+    expect(ok.ok, ok.message).toBe(true);
   });
 
   it("exports the register with each place as a path, and the file reads back", async () => {
