@@ -1,11 +1,11 @@
 import "server-only";
-import { and, asc, desc, eq, inArray, isNull } from "drizzle-orm";
+import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { checkMove } from "@/lib/collection/stays";
 import type { MoveObjectInput } from "@/lib/validation/collection";
 import { recordAudit } from "../audit";
 import { db, type DbOrTx, type Tx } from "../client";
-import { chambers, objectLocations, placements, specimens } from "../schema";
+import { chambers, objectLocations, placements, specimens, trials } from "../schema";
 import { locationPaths, requireStorageLocation } from "./locations";
 import { blindTrialIds } from "./trial-access";
 
@@ -23,6 +23,8 @@ export async function moveObject({ labId, userId, input }: { labId: string; user
       const [object] = await tx.select({ id: specimens.id, label: specimens.label }).from(specimens)
         .where(and(eq(specimens.labId, labId), eq(specimens.id, input.specimenId))).for("update");
       if (!object) throw new AppError("not-found", "No such object in this lab.", { specimenId: ["Choose an object of this lab."] });
+      const [inTrial] = await runningTrialsOf(tx, labId, [object.id]);
+      if (inTrial) throw new AppError("conflict", `${object.label} is in the running trial "${inTrial.trialTitle}"; it moves through the trial until the trial ends.`, { specimenId: ["This object is in a running trial."] });
       // Held for share: archiving the location (an update of its row) waits for this move.
       await tx.select({ id: chambers.id }).from(chambers).where(and(eq(chambers.id, input.locationId), eq(chambers.labId, labId))).for("share");
       const location = await requireStorageLocation(tx, { labId, locationId: input.locationId });
@@ -53,6 +55,12 @@ export async function openFirstStays(tx: Tx, { labId, userId, stays }: { labId: 
   }
 }
 
+/** Open placements of these objects (all when `ids` is null) in running trials, with the trial's title. */
+async function runningTrialsOf(q: DbOrTx, labId: string, ids: string[] | null) {
+  return q.select({ specimenId: placements.specimenId, trialTitle: trials.title }).from(placements).innerJoin(trials, eq(trials.id, placements.trialId))
+    .where(and(eq(placements.labId, labId), isNull(placements.toAt), isNotNull(placements.fromAt), eq(trials.status, "running"), ids ? inArray(placements.specimenId, ids) : undefined));
+}
+
 /** Objects whose place this viewer may not see: those in a trial the viewer scores blind (stays could mirror arms). */
 export async function hiddenObjectIds({ labId, userId }: { labId: string; userId: string }, q: DbOrTx = db): Promise<Set<string>> {
   const blind = [...(await blindTrialIds({ labId, userId }))];
@@ -72,17 +80,19 @@ export async function listObjectStays({ labId, userId, specimenId }: { labId: st
   return { hidden: false as const, stays: stays.map((s) => ({ ...s, path: paths.get(s.locationId)?.path ?? "" })) };
 }
 
-/** Where each object is now (location id and path), hidden ones left out. */
+/** Where each object is now (location id and path) and the running trial it sits in, hidden ones left out. */
 export async function currentPlaces({ labId, userId }: { labId: string; userId: string }) {
-  const [open, paths, hidden] = await Promise.all([
+  const [open, paths, hidden, running] = await Promise.all([
     db.select({ specimenId: objectLocations.specimenId, locationId: objectLocations.locationId, fromAt: objectLocations.fromAt }).from(objectLocations)
       .where(and(eq(objectLocations.labId, labId), isNull(objectLocations.toAt))),
     locationPaths({ labId }),
     hiddenObjectIds({ labId, userId }),
+    runningTrialsOf(db, labId, null),
   ]);
   const out = new Map<string, { locationId: string; path: string; fromAt: Date }>();
   for (const o of open) if (!hidden.has(o.specimenId)) out.set(o.specimenId, { locationId: o.locationId, path: paths.get(o.locationId)?.path ?? "", fromAt: o.fromAt });
-  return { places: out, hidden };
+  const inTrial = new Map(running.filter((r) => !hidden.has(r.specimenId)).map((r) => [r.specimenId, r.trialTitle]));
+  return { places: out, hidden, inTrial };
 }
 
 /** The objects in one location now (for the tree's detail), hidden ones left out. */

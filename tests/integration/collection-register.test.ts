@@ -100,6 +100,10 @@ describe("blinding", () => {
     expect(exported.find((x) => x.id === obj.id)?.location).toBeNull();
     // Others see it; after the conclusion the scorer does too.
     expect((await currentPlaces({ labId: a.labId, userId: a.users.lead.id })).places.get(obj.id)?.locationId).toBe(ids.d1a);
+    expect((await currentPlaces({ labId: a.labId, userId: a.users.lead.id })).inTrial.get(obj.id)).toBe("Blind shelf trial");
+    // While the trial runs the object moves through the trial, not through the store.
+    const during = await moveObjectAction.withIdentity(a.as("lead"), { specimenId: obj.id, locationId: ids.store, at: "2025-03-01T09:00", timeZone: "UTC" });
+    expect(during).toMatchObject({ ok: false, errors: { specimenId: ["This object is in a running trial."] } });
     await db.update(s.trials).set({ status: "concluded" }).where(eq(s.trials.id, trial.id));
     expect((await currentPlaces({ labId: a.labId, userId: a.users.technician.id })).places.get(obj.id)?.locationId).toBe(ids.d1a);
     // The imported first place began at the import; a move must come after it (a minute from now is allowed).

@@ -19,7 +19,7 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
   const ctx = await labPage("/collection");
   const sp = await searchParams;
   const q = (sp.q ?? "").trim().slice(0, 100) || undefined;
-  const [tree, register, { places, hidden }, members] = await Promise.all([
+  const [tree, register, { places, hidden, inTrial }, members] = await Promise.all([
     listLocationTree({ labId: ctx.labId }),
     listSpecimens({ labId: ctx.labId, q, sort: "label", dir: "asc", page: 1, pageSize: PAGE_SIZE }),
     currentPlaces(ctx),
@@ -58,7 +58,7 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
       {can(ctx.role, "collection.move") && locationOptions.length > 0 && (
         <section aria-labelledby="move-h" className="space-y-2">
           <h2 id="move-h" className="text-lg font-semibold">Record a move</h2>
-          <MoveObjectForm objects={register.rows.filter((r) => !hidden.has(r.id)).map((r) => ({ value: r.id, label: r.accessionNumber ? `${r.label} (${r.accessionNumber})` : r.label }))} locations={locationOptions} />
+          <MoveObjectForm objects={register.rows.filter((r) => !hidden.has(r.id) && !inTrial.has(r.id)).map((r) => ({ value: r.id, label: r.accessionNumber ? `${r.label} (${r.accessionNumber})` : r.label }))} locations={locationOptions} />
         </section>
       )}
       <section aria-labelledby="reg-h" className="space-y-2">
@@ -79,7 +79,8 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
                   <td>{r.accessionNumber ?? ""}</td>
                   <td>{MATERIAL_CLASS_LABELS[r.materialClass]}</td>
                   <td>{CHLORIDE_STATE_LABELS[r.chlorideState]}</td>
-                  <td>{hidden.has(r.id) ? <span className="muted">{BLIND_HIDDEN}</span> : place ? `${place.path} (since ${place.fromAt.toISOString().slice(0, 10)})` : <span className="muted">not recorded</span>}</td>
+                  <td>{hidden.has(r.id) ? <span className="muted">{BLIND_HIDDEN}</span> : inTrial.has(r.id) ? `In the running trial “${inTrial.get(r.id)}”`
+                    : place ? `${place.path} (since ${place.fromAt.toISOString().slice(0, 10)})` : <span className="muted">not recorded</span>}</td>
                 </tr>
               );
             })}
