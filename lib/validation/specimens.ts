@@ -61,8 +61,9 @@ export const specimenSchema = z.object({
 });
 export type SpecimenInput = z.infer<typeof specimenSchema>;
 
-/** JSON PATCH: any subset; massG null clears the mass. */
+/** JSON PATCH: any subset; massG or accessionNumber null clears it. */
 export const specimenUpdateSchema = specimenSchema.partial().extend({
+  accessionNumber: z.string().trim().min(1, "Accession number: leave it out or send null to clear it.").max(60, "Accession number: use at most 60 characters.").nullable().optional(),
   massG: z.number("Mass must be a number of grams.").positive("Mass must be above 0 g.").max(1_000_000, "Mass must be at most 1,000,000 g (1 t).").nullable().optional(),
 });
 
