@@ -12,6 +12,7 @@ import { recordAudit } from "./audit";
 import { closeDb, db } from "./client";
 import { seedLadder } from "./seed-ladder";
 import { seedDemoPhotos } from "./seed-photos";
+import { seedStore } from "./seed-store";
 import * as s from "./schema";
 
 const DAY = 86_400_000;
@@ -140,6 +141,7 @@ async function main() {
       { labId: lab.id, chamberId: chambers.sieve, kind: "checked", at: new Date(start.getTime() + 28 * DAY), massG: 152.4, notes: "Weighed: +2.4 g taken up.", createdBy: users.technician },
     ]);
     await seedLadder(tx, { labId: lab.id, users, treatments, now });
+    await seedStore(tx, { labId: lab.id, users, now });
     await recordAudit(tx, { labId: lab.id, userId: users.lead, entity: "lab", entityId: lab.id, action: "create", summary: "Demo scenario loaded", after: { specimens: specimenRows.length, inspections: inspectionRows.length } });
     return { labId: lab.id, trialId: trial.id, technicianId: users.technician, start };
   });

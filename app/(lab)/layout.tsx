@@ -40,6 +40,7 @@ export default async function LabLayout({ children }: { children: React.ReactNod
     { href: "/trials", label: "Trials" },
     { href: "/due", label: "Due" },
     { href: "/chambers", label: "Chambers" },
+    { href: "/collection", label: "Collection" },
     { href: "/specimens", label: "Specimens" },
     { href: "/treatments", label: "Treatments" },
     { href: "/analysis", label: "Analysis" },

@@ -12,7 +12,7 @@ export const createSpecimenAction = labAction("specimens.write", specimenFormSch
 
 export const updateSpecimenAction = labAction("specimens.write", specimenEditFormSchema, async (ctx, { specimenId, ...input }) => {
   // The form always sends every field, so an empty mass means "no mass" rather than "unchanged".
-  const row = await updateSpecimen({ actor: ctx, specimenId, input: { ...input, massG: input.massG ?? null } });
+  const row = await updateSpecimen({ actor: ctx, specimenId, input: { ...input, massG: input.massG ?? null, accessionNumber: input.accessionNumber ?? null } });
   revalidate("/specimens");
   revalidate(`/specimens/${specimenId}`);
   return { message: `Specimen ${row.label} saved.`, data: { id: row.id } };

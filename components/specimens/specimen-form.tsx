@@ -3,11 +3,15 @@ import { useActionState, useEffect } from "react";
 import { useRouter } from "next/navigation";
 import { createSpecimenAction, updateSpecimenAction } from "@/app/_actions/specimens";
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
-import { MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, SURFACE_PREP_STEPS, splitSurfacePrep } from "@/lib/validation/specimens";
+import { CHLORIDE_STATE_LABELS, CHLORIDE_STATES, MATERIAL_CLASS_LABELS, MATERIAL_CLASSES, SURFACE_PREP_STEPS, splitSurfacePrep } from "@/lib/validation/specimens";
 
-type Specimen = { id: string; label: string; materialClass: string; findName: string; face: string; description: string; surfacePrep: string; massG: number | null; history: string; parentPiece: string; slice: string; provenance: string; contaminationNotes: string };
+type Specimen = {
+  id: string; label: string; materialClass: string; findName: string; face: string; description: string; surfacePrep: string; massG: number | null; history: string; parentPiece: string; slice: string; provenance: string; contaminationNotes: string;
+  accessionNumber: string | null; treatmentsApplied: string; chlorideState: string; storageNotes: string;
+};
 
 const classOptions = MATERIAL_CLASSES.map((c) => ({ value: c, label: MATERIAL_CLASS_LABELS[c] }));
+const chlorideOptions = CHLORIDE_STATES.map((c) => ({ value: c, label: CHLORIDE_STATE_LABELS[c] }));
 
 export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
   const [state, action] = useActionState(specimen ? updateSpecimenAction : createSpecimenAction, undefined);
@@ -31,6 +35,8 @@ export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
         <Field name="massG" label="Mass (g)" type="number" step="0.01" min="0" state={state} defaultValue={specimen?.massG ?? ""} />
         <Field name="parentPiece" label="Parent piece" state={state} defaultValue={specimen?.parentPiece} hint="The piece this was cut from, e.g. Tarrow mass 2 end piece. Slices of one parent can be balanced across arms." />
         <Field name="slice" label="Slice" state={state} defaultValue={specimen?.slice} hint="This slice's mark on the parent piece, e.g. S3." />
+        <Field name="accessionNumber" label="Accession number" state={state} defaultValue={specimen?.accessionNumber ?? ""} hint="The collection's register number, if it has one." />
+        <SelectField name="chlorideState" label="Chloride state" options={chlorideOptions} state={state} defaultValue={specimen?.chlorideState ?? "unknown"} />
       </div>
       <fieldset className="space-y-2" aria-describedby={prepErr ? "prep-err" : undefined}>
         <legend className="text-sm font-medium">Surface preparation</legend>
@@ -49,6 +55,8 @@ export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
       <TextArea name="history" label="History" state={state} defaultValue={specimen?.history} hint="Where it has been stored, earlier treatments, cutting." />
       <TextArea name="contaminationNotes" label="Contamination notes" state={state} defaultValue={specimen?.contaminationNotes}
         hint="Soil salts, earlier rusting, fire or weather damage, handling residues — anything that could speed up or mask rust." />
+      <TextArea name="treatmentsApplied" label="Treatments applied" state={state} defaultValue={specimen?.treatmentsApplied} hint="Conservation treatments already done, with years, e.g. alkaline sulfite 1998; tannin." />
+      <TextArea name="storageNotes" label="Storage notes" state={state} defaultValue={specimen?.storageNotes} hint="Handling and housing notes for the store." />
       <FormMessage state={state} />
       <SubmitButton>{specimen ? "Save specimen" : "Add specimen"}</SubmitButton>
     </form>

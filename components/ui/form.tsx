@@ -15,12 +15,14 @@ type FieldProps = {
   min?: string | number;
   max?: string | number;
   placeholder?: string;
+  /** Prefix of the element ids (default "f"), for two forms on one page with a field of the same name. */
+  idPrefix?: string;
 };
 
 /** A labelled input whose error is tied to it with aria-describedby; keeps what the user typed. */
-export function Field({ name, label, state, type = "text", defaultValue, hint, ...rest }: FieldProps) {
+export function Field({ name, label, state, type = "text", defaultValue, hint, idPrefix = "f", ...rest }: FieldProps) {
   const err = state?.errors?.[name];
-  const id = `f-${name}`;
+  const id = `${idPrefix}-${name}`;
   const value = state?.values?.[name] ?? (defaultValue == null ? undefined : String(defaultValue));
   const described = [err ? `${id}-err` : null, hint ? `${id}-hint` : null].filter(Boolean).join(" ") || undefined;
   return (
@@ -34,11 +36,11 @@ export function Field({ name, label, state, type = "text", defaultValue, hint, .
   );
 }
 
-type SelectProps = { name: string; label: string; state?: ActionState; options: { value: string; label: string }[]; defaultValue?: string | null; hint?: string };
+type SelectProps = { name: string; label: string; state?: ActionState; options: { value: string; label: string }[]; defaultValue?: string | null; hint?: string; idPrefix?: string };
 
-export function SelectField({ name, label, state, options, defaultValue, hint }: SelectProps) {
+export function SelectField({ name, label, state, options, defaultValue, hint, idPrefix = "f" }: SelectProps) {
   const err = state?.errors?.[name];
-  const id = `f-${name}`;
+  const id = `${idPrefix}-${name}`;
   const value = state?.values?.[name] ?? defaultValue ?? undefined;
   return (
     <div className="space-y-1">

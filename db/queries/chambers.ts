@@ -7,7 +7,7 @@ import type { SaltId } from "@/lib/humidity/salts";
 import type { ChamberInput, DesiccantEventKind } from "@/lib/validation/chambers";
 import { recordAudit } from "../audit";
 import { db, type DbOrTx } from "../client";
-import { chamberTokens, chambers, desiccantEvents, hygrometerChecks, inspections, readingImports, readings, trialArms } from "../schema";
+import { chamberTokens, chambers, desiccantEvents, hygrometerChecks, inspections, objectLocations, readingImports, readings, trialArms } from "../schema";
 
 export type Chamber = typeof chambers.$inferSelect;
 export type DesiccantEvent = typeof desiccantEvents.$inferSelect;
@@ -68,6 +68,14 @@ export async function updateChamber({ labId, userId, chamberId, values }: { labI
 export async function setChamberArchived({ labId, userId, chamberId, archived }: { labId: string; userId: string; chamberId: string; archived: boolean }) {
   return db.transaction(async (tx) => {
     const before = await getChamber({ labId, chamberId }, tx);
+    if (archived) {
+      // A storage location still holding objects or open locations would leave them nowhere.
+      const [held] = await tx.select({ objects: sql<number>`(select count(*)::int from ${objectLocations} o where o.location_id = ${chamberId} and o.to_at is null)`,
+        places: sql<number>`(select count(*)::int from ${chambers} c where c.parent_id = ${chamberId} and c.archived_at is null)` }).from(sql`(select 1) one`);
+      if (held.objects > 0 || held.places > 0) {
+        throw new AppError("conflict", `"${before.name}" still holds ${held.objects} object(s) and ${held.places} location(s); move them out before archiving it.`);
+      }
+    }
     const [after] = await tx.update(chambers).set({ archivedAt: archived ? new Date() : null, updatedAt: new Date() }).where(eq(chambers.id, chamberId)).returning();
     await recordAudit(tx, { labId, userId, entity: "chamber", entityId: chamberId, action: "update", summary: `Chamber "${after.name}" ${archived ? "archived" : "restored"}`, before: { archivedAt: before.archivedAt }, after: { archivedAt: after.archivedAt } });
     return after;

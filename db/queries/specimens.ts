@@ -7,6 +7,8 @@ import { recordAudit } from "../audit";
 import { db } from "../client";
 import { auditEvents, chambers, placements, specimens, treatments, trials } from "../schema";
 import { isUuid } from "@/lib/ids";
+import { currentPlaces, openFirstStays } from "./object-locations";
+import { registerConflicts, resolvePlaces } from "./register-import";
 
 export type Actor = { userId: string; labId: string; role: Role };
 export type Specimen = typeof specimens.$inferSelect;
@@ -67,11 +69,20 @@ async function labelTaken(labId: string, label: string, exceptId?: string) {
   return rows.some((r) => r.id !== exceptId);
 }
 
+async function accessionTaken(labId: string, accession: string | null | undefined, exceptId?: string) {
+  if (!accession) return false;
+  const rows = await db.select({ id: specimens.id }).from(specimens)
+    .where(and(eq(specimens.labId, labId), sql`lower(${specimens.accessionNumber}) = lower(${accession})`)).limit(2);
+  return rows.some((r) => r.id !== exceptId);
+}
+const accessionConflict = (a: string) => new AppError("conflict", `Accession number "${a}" is already used in this lab.`, { accessionNumber: ["This accession number is already used in this lab."] });
+
 const labelConflict = (label: string) => new AppError("conflict", `A specimen labelled "${label}" already exists in this lab.`, { label: ["This label is already used in this lab."] });
 
 export async function createSpecimen({ actor, input }: { actor: Actor; input: SpecimenInput }) {
   assertAllowed(actor, "specimens.write");
   if (await labelTaken(actor.labId, input.label)) throw labelConflict(input.label);
+  if (await accessionTaken(actor.labId, input.accessionNumber)) throw accessionConflict(input.accessionNumber!);
   return db.transaction(async (tx) => {
     const [row] = await tx.insert(specimens).values({ ...input, massG: input.massG ?? null, labId: actor.labId, createdBy: actor.userId }).returning();
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "specimen", entityId: row.id, action: "create", summary: `Specimen ${row.label} added`, after: row });
@@ -79,10 +90,11 @@ export async function createSpecimen({ actor, input }: { actor: Actor; input: Sp
   });
 }
 
-export async function updateSpecimen({ actor, specimenId, input }: { actor: Actor; specimenId: string; input: Partial<Omit<SpecimenInput, "massG">> & { massG?: number | null } }) {
+export async function updateSpecimen({ actor, specimenId, input }: { actor: Actor; specimenId: string; input: Partial<Omit<SpecimenInput, "massG" | "accessionNumber">> & { massG?: number | null; accessionNumber?: string | null } }) {
   assertAllowed(actor, "specimens.write");
   if (!isUuid(specimenId)) throw new AppError("not-found", "No such specimen in this lab.");
   if (input.label && (await labelTaken(actor.labId, input.label, specimenId))) throw labelConflict(input.label);
+  if (await accessionTaken(actor.labId, input.accessionNumber, specimenId)) throw accessionConflict(input.accessionNumber!);
   return db.transaction(async (tx) => {
     const [before] = await tx.select().from(specimens).where(and(eq(specimens.labId, actor.labId), eq(specimens.id, specimenId))).for("update");
     if (!before) throw new AppError("not-found", "No such specimen in this lab.");
@@ -113,28 +125,44 @@ export async function importSpecimens({ actor, csv }: { actor: Actor; csv: strin
       if (taken.has(r.value.label.toLowerCase())) errors.push({ line: r.line, field: "label", message: `Label "${r.value.label}" already exists in this lab.` });
     }
   }
+  errors.push(...(await registerConflicts(actor.labId, parsed.rows)));
+  const places = await resolvePlaces(actor.labId, parsed.rows);
+  errors.push(...places.errors);
   if (errors.length) return { ok: false, errors: errors.sort((a, b) => a.line - b.line), total: parsed.total };
+  const at = new Date();
   try {
     await db.transaction(async (tx) => {
       for (let i = 0; i < parsed.rows.length; i += 1000) {
-        const rows = await tx.insert(specimens).values(parsed.rows.slice(i, i + 1000).map((r) => ({ ...r.value, massG: r.value.massG ?? null, labId: actor.labId, createdBy: actor.userId }))).returning();
+        const slice = parsed.rows.slice(i, i + 1000);
+        const rows = await tx.insert(specimens).values(slice.map((r) => ({ ...r.value, massG: r.value.massG ?? null, accessionNumber: r.value.accessionNumber ?? null, labId: actor.labId, createdBy: actor.userId }))).returning();
         // One audit event per specimen, written in bulk (same shape as recordAudit).
         await tx.insert(auditEvents).values(rows.map((row) => ({
           labId: actor.labId, userId: actor.userId, entity: "specimen", entityId: row.id, action: "create" as const,
           summary: `Specimen ${row.label} imported from CSV`, after: JSON.parse(JSON.stringify(row)),
         })));
+        const stays = rows.flatMap((row, k) => {
+          const place = places.byLine.get(slice[k].line);
+          return place ? [{ specimenId: row.id, label: row.label, locationId: place.id, locationName: place.path, at }] : [];
+        });
+        await openFirstStays(tx, { labId: actor.labId, userId: actor.userId, stays });
       }
     });
   } catch (err) {
     const code = (err as { code?: string; cause?: { code?: string } }).code ?? (err as { cause?: { code?: string } }).cause?.code;
-    if (code === "23505") return { ok: false, errors: [{ line: 0, message: "Another import added one of these labels meanwhile. Nothing was imported; try again." }], total: parsed.total };
+    if (code === "23505") return { ok: false, errors: [{ line: 0, message: "Another import added one of these labels or accession numbers meanwhile. Nothing was imported; try again." }], total: parsed.total };
+    if (code === "23514") return { ok: false, errors: [{ line: 0, message: "A location named in the file was changed meanwhile. Nothing was imported; try again." }], total: parsed.total };
     throw err;
   }
   return { ok: true, created: parsed.rows.length };
 }
 
-export async function exportSpecimens({ labId, q, materialClass }: { labId: string; q?: string; materialClass?: string }) {
-  return db.select().from(specimens).where(listWhere({ labId, q, materialClass })).orderBy(asc(specimens.label)).limit(100_000);
+/** The register for the CSV: each object with its current place (blank where the viewer may not see it). */
+export async function exportSpecimens({ labId, userId, q, materialClass }: { labId: string; userId: string; q?: string; materialClass?: string }) {
+  const [rows, { places }] = await Promise.all([
+    db.select().from(specimens).where(listWhere({ labId, q, materialClass })).orderBy(asc(specimens.label)).limit(100_000),
+    currentPlaces({ labId, userId }),
+  ]);
+  return rows.map((r) => ({ ...r, location: places.get(r.id)?.path ?? null }));
 }
 
 /** Where a specimen has been: every placement with its trial, chamber and treatment. */

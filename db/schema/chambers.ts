@@ -1,6 +1,6 @@
-import { bigserial, boolean, doublePrecision, index, integer, pgTable, primaryKey, smallint, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { type AnyPgColumn, bigserial, boolean, doublePrecision, index, integer, pgTable, primaryKey, smallint, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
-import { chamberKindEnum, desiccantEventKindEnum, readingSourceEnum } from "./enums";
+import { chamberKindEnum, desiccantEventKindEnum, locationKindEnum, readingSourceEnum } from "./enums";
 
 export const chambers = pgTable("chambers", {
   id: uuid("id").primaryKey().defaultRandom(),
@@ -19,11 +19,16 @@ export const chambers = pgTable("chambers", {
   airExchangePerDay: doublePrecision("air_exchange_per_day"),
   roomRhPercent: doublePrecision("room_rh_percent"),
   notes: text("notes").notNull().default(""),
+  // The collection tree (lib/collection/locations.ts): a trial jar is a location used in a trial.
+  // Same lab and no cycles are checked by the trigger of migration 0017 as well as by the queries.
+  locationKind: locationKindEnum("location_kind").notNull().default("trial-jar"),
+  parentId: uuid("parent_id").references((): AnyPgColumn => chambers.id, { onDelete: "restrict" }),
+  keeperId: uuid("keeper_id").references(() => users.id, { onDelete: "set null" }),
   archivedAt: timestamp("archived_at", { withTimezone: true }),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
-}, (t) => [index("chambers_lab_idx").on(t.labId, t.name)]);
+}, (t) => [index("chambers_lab_idx").on(t.labId, t.name), index("chambers_parent_idx").on(t.parentId)]);
 
 export const readings = pgTable("readings", {
   id: bigserial("id", { mode: "number" }).primaryKey(),

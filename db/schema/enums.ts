@@ -18,3 +18,6 @@ export const scoreRuleEnum = pgEnum("score_rule", ["primary-scorer", "consensus"
 export const photoStatusEnum = pgEnum("photo_status", ["pending", "ready", "failed"]);
 export const silicateChangeEnum = pgEnum("silicate_change", ["none", "slight", "marked"]);
 export const auditActionEnum = pgEnum("audit_action", ["create", "update", "delete"]);
+// Where a chamber row sits in the collection tree: a trial jar, or a storage location (room → cabinet → …).
+export const locationKindEnum = pgEnum("location_kind", ["trial-jar", "room", "cabinet", "case", "drawer", "sealed-box"]);
+export const chlorideStateEnum = pgEnum("chloride_state", ["unknown", "not-detected", "present", "active", "desalinated"]);

@@ -8,3 +8,4 @@ export * from "./trials";
 export * from "./photos";
 export * from "./storage-rules";
 export * from "./photo-align";
+export * from "./collection";

@@ -1,6 +1,6 @@
 import { doublePrecision, index, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
-import { materialClassEnum, treatmentKindEnum } from "./enums";
+import { chlorideStateEnum, materialClassEnum, treatmentKindEnum } from "./enums";
 
 export const specimens = pgTable("specimens", {
   id: uuid("id").primaryKey().defaultRandom(),
@@ -18,11 +18,17 @@ export const specimens = pgTable("specimens", {
   slice: text("slice").notNull().default(""),
   provenance: text("provenance").notNull().default(""),
   contaminationNotes: text("contamination_notes").notNull().default(""),
+  // Object register (a specimen never in a trial is an object too).
+  accessionNumber: text("accession_number"),
+  treatmentsApplied: text("treatments_applied").notNull().default(""),
+  chlorideState: chlorideStateEnum("chloride_state").notNull().default("unknown"),
+  storageNotes: text("storage_notes").notNull().default(""),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [
   uniqueIndex("specimens_lab_label_idx").on(t.labId, t.label),
+  uniqueIndex("specimens_lab_accession_idx").on(t.labId, t.accessionNumber),
   index("specimens_lab_class_idx").on(t.labId, t.materialClass),
   index("specimens_lab_created_idx").on(t.labId, t.createdAt),
 ]);

@@ -13,6 +13,7 @@ export const PAGE_ROUTES = {
   "/analysis": { permission: "analysis.read" },
   "/audit": { permission: "audit.read" },
   "/chambers": { permission: "lab.read" },
+  "/collection": { permission: "lab.read" },
   "/chambers/new": { permission: "chambers.write" },
   "/chambers/[chamberId]": { permission: "lab.read" },
   "/chambers/[chamberId]/edit": { permission: "chambers.write" },

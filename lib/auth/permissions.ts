@@ -30,6 +30,8 @@ export const PERMISSIONS = {
   "scores.write": STAFF,
   // Recording the agreed score after scorers discussed a disagreement (trials with the consensus rule).
   "scores.consensus": DESIGN,
+  // Moving collection objects between storage locations (done at the shelf, so technicians too).
+  "collection.move": STAFF,
   // A storage rule is the lab's policy for its collection: the lead accepts it.
   "storageRules.accept": ["lead"],
 } as const satisfies Record<string, readonly Role[]>;
@@ -43,6 +45,6 @@ export function can(role: Role | null | undefined, permission: Permission): bool
 export const ROLE_LABELS: Record<Role, { name: string; summary: string }> = {
   lead: { name: "Lead", summary: "Everything, including members, scorer assignment and concluding trials" },
   researcher: { name: "Researcher", summary: "Designs trials, chambers, specimens and treatments; runs analysis" },
-  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings and desiccant upkeep" },
+  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings, desiccant upkeep and object moves" },
   observer: { name: "Observer", summary: "Reads everything except photo locations; changes nothing" },
 };

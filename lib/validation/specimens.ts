@@ -15,6 +15,17 @@ export const MATERIAL_CLASS_LABELS: Record<MaterialClass, string> = {
   other: "Other",
 };
 
+// How far a find's chlorides are known and dealt with (register field; common conservation usage).
+export const CHLORIDE_STATES = ["unknown", "not-detected", "present", "active", "desalinated"] as const;
+export type ChlorideState = (typeof CHLORIDE_STATES)[number];
+export const CHLORIDE_STATE_LABELS: Record<ChlorideState, string> = {
+  unknown: "Unknown",
+  "not-detected": "Not detected",
+  present: "Present, stable",
+  active: "Active (weeping, akaganeite)",
+  desalinated: "Desalinated",
+};
+
 // Common preparation steps offered as checkboxes; anything else goes in the free-text part.
 export const SURFACE_PREP_STEPS = ["as found", "cut", "ground", "polished", "etched", "degreased"] as const;
 
@@ -42,11 +53,20 @@ export const specimenSchema = z.object({
   slice: text(60, "Slice"),
   provenance: text(4000, "Provenance"),
   contaminationNotes: text(4000, "Contamination notes"),
+  // Object register: the museum's accession number (unique in the lab when given), conservation
+  // treatments already applied, chloride state and storage notes.
+  accessionNumber: z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v),
+    z.string().trim().max(60, "Accession number: use at most 60 characters.").optional()),
+  treatmentsApplied: text(2000, "Treatments applied"),
+  chlorideState: z.preprocess((v) => (v === "" || v === undefined ? "unknown" : parseMaterialClass(v)),
+    z.enum(CHLORIDE_STATES, `Choose a chloride state: ${CHLORIDE_STATES.join(", ")}.`)),
+  storageNotes: text(4000, "Storage notes"),
 });
 export type SpecimenInput = z.infer<typeof specimenSchema>;
 
-/** JSON PATCH: any subset; massG null clears the mass. */
+/** JSON PATCH: any subset; massG or accessionNumber null clears it. */
 export const specimenUpdateSchema = specimenSchema.partial().extend({
+  accessionNumber: z.string().trim().min(1, "Accession number: leave it out or send null to clear it.").max(60, "Accession number: use at most 60 characters.").nullable().optional(),
   massG: z.number("Mass must be a number of grams.").positive("Mass must be above 0 g.").max(1_000_000, "Mass must be at most 1,000,000 g (1 t).").nullable().optional(),
 });
 
@@ -83,17 +103,21 @@ export const specimenListSchema = z.object({
 export type SpecimenListParams = z.infer<typeof specimenListSchema>;
 
 // ---- CSV ----
-export const CSV_COLUMNS = ["label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "contamination_notes"] as const;
-const CSV_TO_FIELD: Record<(typeof CSV_COLUMNS)[number], keyof SpecimenInput> = {
+const FIELD_COLUMNS = ["label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "contamination_notes",
+  "accession_number", "treatments_applied", "chloride_state", "storage_notes"] as const;
+/** `location` names a storage location (its name, or its path "Room / Cabinet / Drawer"): the object's place from the import on. */
+export const CSV_COLUMNS = [...FIELD_COLUMNS, "location"] as const;
+const CSV_TO_FIELD: Record<(typeof FIELD_COLUMNS)[number], keyof SpecimenInput> = {
   label: "label", material_class: "materialClass", find_name: "findName", face: "face", description: "description",
   surface_prep: "surfacePrep", mass_g: "massG", history: "history", contamination_notes: "contaminationNotes",
+  accession_number: "accessionNumber", treatments_applied: "treatmentsApplied", chloride_state: "chlorideState", storage_notes: "storageNotes",
 };
 export const MAX_IMPORT_ROWS = 5000;
 // Under the 2 MB server-action body limit (next.config.ts) with room for the form around it.
 export const MAX_IMPORT_BYTES = 1_500_000;
 
 export type CsvRowError = { line: number; field?: string; message: string };
-export type CsvParseResult = { rows: { line: number; value: SpecimenInput }[]; errors: CsvRowError[]; total: number };
+export type CsvParseResult = { rows: { line: number; value: SpecimenInput; location: string | null }[]; errors: CsvRowError[]; total: number };
 
 
 /**
@@ -109,6 +133,7 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
   let prevCursor = 0;
   let total = 0;
   const firstLineOf = new Map<string, number>();
+  const firstAccessionLine = new Map<string, number>();
   // Newlines are counted incrementally from the previous row, so this stays linear in the file size.
   let countedTo = 0;
   let countedLines = 0;
@@ -142,7 +167,9 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
         return;
       }
       const obj: Record<string, unknown> = {};
+      let location: string | null = null;
       header.forEach((h, i) => {
+        if (h === "location") location = unguardText(cells[i]).trim() || null;
         const field = CSV_TO_FIELD[h as keyof typeof CSV_TO_FIELD];
         if (field) obj[field] = unguardText(cells[i]); // our exports guard text cells (lib/export/csv.ts)
       });
@@ -161,8 +188,15 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
         errors.push({ line, field: "label", message: `Label "${parsed.data.label}" is repeated (first on line ${seen}).` });
         return;
       }
+      const accession = parsed.data.accessionNumber?.toLowerCase();
+      const seenAccession = accession === undefined ? undefined : firstAccessionLine.get(accession);
+      if (seenAccession !== undefined) {
+        errors.push({ line, field: "accession_number", message: `Accession number "${parsed.data.accessionNumber}" is repeated (first on line ${seenAccession}).` });
+        return;
+      }
       firstLineOf.set(key, line);
-      rows.push({ line, value: parsed.data });
+      if (accession !== undefined) firstAccessionLine.set(accession, line);
+      rows.push({ line, value: parsed.data, location });
     },
   });
   if (!header) errors.push({ line: 1, message: "The file is empty. The first line must name the columns." });
@@ -170,10 +204,12 @@ export function parseSpecimenCsv(input: string): CsvParseResult {
   return { rows, errors, total };
 }
 
-export function specimensToCsv(rows: readonly SpecimenInput[]): string {
+/** The register as CSV; `location` is the object's current place as a path (blank when unknown or hidden). */
+export type RegisterCsvRow = Omit<SpecimenInput, "massG" | "accessionNumber"> & { massG?: number | null; accessionNumber?: string | null; location?: string | null };
+export function specimensToCsv(rows: readonly RegisterCsvRow[]): string {
   return toCsv(
     CSV_COLUMNS,
-    rows.map((r) => CSV_COLUMNS.map((c) => String(r[CSV_TO_FIELD[c]] ?? ""))),
+    rows.map((r) => CSV_COLUMNS.map((c) => (c === "location" ? (r.location ?? "") : String(r[CSV_TO_FIELD[c]] ?? "")))),
     CSV_COLUMNS.map((c) => c !== "mass_g"),
   );
 }

@@ -27,7 +27,7 @@ afterAll(async () => {
 
 describe("accessibility", () => {
   it("main pages have no serious or critical axe violations", async () => {
-    const pages = ["/", "/trials", "/due", "/chambers", `/chambers/${chamberId}`, "/chambers/new", "/specimens", `/specimens/${specimenId}`, "/treatments",
+    const pages = ["/", "/trials", "/due", "/chambers", "/collection", `/chambers/${chamberId}`, "/chambers/new", "/specimens", `/specimens/${specimenId}`, "/treatments",
       "/analysis", `/trials/${trialId}`, `/trials/${trialId}/compare`, "/audit", "/settings", "/mailbox"];
     const found: Record<string, unknown> = {};
     for (const p of pages) {

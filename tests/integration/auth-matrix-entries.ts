@@ -40,6 +40,7 @@ const score = { spotCount: "0", areaPercent: "0", silicateChange: "none" };
 
 const CHAMBER = "app/_actions/chamber-records.ts";
 const CHAMBERS = "app/_actions/chambers.ts";
+const COLLECTION = "app/_actions/collection.ts";
 const SETTINGS = "app/_actions/settings.ts";
 const SPECIMENS = "app/_actions/specimens.ts";
 const HISTORY = "app/_actions/specimen-history.ts";
@@ -60,6 +61,10 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${CHAMBER}#setCheckAppliedAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, checkId: f.checkId, applied: "1" }) },
   [`${CHAMBER}#createTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, label: "outsider's logger" }) },
   [`${CHAMBER}#revokeTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, tokenId: f.tokenId }) },
+  // Another lab's location as the parent, as the new place of one's own object, or moved in the tree: not found.
+  [`${COLLECTION}#createLocationAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ name: "Outsider box", locationKind: "sealed-box", parentId: f.chamberId, kind: "open-shelf", nominalTempC: "20", setpointRhPercent: "45" }) },
+  [`${COLLECTION}#reparentLocationAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ locationId: f.chamberId }) },
+  [`${COLLECTION}#moveObjectAction`]: { permission: "collection.move", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, locationId: f.chamberId, at: "2026-01-05T10:00", ...at }) },
   [`${CHAMBERS}#createChamberAction`]: { permission: "chambers.write", empty: "invalid" },
   [`${CHAMBERS}#updateChamberAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, name: "Taken over", kind: "water", nominalTempC: "20" }) },
   [`${CHAMBERS}#archiveChamberAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, archive: "1" }) },

@@ -73,7 +73,7 @@ describe("specimen CSV import", () => {
 
   it("the export reads back to the same specimens, with spreadsheet formulas defused", async () => {
     await createSpecimenAction.withIdentity(a.as("researcher"), { label: "=HYPERLINK(1)", materialClass: "other", description: "quote \" and, comma\nnew line", massG: "2.5" });
-    const rows = await exportSpecimens({ labId: a.labId });
+    const rows = await exportSpecimens({ labId: a.labId, userId: a.users.researcher.id });
     const csv = specimensToCsv(rows.map((r) => ({ ...r, massG: r.massG ?? undefined })));
     expect(csv).toContain("'=HYPERLINK(1)");
     const back = parseSpecimenCsv(csv);

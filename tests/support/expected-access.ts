@@ -4,8 +4,9 @@
 import type { Permission, Role } from "@/lib/auth/permissions";
 
 const READ: Permission[] = ["lab.read", "audit.read", "analysis.read", "export.read"];
-// Technicians: inspections, photos (with their locations), scores, readings, desiccant upkeep, trial notes.
-const BENCH: Permission[] = ["readings.write", "desiccant.write", "inspections.record", "photos.upload", "photos.gps", "scores.write", "trials.notes"];
+// Technicians: inspections, photos (with their locations), scores, readings, desiccant upkeep, trial notes,
+// moving collection objects between storage locations.
+const BENCH: Permission[] = ["readings.write", "desiccant.write", "inspections.record", "photos.upload", "photos.gps", "scores.write", "trials.notes", "collection.move"];
 // Researchers: design trials, chambers (and their logger tokens), specimens, treatments; move inspections;
 // record the agreed score after scorers discussed a disagreement.
 const DESIGN: Permission[] = ["chambers.write", "chambers.tokens", "specimens.write", "treatments.write", "trials.write", "inspections.reschedule", "scores.consensus"];
@@ -30,6 +31,7 @@ export const PAGE_PERMISSIONS: Record<string, Permission> = {
   "/analysis": "analysis.read",
   "/audit": "audit.read",
   "/chambers": "lab.read",
+  "/collection": "lab.read",
   "/chambers/new": "chambers.write",
   "/chambers/[chamberId]": "lab.read",
   "/chambers/[chamberId]/edit": "chambers.write",

@@ -1,4 +1,5 @@
 import Link from "next/link";
+import { isStorageKind, LOCATION_KIND_LABELS } from "@/lib/collection/locations";
 import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
 import { listReadingImports, listRecentReadings } from "@/db/queries/readings";
@@ -46,7 +47,11 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
   const desiccantKind = chamber.desiccantKind && chamber.desiccantKind in DESICCANTS ? (chamber.desiccantKind as DesiccantKind) : null;
   return (
     <div className="space-y-6">
-      <p className="text-sm"><Link className="link" href="/chambers">Chambers</Link> / {chamber.name}</p>
+      {isStorageKind(chamber.locationKind) ? (
+        <p className="text-sm"><Link className="link" href="/collection">Collection</Link> / {LOCATION_KIND_LABELS[chamber.locationKind]} {chamber.name}</p>
+      ) : (
+        <p className="text-sm"><Link className="link" href="/chambers">Chambers</Link> / {chamber.name}</p>
+      )}
       {sp.saved && <p role="status" className="text-sm rounded-md px-3 py-2 bg-verdigris-50 text-verdigris-800">Chamber {sp.saved === "created" ? "saved" : "updated"}.</p>}
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-2xl font-semibold">{chamber.name}</h1>

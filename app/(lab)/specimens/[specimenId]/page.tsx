@@ -6,7 +6,8 @@ import { BLIND_HIDDEN, hideArmsOfTrials } from "@/lib/trials/access";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime, formatNumber } from "@/lib/format";
-import { MATERIAL_CLASS_LABELS } from "@/lib/validation/specimens";
+import { CHLORIDE_STATE_LABELS, MATERIAL_CLASS_LABELS } from "@/lib/validation/specimens";
+import { listObjectStays } from "@/db/queries/object-locations";
 import { EmptyState } from "@/components/ui/empty-state";
 import { loadSpecimenHistory } from "@/db/queries/specimen-history";
 import { latestToday } from "@/lib/specimens/history";
@@ -29,7 +30,9 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
   const ctx = await labPage("/specimens/[specimenId]");
   const specimen = await getSpecimen({ labId: ctx.labId, specimenId });
   if (!specimen) notFound();
-  const [rawPlacements, blindIn] = await Promise.all([listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId })]);
+  const [rawPlacements, blindIn, storage] = await Promise.all([
+    listSpecimenPlacements({ labId: ctx.labId, specimenId }), blindTrialIds({ labId: ctx.labId, userId: ctx.userId }), listObjectStays({ labId: ctx.labId, userId: ctx.userId, specimenId }),
+  ]);
   const placements = hideArmsOfTrials(rawPlacements, blindIn);
   const history = await loadSpecimenHistory({ labId: ctx.labId, specimenId, blindTrialIds: blindIn });
   return (
@@ -57,6 +60,24 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
           <Fact term="Parent piece and slice">{[specimen.parentPiece, specimen.slice].filter(Boolean).join(", slice ")}</Fact>
           <Fact term="Contamination notes">{specimen.contaminationNotes}</Fact>
         </dl>
+        <dl className="grid gap-4 md:grid-cols-4 mt-4">
+          <Fact term="Accession number">{specimen.accessionNumber}</Fact>
+          <Fact term="Chloride state">{CHLORIDE_STATE_LABELS[specimen.chlorideState]}</Fact>
+          <Fact term="Treatments applied">{specimen.treatmentsApplied}</Fact>
+          <Fact term="Storage notes">{specimen.storageNotes}</Fact>
+        </dl>
+      </section>
+      <section className="space-y-2" aria-labelledby="storage-h">
+        <h2 id="storage-h" className="text-lg font-semibold">Storage history</h2>
+        {storage.hidden ? <p className="muted text-sm">{BLIND_HIDDEN}</p> : storage.stays.length === 0 ? (
+          <EmptyState text="No storage place recorded yet." action={{ href: "/collection", label: "Go to the collection" }} />
+        ) : (
+          <ul className="text-sm space-y-1">
+            {storage.stays.map((st) => (
+              <li key={st.id}><Link className="link" href={`/chambers/${st.locationId}`}>{st.path}</Link> — {formatDateTime(st.fromAt)} to {st.toAt ? formatDateTime(st.toAt) : <span className="font-medium">now</span>}{st.reason ? ` (${st.reason})` : ""}</li>
+            ))}
+          </ul>
+        )}
       </section>
       <section className="space-y-2" aria-labelledby="history-h">
         <h2 id="history-h" className="text-lg font-semibold">Specimen history</h2>

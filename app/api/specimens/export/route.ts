@@ -5,7 +5,7 @@ import { specimenListSchema, specimensToCsv } from "@/lib/validation/specimens";
 
 export const GET = labRoute("export.read", async (ctx, req) => {
   const { q, materialClass } = specimenListSchema.parse(Object.fromEntries(new URL(req.url).searchParams));
-  const rows = await exportSpecimens({ labId: ctx.labId, q, materialClass });
+  const rows = await exportSpecimens({ labId: ctx.labId, userId: ctx.userId, q, materialClass });
   const csv = specimensToCsv(rows.map((r) => ({ ...r, massG: r.massG ?? undefined })));
   return new Response(csv, {
     headers: {

@@ -1,0 +1,34 @@
+// zod schemas for storage locations (a chamber with a place in the collection tree) and object moves.
+import { z } from "zod";
+import { STORAGE_KINDS } from "@/lib/collection/locations";
+import { chamberSchema, localToInstant } from "./chambers";
+
+const optionalId = (message: string) => z.preprocess((v) => (v === "" || v === null ? undefined : v), z.uuid(message).optional());
+
+const placeFields = z.object({
+  locationKind: z.enum(STORAGE_KINDS, "Choose what kind of place this is."),
+  parentId: optionalId("Choose the location this one sits in, or none."),
+  keeperId: optionalId("Choose the keeper from the lab's members."),
+});
+
+/** A storage location: the chamber fields (how its humidity is held = its microclimate) and its place. */
+export const locationSchema = z.intersection(placeFields, chamberSchema);
+export type LocationInput = z.output<typeof locationSchema>;
+export const locationUpdateSchema = z.intersection(z.object({ locationId: z.uuid() }), locationSchema);
+
+/** Only the place in the tree (parent), as the tree's "move into" form sends it. */
+export const reparentSchema = z.object({ locationId: z.uuid(), parentId: optionalId("Choose the location this one sits in, or none.") });
+
+export const moveObjectSchema = z
+  .object({
+    specimenId: z.uuid("Choose the object."),
+    locationId: z.uuid("Choose where the object goes."),
+    at: z.string().trim().min(1, "Enter the date and time of the move."),
+    timeZone: z.preprocess((v) => (typeof v === "string" && v.trim() !== "" ? v : "UTC"), z.string().trim().max(64)),
+    reason: z.preprocess((v) => v ?? "", z.string().trim().max(500, "Use at most 500 characters.")),
+  })
+  .superRefine((v, ctx) => {
+    if (!localToInstant(v.at, v.timeZone)) ctx.addIssue({ code: "custom", path: ["at"], message: "Enter a date and time such as 2025-03-01 14:30." });
+  })
+  .transform((v) => ({ specimenId: v.specimenId, locationId: v.locationId, at: localToInstant(v.at, v.timeZone)!, reason: v.reason }));
+export type MoveObjectInput = z.output<typeof moveObjectSchema>;
