@@ -7,6 +7,7 @@
 //     .jpeg({ quality: 90 }).toFile("face.jpg");
 import { createRng, randomBetween, randomInt, type Rng } from "@/lib/allocation/prng";
 import { polygonCrossings, type Point } from "@/lib/scoring/geometry";
+import { paintScaleBar, type DrawnScaleBar } from "./scale-bar";
 
 export type SpecimenKind = "iron" | "stony-iron";
 export type RustSpot = { x: number; y: number; r: number };
@@ -17,7 +18,10 @@ export type SpecimenFaceOptions = {
   seed: string | number;
   kind: SpecimenKind;
   rustSpots: readonly RustSpot[];
+  /** Draw a white scale bar of lengthMm (default 10) at this many px per mm, bottom left, off the face. */
+  scaleBar?: { pxPerMm: number; lengthMm?: number };
 };
+
 
 export type SpecimenFace = {
   width: number;
@@ -27,6 +31,9 @@ export type SpecimenFace = {
   face: Point[];
   /** Painted rust pixels inside the face / face pixels (pixel centre inside the outline). */
   trueRustFraction: number;
+  /** Painted rust pixels inside the face (px², one pixel = 1 px²). */
+  rustPixels: number;
+  scaleBar: DrawnScaleBar | null;
 };
 
 type Rgb = [number, number, number];
@@ -98,6 +105,7 @@ export function renderSpecimenFace(opts: SpecimenFaceOptions): SpecimenFace {
   for (const spot of opts.rustSpots) paintRustSpot(data, faceMask, rustMask, width, height, spot, rng);
   // Lens softness then sensor noise, so spot edges and grain edges blend as on a real photo.
   softenEdges(data, width, height);
+  const scaleBar = opts.scaleBar ? paintScaleBar(data, faceMask, width, height, opts.scaleBar) : null;
   addSensorNoise(data, randomInt(rng, 2 ** 31));
 
   let facePixels = 0;
@@ -106,8 +114,9 @@ export function renderSpecimenFace(opts: SpecimenFaceOptions): SpecimenFace {
     facePixels += faceMask[i];
     rustPixels += rustMask[i];
   }
-  return { width, height, data, face, trueRustFraction: facePixels === 0 ? 0 : rustPixels / facePixels };
+  return { width, height, data, face, trueRustFraction: facePixels === 0 ? 0 : rustPixels / facePixels, rustPixels, scaleBar };
 }
+
 
 function insideFace(face: readonly Point[], x: number, y: number): boolean {
   const c = polygonCrossings(face, y);
