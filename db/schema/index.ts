@@ -6,3 +6,4 @@ export * from "./specimens";
 export * from "./trials";
 export * from "./photos";
 export * from "./storage-rules";
+export * from "./photo-evidence";
