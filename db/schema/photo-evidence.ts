@@ -2,14 +2,11 @@
 // the photo's scale (two points on the scale bar, or px per mm typed in). A series scale holds for
 // every photo of one specimen in one trial when the framing is fixed; a photo's own scale wins.
 import { doublePrecision, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
-import type { Point } from "../../lib/scoring/geometry";
+import type { ScaleSource } from "../../lib/scoring/scale";
 import { labs, users } from "./auth";
 import { photos } from "./photos";
 import { specimens } from "./specimens";
 import { trials } from "./trials";
-
-/** How a scale was given: two marked ends of a known length, or the px per mm typed in. */
-export type ScaleSource = { kind: "points"; a: Point; b: Point; lengthMm: number } | { kind: "typed" };
 
 export const photoEvidence = pgTable("photo_evidence", {
   photoId: uuid("photo_id").primaryKey().references(() => photos.id, { onDelete: "cascade" }),

@@ -9,6 +9,9 @@
 // and last alone, as a first difference would.
 import { rustedAreaDetail, type Mark, type Point, type SpotMark } from "./geometry";
 
+/** How a scale was given: two marked ends of a known length, or the px per mm typed in. */
+export type ScaleSource = { kind: "points"; a: Point; b: Point; lengthMm: number } | { kind: "typed" };
+
 /** Photos taken further away than this, or a bar shorter than a few px, are not a usable scale. */
 export const MIN_PX_PER_MM = 0.5;
 export const MAX_PX_PER_MM = 10_000;

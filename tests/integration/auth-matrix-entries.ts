@@ -45,6 +45,7 @@ const SPECIMENS = "app/_actions/specimens.ts";
 const TREATMENTS = "app/_actions/treatments.ts";
 const SCORE = "app/_actions/scores.ts";
 const PHOTOS = "app/_actions/photos.ts";
+const EVIDENCE = "app/_actions/photo-evidence.ts";
 const SCHEDULE = "app/_actions/inspections.ts";
 const SCORING = "app/_actions/scorers.ts";
 const TRIALS = "app/_actions/trials.ts";
@@ -73,6 +74,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   // Looking after a recorded photo is part of taking photos (the same roles as uploading them).
   [`${PHOTOS}#acknowledgeCheckAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, note: "Clock was wrong; photo is right." }) },
   [`${PHOTOS}#movePhotoAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, inspectionId: f.inspectionId, specimenId: f.specimenId }) },
+  [`${EVIDENCE}#savePhotoEvidenceAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, scaleMode: "typed", pxPerMm: "20", forSeries: "on" }) },
   [`${PHOTOS}#deletePhotoAction`]: { permission: "photos.upload", empty: "invalid", foreign: (f) => ({ photoId: f.photoId, confirmScores: "on" }) },
   [`${SCORE}#saveScoreAction`]: { permission: "scores.write", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, inspectionId: f.inspectionId, specimenId: f.specimenId, ...score }) },
   [`${SCORE}#saveConsensusAction`]: { permission: "scores.consensus", empty: "invalid", foreign: (f) => ({ trialId: f.trialId, inspectionId: f.inspectionId, specimenId: f.specimenId, ...score }) },
