@@ -2,6 +2,9 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getInspectionForPhotos, listInspectionPhotos, placedSpecimens, referenceTime } from "@/db/queries/photos";
 import { moveTargets, photoWorkCounts } from "@/db/queries/photo-edits";
+import { loadPhotoEvidence } from "@/db/queries/photo-evidence";
+import { PhotoEvidenceForm } from "@/components/photos/photo-evidence-form";
+import { ProtocolFlag, ScaleNote } from "@/components/photos/photo-evidence-note";
 import { describeDeletion } from "@/lib/photos/photo-edits";
 import { PhotoActions } from "@/components/photos/photo-actions";
 import { PhotoNotices } from "@/components/photos/photo-notices";
@@ -37,6 +40,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   const [targets, work] = mayEdit
     ? await Promise.all([moveTargets({ labId: ctx.labId, trialId: trial.id }), photoWorkCounts({ labId: ctx.labId, photoIds: recorded.map((p) => p.id) })])
     : [null, null];
+  const evidence = await loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: recorded });
   const withPhoto = new Set(recorded.map((p) => p.specimenId));
   const missing = specimens.filter((s) => !withPhoto.has(s.id));
   const base = `/trials/${trial.id}`;
@@ -87,6 +91,17 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
               <li key={p.id}>
                 <PhotoCard photo={p} alt={`${p.specimenLabel}, day ${inspection.dayNumber}`}
                   title={p.specimenLabel}>
+                  <ProtocolFlag evidence={evidence.get(p.id)} />
+                  <ScaleNote evidence={evidence.get(p.id)} />
+                  {mayEdit && (
+                    <details className="text-sm">
+                      <summary className="cursor-pointer text-xs underline underline-offset-2">Protocol and scale</summary>
+                      <div className="pt-2">
+                        <PhotoEvidenceForm photoId={p.id} name={access.blind ? `the photo of ${p.specimenLabel}` : `${p.specimenLabel} (${p.filename})`}
+                          protocol={trial.photoProtocol} confirmed={evidence.get(p.id)?.confirmed ?? []} hasOwnScale={evidence.get(p.id)?.ownPxPerMm != null} />
+                      </div>
+                    </details>
+                  )}
                   {targets && work && (
                     <PhotoActions
                       photo={{ id: p.id, specimenId: p.specimenId, inspectionId: p.inspectionId, ackNote: p.checkAck?.note ?? null,
