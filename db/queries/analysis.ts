@@ -8,6 +8,7 @@ import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
+import { loadOutcomeAreas } from "./photo-evidence";
 import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
@@ -190,5 +191,6 @@ export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 /** The trial's data package as a zip (buffered: a trial's tables are a few MB at most). */
 export async function buildTrialDataPackage({ labId, trial, now = new Date() }: { labId: string; trial: AnalysisTrial; now?: Date }) {
   const [rows, loaded] = await Promise.all([loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial })]);
-  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, now });
+  const areas = await loadOutcomeAreas({ labId, trialId: trial.id, outcomes: loaded.outcomes });
+  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, areas, now });
 }

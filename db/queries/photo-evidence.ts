@@ -10,7 +10,7 @@ import { inspections, marks, photoEvidence, photos, scores, seriesScales } from 
 import { AppError } from "@/lib/auth/errors";
 import { effectivePxPerMm, missingProtocolPoints } from "@/lib/photos/protocol-record";
 import type { Mark, Point } from "@/lib/scoring/geometry";
-import { growthBySpecimen, scaleScore, type ScaledScore } from "@/lib/scoring/scaled-areas";
+import { areaKey, outcomeAreasMm2, scaleScore, type ScaledScore } from "@/lib/scoring/scaled-areas";
 import { assertWritable } from "@/lib/trials/lock";
 import type { PhotoEvidenceInput } from "@/lib/validation/photo-evidence";
 import { lockTrial } from "./trial-access";
@@ -92,10 +92,10 @@ export type ScaledRecord = ScaledScore & {
 
 /**
  * Every score of record of a trial with its area in mm² (when its photo has a scale and a face
- * outline), spot counts by size class, and each specimen's growth in mm² per day. The face and spots
+ * outline) and spot counts by size class. The face and spots
  * are the record scorer's marks on the scored photo (a consensus score takes the first outline drawn).
  */
-export async function loadScaledRecords({ labId, trialId, protocol }: { labId: string; trialId: string; protocol: string[] }) {
+export async function loadScaledRecords({ labId, trialId, protocol = [] }: { labId: string; trialId: string; protocol?: string[] }) {
   const rows = await db
     .select({ specimenId: scores.specimenId, inspectionId: scores.inspectionId, dayNumber: inspections.dayNumber, areaPercent: scores.areaPercent,
       spotCount: scores.spotCount, photoId: scores.photoId, scorerId: scores.scorerId, photoSpecimenId: photos.specimenId })
@@ -122,5 +122,11 @@ export async function loadScaledRecords({ labId, trialId, protocol }: { labId: s
       pxPerMm, protocolMissing: ev ? ev.missing : null, ...scaleScore({ areaPercent: r.areaPercent, face, spots, pxPerMm }),
     };
   });
-  return { records, growth: growthBySpecimen(records.map((r) => ({ specimenId: r.specimenId, day: r.dayNumber, areaMm2: r.areaMm2 }))) };
+  return { records, areaMm2: new Map(records.map((r) => [areaKey(r.inspectionId, r.specimenId), r.areaMm2])) };
+}
+
+/** Final area in mm² and growth in mm² per day for each placement of the trial's outcomes. */
+export async function loadOutcomeAreas({ labId, trialId, outcomes }: { labId: string; trialId: string; outcomes: Parameters<typeof outcomeAreasMm2>[0] }) {
+  const { areaMm2 } = await loadScaledRecords({ labId, trialId });
+  return outcomeAreasMm2(outcomes, areaMm2);
 }

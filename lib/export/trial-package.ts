@@ -2,6 +2,7 @@
 // db/queries/analysis.ts loads the rows and the outcomes, package-zip.ts writes the zip.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { toPackageName } from "./datapackage";
+import type { OutcomeAreas } from "@/lib/scoring/scaled-areas";
 import { outcomeRows } from "./outcome-rows";
 import { buildPackageZip, type PackageTable } from "./package-zip";
 import { formatDateTime } from "./table-schema";
@@ -50,7 +51,7 @@ These results guide storage decisions; they do not replace a conservator's judge
 `;
 
 /** The zip of a trial's tables, their descriptor and the README, with its download name. */
-export async function trialDataPackage({ trial, rows, outcomes, now }: { trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; now: Date }) {
+export async function trialDataPackage({ trial, rows, outcomes, areas, now }: { trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; areas?: ReadonlyMap<string, OutcomeAreas>; now: Date }) {
   const tables: PackageTable[] = [
     { spec: TRIAL_TABLE, rows: [trial] },
     { spec: SPECIMEN_TABLE, rows: rows.specimenRows },
@@ -61,7 +62,7 @@ export async function trialDataPackage({ trial, rows, outcomes, now }: { trial: 
     { spec: PHOTO_TABLE, rows: rows.photoRows },
     { spec: SCORE_TABLE, rows: rows.scoreRows },
     { spec: READING_TABLE, rows: rows.readingRows },
-    { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes) },
+    { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes, areas) },
     { spec: STORAGE_RULE_TABLE, rows: (rows.storageRuleRows ?? []).map((r) => ({ ...r, sourceTrialIdsText: r.sourceTrialIds.join(" ") })) },
   ];
   const name = toPackageName(`rustline-${trial.title}`);

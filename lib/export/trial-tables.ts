@@ -124,6 +124,8 @@ export const OUTCOME_TABLE: TableSpec = {
     col("interval_upper_day", "number", "intervalUpperDay", { description: "First rusted inspection, days since start; empty if none." }),
     col("rusted", "boolean", "rusted"), col("right_censored", "boolean", "rightCensored"),
     col("final_area_percent", "number", "finalAreaPercent", { description: "Rusted area % at the last scored inspection." }),
+    col("final_area_mm2", "number", "finalAreaMm2", { description: "Rusted area in mm² at the last scored inspection; empty without a photo scale and face outline." }),
+    col("growth_mm2_per_day", "number", "growthMm2PerDay", { description: "Least-squares slope of rusted area (mm²) on days since start over the scaled inspections; empty with fewer than two." }),
     col("final_day", "number", "finalDay"), col("weeping_seen", "boolean", "weepingSeen"),
     col("entry_day", "number", "entryDay", { description: "Days since start when this placement came under observation: 0 for a specimen's first jar, the move's day for a later one." }),
     col("rusted_earlier", "boolean", "rustedEarlier", { description: "Seen rusted in an earlier placement: not at risk here, left out of the survival analysis." }),

@@ -28,12 +28,25 @@ export function scaleScore({ areaPercent, face, spots, pxPerMm }: ScaledScoreInp
   };
 }
 
-/** Growth per specimen: least-squares slope over its scaled scores of record (days since day 0). */
-export function growthBySpecimen(rows: readonly { specimenId: string; day: number; areaMm2: number | null }[]): Map<string, number | null> {
-  const by = new Map<string, { day: number; areaMm2: number }[]>();
-  for (const r of rows) {
-    if (r.areaMm2 == null) continue;
-    by.set(r.specimenId, [...(by.get(r.specimenId) ?? []), { day: r.day, areaMm2: r.areaMm2 }]);
-  }
-  return new Map([...by].map(([id, pts]) => [id, growthMm2PerDay(pts)]));
+export const areaKey = (inspectionId: string, specimenId: string) => `${inspectionId}|${specimenId}`;
+
+export type OutcomeAreas = { finalAreaMm2: number | null; growthMm2PerDay: number | null };
+
+/**
+ * Per placement: rusted area in mm² at its last scored inspection, and growth in mm² per day as the
+ * least-squares slope over its scored inspections that have a scale (days since the trial start, as
+ * in the outcome table). areaMm2 is keyed by areaKey(inspection, specimen).
+ */
+export function outcomeAreasMm2(
+  outcomes: readonly { placementId: string; specimenId: string; observations: readonly { inspectionId: string; day: number }[] }[],
+  areaMm2: ReadonlyMap<string, number | null>,
+): Map<string, OutcomeAreas> {
+  return new Map(outcomes.map((o) => {
+    const pts = o.observations.flatMap((ob) => {
+      const a = areaMm2.get(areaKey(ob.inspectionId, o.specimenId));
+      return a == null ? [] : [{ day: ob.day, areaMm2: a }];
+    });
+    const last = o.observations[o.observations.length - 1];
+    return [o.placementId, { finalAreaMm2: last ? areaMm2.get(areaKey(last.inspectionId, o.specimenId)) ?? null : null, growthMm2PerDay: growthMm2PerDay(pts) }];
+  }));
 }
