@@ -24,10 +24,11 @@ function FieldError({ id, state, field }: { id: string; state?: ActionState; fie
 function NumberInput({ id, name, label, state, defaultValue }: { id: string; name: string; label: string; state?: ActionState; defaultValue?: string }) {
   const errField = name === "lengthMm" || name === "pxPerMm" ? name : "points";
   const err = state?.errors?.[errField];
+  const value = state?.values?.[name] ?? defaultValue;
   return (
     <div>
       <label htmlFor={`${id}-${name}`} className="block text-xs font-medium">{label}</label>
-      <input id={`${id}-${name}`} name={name} inputMode="decimal" className="field py-1 text-sm w-24" defaultValue={state?.values?.[name] ?? defaultValue}
+      <input id={`${id}-${name}`} name={name} inputMode="decimal" className="field py-1 text-sm w-24" defaultValue={value} key={value}
         aria-invalid={err ? true : undefined} aria-describedby={err ? `${id}-${errField}-err` : undefined} />
     </div>
   );
@@ -46,7 +47,7 @@ export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnSc
           <legend className="text-xs font-medium">Protocol points followed for this photo</legend>
           {protocol.map((line, i) => (
             <label key={i} className="flex gap-2 items-start text-xs">
-              <input type="checkbox" name="protocol[]" value={line} defaultChecked={ticked.includes(line)} className="mt-0.5" />
+              <input type="checkbox" name="protocol[]" value={line} defaultChecked={ticked.includes(line)} key={String(ticked.includes(line))} className="mt-0.5" />
               <span>{line}</span>
             </label>
           ))}
@@ -83,7 +84,7 @@ export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnSc
       )}
       {(mode === "points" || mode === "typed") && (
         <label className="flex gap-2 items-start text-xs">
-          <input type="checkbox" name="forSeries" defaultChecked={state?.values?.forSeries === "on"} className="mt-0.5" aria-describedby={state?.errors?.forSeries ? `${id}-series-err` : undefined} />
+          <input type="checkbox" name="forSeries" defaultChecked={state?.values?.forSeries === "on"} key={state?.values?.forSeries ?? "off"} className="mt-0.5" aria-describedby={state?.errors?.forSeries ? `${id}-series-err` : undefined} />
           <span>Framing is fixed: use this scale for every photo of this specimen in this trial</span>
         </label>
       )}

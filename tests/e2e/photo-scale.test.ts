@@ -72,7 +72,7 @@ describe("photo protocol and scale", () => {
     const card = page.locator("figure", { hasText: filename });
     await expect.poll(async () => { await page.reload(); return card.count(); }, { timeout: 30_000 }).toBe(1);
     await expect(card.locator("[data-protocol-flag]").textContent()).resolves.toContain("Protocol not recorded");
-    await card.getByText("Protocol and scale").click();
+    await card.locator("summary", { hasText: "Protocol and scale" }).click();
     const form = page.getByRole("form", { name: `Protocol and scale of ${specimen.label} (${filename})` });
     for (const line of trial.photoProtocol) await form.getByLabel(line, { exact: true }).check();
     await form.getByLabel("Two points on the scale bar").check();
