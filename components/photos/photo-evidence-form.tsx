@@ -2,11 +2,12 @@
 // Record with a photo which protocol points were followed and its scale: two points on the scale bar
 // (pixel coordinates on the original photo) a known length apart, or px per mm typed in; optionally for
 // the whole series when the framing is fixed. Errors are tied to their fields; nothing saves half-way.
-import { useActionState, useState } from "react";
+// Submitted from onSubmit, not as a form action: React resets a form after its action, and that reset
+// turns a controlled radio back to the mode it first rendered with (react/react#31695).
+import { startTransition, useActionState, useState } from "react";
 import { savePhotoEvidenceAction } from "@/app/_actions/photo-evidence";
 import type { ActionState } from "@/lib/auth/action";
 import { SCALE_MODES } from "@/lib/validation/photo-evidence";
-import { SubmitButton } from "@/components/ui/form";
 
 type Props = {
   photoId: string;
@@ -35,12 +36,17 @@ function NumberInput({ id, name, label, state, defaultValue }: { id: string; nam
 }
 
 export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnScale }: Props) {
-  const [state, action] = useActionState(savePhotoEvidenceAction, undefined);
+  const [state, action, pending] = useActionState(savePhotoEvidenceAction, undefined);
   const [mode, setMode] = useState<keyof typeof SCALE_MODES>((state?.values?.scaleMode as keyof typeof SCALE_MODES) ?? (hasOwnScale ? "keep" : "none"));
   const id = `ev-${photoId}`;
   const ticked = state?.values ? (state.values["protocol[]"] ?? "").split("\n") : confirmed;
   return (
-    <form action={action} className="space-y-2" aria-label={`Protocol and scale of ${name}`}>
+    <form className="space-y-2" aria-label={`Protocol and scale of ${name}`}
+      onSubmit={(e) => {
+        e.preventDefault();
+        const fd = new FormData(e.currentTarget);
+        startTransition(() => action(fd));
+      }}>
       <input type="hidden" name="photoId" value={photoId} />
       {protocol.length > 0 && (
         <fieldset className="space-y-1" aria-describedby={state?.errors?.["protocol[]"] ? `${id}-protocol-err` : undefined}>
@@ -90,7 +96,8 @@ export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnSc
       )}
       <FieldError id={`${id}-series-err`} state={state} field="forSeries" />
       {state?.message && <p role={state.ok ? "status" : "alert"} className={`text-sm ${state.ok ? "" : "text-rust-700 dark:text-rust-300"}`}>{state.message}</p>}
-      <SubmitButton>Save protocol and scale</SubmitButton>
+      <FieldError id={`${id}-mode-err`} state={state} field="scaleMode" />
+      <button type="submit" className="btn" disabled={pending} aria-busy={pending}>{pending ? "Saving…" : "Save protocol and scale"}</button>
     </form>
   );
 }
