@@ -1,5 +1,5 @@
-// Browser: a technician uploads a generated photo with a 10 mm scale bar drawn at a known 20 px/mm,
-// records its protocol points and the bar's two ends (a zero-length scale is refused at the field
+// Browser: a technician ticks a protocol point and uploads a generated photo with a 10 mm scale bar
+// drawn at a known 20 px/mm, records the other protocol points and the bar's two ends (a zero-length scale is refused at the field
 // first), scores it with a face outline, and finds the rusted area in mm² in the grid and the report.
 import { randomBytes } from "node:crypto";
 import { and, eq, inArray, like } from "drizzle-orm";
@@ -63,15 +63,18 @@ describe("photo protocol and scale", () => {
     const page = await context.newPage();
     await signIn(page, "technician@tarrow.example");
     await page.goto(`${APP_URL}/trials/${trial.id}/inspections/${inspection.id}/photos`);
+    // One point ticked at the bench goes with the upload; the others are then missing.
+    await page.getByRole("group", { name: "Photo protocol" }).getByLabel(trial.photoProtocol[0], { exact: true }).check();
     await page.getByLabel("Choose photos").setInputFiles([{ name: filename, mimeType: "image/jpeg", buffer: jpeg }]);
     await page.getByRole("button", { name: "Upload 1 photo" }).click();
     await expect.poll(() => page.locator('li[data-upload-state="done"]').count(), { timeout: 60_000 }).toBe(1);
     const [photo] = await db.select().from(s.photos).where(eq(s.photos.filename, filename));
 
-    // The recorded list picks the photo up; it is flagged until its protocol is recorded.
+    expect((await db.select().from(s.photoEvidence).where(eq(s.photoEvidence.photoId, photo.id)))[0]?.protocolConfirmed).toEqual([trial.photoProtocol[0]]);
+    // The recorded list picks the photo up, flagged for the points not ticked.
     const card = page.locator("figure", { hasText: filename });
     await expect.poll(async () => { await page.reload(); return card.count(); }, { timeout: 30_000 }).toBe(1);
-    await expect(card.locator("[data-protocol-flag]").textContent()).resolves.toContain("Protocol not recorded");
+    await expect(card.locator("[data-protocol-flag]").getAttribute("data-protocol-flag")).resolves.toBe(String(trial.photoProtocol.length - 1));
     await card.locator("summary", { hasText: "Protocol and scale" }).click();
     const form = page.getByRole("form", { name: `Protocol and scale of ${specimen.label} (${filename})` });
     for (const line of trial.photoProtocol) await form.getByLabel(line, { exact: true }).check();
@@ -80,7 +83,7 @@ describe("photo protocol and scale", () => {
     for (const [f, v] of [["End 1 x (px)", bar.a.x], ["End 1 y (px)", bar.a.y], ["End 2 x (px)", bar.a.x], ["End 2 y (px)", bar.a.y]] as const) await form.getByLabel(f).fill(String(v));
     await form.getByRole("button", { name: "Save protocol and scale" }).click();
     await expect(form.getByRole("alert").first().textContent()).resolves.toMatch(/same point/);
-    expect(await db.select().from(s.photoEvidence).where(eq(s.photoEvidence.photoId, photo.id))).toEqual([]);
+    expect((await db.select().from(s.photoEvidence).where(eq(s.photoEvidence.photoId, photo.id)))[0]?.pxPerMm).toBeNull();
     await expect(form.getByLabel("End 1 x (px)").getAttribute("aria-invalid")).resolves.toBe("true");
 
     await form.getByLabel("End 2 x (px)").fill(String(bar.b.x));

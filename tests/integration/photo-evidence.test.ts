@@ -1,6 +1,7 @@
 // Protocol points and scale recorded with a photo: saved with an audit event, refused at the field for a
 // zero-length or non-numeric scale with nothing saved, a series scale for fixed framing, another lab's
 // photo unknown; and the scaled areas (mm², size classes, growth per day) recomputed from the rows.
+import { createHash } from "node:crypto";
 import { linearRegression } from "simple-statistics";
 import { and, eq, inArray } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -14,7 +15,9 @@ import { saveScoreAction } from "@/app/_actions/scores";
 import { areaKey } from "@/lib/scoring/scaled-areas";
 import { createTestLab, type TestLab } from "../support/db";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
+import { finalizePhotoUpload, presignPhotoUpload } from "@/db/queries/photo-uploads";
 import { createReadyPhoto, createScoringTrial, squareFace, type MadePhoto, type ScoringTrial } from "./scoring-fixtures";
+import { browserPut, cameraJpeg, createPhotoFixture } from "./photos-fixtures";
 
 const PROTOCOL = ["Scale bar in frame", "Colour card in frame", "Two lamps at 45°, no flash"];
 
@@ -151,5 +154,29 @@ describe("scaled areas of scores of record", () => {
     // The unscored second specimen has neither figure.
     const unscored = outcomes.find((x) => x.specimenId === t.specimenIds[1])!;
     expect(areas.get(unscored.placementId)).toEqual({ finalAreaMm2: null, growthMm2PerDay: null });
+  });
+});
+
+describe("protocol points ticked at upload", () => {
+  it("are recorded with the photo in the same transaction; points not in the trial's protocol are dropped", async () => {
+    const fx = await createPhotoFixture("Protocol at upload");
+    const caller = await fx.ctx("technician");
+    const upload = async (protocol?: string[]) => {
+      const bytes = await cameraJpeg({ shotAt: fx.doneAt, width: 64 + (protocol?.length ?? 0), height: 48 });
+      const pre = await presignPhotoUpload({ caller, input: { inspectionId: fx.inspectionId, specimenId: fx.specimenIds[0], filename: "p.jpg", contentType: "image/jpeg", sizeBytes: bytes.byteLength, sha256: createHash("sha256").update(bytes).digest("hex") } });
+      expect((await browserPut(pre, bytes)).status).toBe(200);
+      return (await finalizePhotoUpload({ caller, token: pre.token, protocol, enqueue: async () => undefined })).photo.id;
+    };
+    // createPhotoFixture's trial protocol is ["Scale bar in frame"].
+    const ticked = await upload(["Scale bar in frame", "Not one of ours"]);
+    expect((await evidenceRow(ticked))?.protocolConfirmed).toEqual(["Scale bar in frame"]);
+    const [audit] = await db.select().from(s.auditEvents).where(and(eq(s.auditEvents.entityId, ticked), eq(s.auditEvents.entity, "photo")));
+    expect((audit.after as { protocolConfirmed: string[] }).protocolConfirmed).toEqual(["Scale bar in frame"]);
+    // Without ticks sent, nothing is recorded: the photo is flagged as having no protocol record.
+    const unticked = await upload();
+    expect(await evidenceRow(unticked)).toBeNull();
+    const ev = await loadPhotoEvidence({ labId: fx.lab.labId, trialId: fx.trialId, protocol: ["Scale bar in frame"], photoRows: [ticked, unticked].map((id) => ({ id, specimenId: fx.specimenIds[0] })) });
+    expect(ev.get(ticked)).toMatchObject({ missing: [], recorded: true });
+    expect(ev.get(unticked)).toMatchObject({ missing: ["Scale bar in frame"], recorded: false });
   });
 });

@@ -17,6 +17,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PhotoCard } from "@/components/photos/photo-card";
 import { PhotoUploader } from "@/components/photos/photo-uploader";
 import { ProtocolChecklist } from "@/components/photos/protocol-checklist";
+import { ProtocolTicksProvider } from "@/components/photos/protocol-ticks";
 import { RefreshWhilePending } from "@/components/photos/refresh-while-pending";
 import { isUuid } from "@/lib/ids";
 
@@ -59,6 +60,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
         <p className="text-sm"><Link className="link" href={`${base}/grid?inspection=${inspection.id}`}>All specimens at this inspection, side by side</Link></p>
       </header>
 
+      <ProtocolTicksProvider steps={trial.photoProtocol}>
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
         <div className="space-y-4">
           {locked ? (
@@ -75,6 +77,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
           )}
         </aside>
       </div>
+      </ProtocolTicksProvider>
 
       <section className="space-y-3" aria-labelledby="recorded-h">
         <div className="flex flex-wrap items-baseline gap-3">
