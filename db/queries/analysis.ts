@@ -8,7 +8,7 @@ import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
-import { loadOutcomeAreas } from "./photo-evidence";
+import { loadOutcomeAreas, scaleScoreRows } from "./photo-evidence";
 import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
@@ -184,7 +184,9 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
     db.select().from(storageRules).where(and(eq(storageRules.labId, labId), sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})`))
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
   ]);
-  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows, storageRuleRows };
+  const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.specimenId })) });
+  const scoreRowsMm2 = scoreRows.map((r, i) => ({ ...r, areaMm2: scaled[i].areaMm2 }));
+  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows: scoreRowsMm2, photoRows, readingRows, storageRuleRows };
 }
 export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 

@@ -90,10 +90,34 @@ export type ScaledRecord = ScaledScore & {
   pxPerMm: number | null; protocolMissing: string[] | null;
 };
 
+type ScoreRowIn = { photoId: string | null; scorerId: string | null; areaPercent: number; photoSpecimenId: string | null };
+
+/**
+ * Scores (any scorer's) with their area in mm² and spots by size class: the face outline on the
+ * score's photo (the scorer's own, else the first drawn), the scorer's spots, and the photo's scale. Rows of one trial; the result is in the rows' order.
+ */
+export async function scaleScoreRows({ labId, trialId, protocol = [], rows }: { labId: string; trialId: string; protocol?: string[]; rows: readonly ScoreRowIn[] }) {
+  const photoIds = [...new Set(rows.flatMap((r) => (r.photoId ? [r.photoId] : [])))];
+  const [evidence, markRows] = await Promise.all([
+    loadPhotoEvidence({ labId, trialId, protocol, photoRows: rows.flatMap((r) => (r.photoId && r.photoSpecimenId ? [{ id: r.photoId, specimenId: r.photoSpecimenId }] : [])) }),
+    photoIds.length ? db.select({ photoId: marks.photoId, scorerId: marks.scorerId, role: marks.role, geometry: marks.geometry }).from(marks)
+      .where(and(eq(marks.labId, labId), inArray(marks.photoId, photoIds))).orderBy(asc(marks.seq), asc(marks.createdAt)) : [],
+  ]);
+  return rows.map((r) => {
+    const ev = r.photoId ? evidence.get(r.photoId) : undefined;
+    const onPhoto = markRows.filter((m) => m.photoId === r.photoId);
+    // The face is the specimen's, whoever outlined it; the spots are the scorer's own.
+    const faceRow = onPhoto.find((m) => m.role === "face" && m.scorerId === r.scorerId) ?? onPhoto.find((m) => m.role === "face");
+    const face = faceRow && "points" in faceRow.geometry ? (faceRow.geometry.points as Point[]) : null;
+    const spots = onPhoto.filter((m) => m.role === "spot" && m.scorerId === (r.scorerId ?? faceRow?.scorerId)).map((m) => m.geometry as Mark);
+    const pxPerMm = ev?.scale?.pxPerMm ?? null;
+    return { pxPerMm, protocolMissing: ev ? ev.missing : null, ...scaleScore({ areaPercent: r.areaPercent, face, spots, pxPerMm }) };
+  });
+}
+
 /**
  * Every score of record of a trial with its area in mm² (when its photo has a scale and a face
- * outline) and spot counts by size class. The face and spots
- * are the record scorer's marks on the scored photo (a consensus score takes the first outline drawn).
+ * outline) and spot counts by size class (scaleScoreRows).
  */
 export async function loadScaledRecords({ labId, trialId, protocol = [] }: { labId: string; trialId: string; protocol?: string[] }) {
   const rows = await db
@@ -104,24 +128,11 @@ export async function loadScaledRecords({ labId, trialId, protocol = [] }: { lab
     .leftJoin(photos, and(eq(photos.id, scores.photoId), eq(photos.labId, labId)))
     .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true)))
     .orderBy(asc(inspections.dayNumber));
-  const photoIds = [...new Set(rows.flatMap((r) => (r.photoId ? [r.photoId] : [])))];
-  const [evidence, markRows] = await Promise.all([
-    loadPhotoEvidence({ labId, trialId, protocol, photoRows: rows.flatMap((r) => (r.photoId && r.photoSpecimenId ? [{ id: r.photoId, specimenId: r.photoSpecimenId }] : [])) }),
-    photoIds.length ? db.select({ photoId: marks.photoId, scorerId: marks.scorerId, role: marks.role, geometry: marks.geometry }).from(marks)
-      .where(and(eq(marks.labId, labId), inArray(marks.photoId, photoIds))).orderBy(asc(marks.seq), asc(marks.createdAt)) : [],
-  ]);
-  const records: ScaledRecord[] = rows.map((r) => {
-    const ev = r.photoId ? evidence.get(r.photoId) : undefined;
-    const onPhoto = markRows.filter((m) => m.photoId === r.photoId);
-    const faceRow = onPhoto.find((m) => m.role === "face" && m.scorerId === r.scorerId) ?? onPhoto.find((m) => m.role === "face");
-    const face = faceRow && "points" in faceRow.geometry ? (faceRow.geometry.points as Point[]) : null;
-    const spots = onPhoto.filter((m) => m.role === "spot" && m.scorerId === (faceRow?.scorerId ?? r.scorerId)).map((m) => m.geometry as Mark);
-    const pxPerMm = ev?.scale?.pxPerMm ?? null;
-    return {
-      specimenId: r.specimenId, inspectionId: r.inspectionId, dayNumber: r.dayNumber, areaPercent: r.areaPercent, spotCount: r.spotCount, photoId: r.photoId,
-      pxPerMm, protocolMissing: ev ? ev.missing : null, ...scaleScore({ areaPercent: r.areaPercent, face, spots, pxPerMm }),
-    };
-  });
+  const scaled = await scaleScoreRows({ labId, trialId, protocol, rows });
+  const records: ScaledRecord[] = rows.map((r, i) => ({
+    specimenId: r.specimenId, inspectionId: r.inspectionId, dayNumber: r.dayNumber, areaPercent: r.areaPercent, spotCount: r.spotCount, photoId: r.photoId,
+    ...scaled[i],
+  }));
   return { records, areaMm2: new Map(records.map((r) => [areaKey(r.inspectionId, r.specimenId), r.areaMm2])) };
 }
 

@@ -94,6 +94,7 @@ export const SCORE_TABLE: TableSpec = {
     id("id", "id"), id("inspection_id", "inspectionId"), id("specimen_id", "specimenId"), ref("photo_id", "photoId"),
     ref("scorer_id", "scorerId", "User id (pseudonymous)."), col("blind", "boolean", "blind"), col("is_record", "boolean", "isRecord"),
     col("spot_count", "integer", "spotCount"), col("area_percent", "number", "areaPercent", { description: "Rusted area of the face, %." }),
+    col("area_mm2", "number", "areaMm2", { description: "Rusted area in mm²: area_percent of the face outline on the photo at the photo's scale; empty without both." }),
     col("astm_grade", "integer", "astmGrade", { description: "ASTM D610 grade 0–10." }), col("astm_letter", "string", "astmLetter"),
     col("iso_degree", "integer", "isoDegree", { description: "ISO 4628-3 Ri 0–5." }), col("auto_estimate_percent", "number", "autoEstimatePercent"),
     col("weeping", "boolean", "weeping"), col("silicate_change", "string", "silicateChange"), col("no_change", "boolean", "noChange"),

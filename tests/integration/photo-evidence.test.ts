@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { loadOutcomeAreas, loadPhotoEvidence, loadScaledRecords } from "@/db/queries/photo-evidence";
-import { loadSpecimenOutcomes } from "@/db/queries/analysis";
+import { loadExportRows, loadSpecimenOutcomes } from "@/db/queries/analysis";
 import { getTrial } from "@/db/queries/trial-access";
 import { savePhotoEvidenceAction } from "@/app/_actions/photo-evidence";
 import { saveScoreAction } from "@/app/_actions/scores";
@@ -151,6 +151,12 @@ describe("scaled areas of scores of record", () => {
     expect(pts).toHaveLength(3);
     expect(areas.get(o.placementId)?.growthMm2PerDay).toBeCloseTo(linearRegression(pts).m, 10);
     expect(areas.get(o.placementId)?.finalAreaMm2).toBeCloseTo(pts[2][1], 10);
+    // The data package's scores table carries the same mm² beside area_percent.
+    const exported = await loadExportRows({ labId: lab.labId, trial });
+    for (const ob of o.observations) {
+      const row = exported.scoreRows.find((r) => r.inspectionId === ob.inspectionId && r.specimenId === o.specimenId && r.isRecord)!;
+      expect(row.areaMm2).toBeCloseTo(areaMm2.get(areaKey(ob.inspectionId, o.specimenId))!, 10);
+    }
     // The unscored second specimen has neither figure.
     const unscored = outcomes.find((x) => x.specimenId === t.specimenIds[1])!;
     expect(areas.get(unscored.placementId)).toEqual({ finalAreaMm2: null, growthMm2PerDay: null });
