@@ -119,14 +119,14 @@ export async function scaleScoreRows({ labId, trialId, protocol = [], rows }: { 
  * Every score of record of a trial with its area in mm² (when its photo has a scale and a face
  * outline) and spot counts by size class (scaleScoreRows).
  */
-export async function loadScaledRecords({ labId, trialId, protocol = [] }: { labId: string; trialId: string; protocol?: string[] }) {
+export async function loadScaledRecords({ labId, trialId, inspectionId, protocol = [] }: { labId: string; trialId: string; inspectionId?: string; protocol?: string[] }) {
   const rows = await db
     .select({ specimenId: scores.specimenId, inspectionId: scores.inspectionId, dayNumber: inspections.dayNumber, areaPercent: scores.areaPercent,
       spotCount: scores.spotCount, photoId: scores.photoId, scorerId: scores.scorerId, photoSpecimenId: photos.specimenId })
     .from(scores)
     .innerJoin(inspections, eq(inspections.id, scores.inspectionId))
     .leftJoin(photos, and(eq(photos.id, scores.photoId), eq(photos.labId, labId)))
-    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true)))
+    .where(and(eq(scores.labId, labId), eq(scores.trialId, trialId), eq(scores.isRecord, true), inspectionId ? eq(scores.inspectionId, inspectionId) : undefined))
     .orderBy(asc(inspections.dayNumber));
   const scaled = await scaleScoreRows({ labId, trialId, protocol, rows });
   const records: ScaledRecord[] = rows.map((r, i) => ({

@@ -135,6 +135,9 @@ describe("scaled areas of scores of record", () => {
     // The 20 px spot is 1 mm², the diameter of an equal circle 2·√(1/π) = 1.13 mm: the 1–3 mm class.
     expect(first.sizeClasses).toEqual({ "under-0.5": 0, "0.5-1": 0, "1-3": 1, "3-up": 0 });
     expect(first.protocolMissing).toEqual([PROTOCOL[2]]);
+    // One inspection only (the grid's view): the same figures.
+    const one = await loadScaledRecords({ labId: lab.labId, trialId: t.trialId, inspectionId: t.inspectionIds[1] });
+    expect(one.records.map((r) => r.areaMm2)).toEqual([first.areaMm2]);
     // The series scale: (200 / 25)² = 64 mm² of face.
     const second = byInspection.get(t.inspectionIds[2])!;
     expect(second.faceAreaMm2).toBeCloseTo(64, 6);

@@ -32,9 +32,9 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
   const [evidence, scaled] = await Promise.all([
     loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol, photoRows: cells.flatMap((c) => c.photos.map((p) => ({ id: p.id, specimenId: c.specimen.id }))) }),
     // mm² comes from the score of record, which a blind scorer does not see.
-    grid.blind || !inspection ? null : loadScaledRecords({ labId: ctx.labId, trialId: trial.id, protocol }),
+    grid.blind || !inspection ? null : loadScaledRecords({ labId: ctx.labId, trialId: trial.id, inspectionId: inspection.id, protocol }),
   ]);
-  const scaledBy = new Map((scaled?.records ?? []).filter((r) => r.inspectionId === inspection?.id).map((r) => [r.specimenId, r]));
+  const scaledBy = new Map((scaled?.records ?? []).map((r) => [r.specimenId, r]));
   const idx = inspection ? grid.inspections.findIndex((i) => i.id === inspection.id) : -1;
   const prev = idx > 0 ? grid.inspections[idx - 1] : null;
   const next = idx >= 0 && idx < grid.inspections.length - 1 ? grid.inspections[idx + 1] : null;
