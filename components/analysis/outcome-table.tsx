@@ -2,6 +2,8 @@
 // has one row per jar; a row after the specimen had already rusted is listed but marked not at risk.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { MATERIAL_LABELS } from "@/lib/analysis/groups";
+import type { OutcomeAreas } from "@/lib/scoring/scaled-areas";
+import { formatMm2 } from "@/components/photos/area-mm2";
 import { fmtDay, fmtPercent, intervalText } from "./format";
 
 function Interval({ lower, upper, event }: { lower: number; upper: number; event: "rust" | "weeping" }) {
@@ -9,7 +11,8 @@ function Interval({ lower, upper, event }: { lower: number; upper: number; event
   return <abbr title={t.title} className="cursor-help">{t.text}</abbr>;
 }
 
-export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[] }) {
+/** areas: mm² per placement; given, a column of final area in mm² stands beside the percentage. */
+export function OutcomeTable({ outcomes, areas }: { outcomes: readonly SpecimenOutcome[]; areas?: ReadonlyMap<string, OutcomeAreas> }) {
   return (
     <div className="overflow-x-auto">
       <table className="data">
@@ -17,6 +20,7 @@ export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[
           <tr>
             <th scope="col">Specimen</th><th scope="col">Material</th><th scope="col">Chamber</th><th scope="col">Treatment</th>
             <th scope="col" className="text-right!">scored</th><th scope="col">First rust (days)</th><th scope="col">First weeping (days)</th><th scope="col" className="text-right!">final area</th>
+            {areas && <th scope="col" className="text-right!">final area (mm²)</th>}
           </tr>
         </thead>
         <tbody>
@@ -41,6 +45,7 @@ export function OutcomeTable({ outcomes }: { outcomes: readonly SpecimenOutcome[
                   : <Interval lower={o.weepingInterval.lower} upper={o.weepingInterval.upper} event="weeping" />}
               </td>
               <td className="text-right tabular-nums">{fmtPercent(o.finalAreaPercent)}</td>
+              {areas && <td className="text-right tabular-nums" data-area-mm2={areas.get(o.placementId)?.finalAreaMm2 ?? ""}>{areas.get(o.placementId)?.finalAreaMm2 == null ? "—" : formatMm2(areas.get(o.placementId)!.finalAreaMm2!)}</td>}
             </tr>
           ))}
         </tbody>

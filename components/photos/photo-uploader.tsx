@@ -2,6 +2,7 @@
 import { useRouter } from "next/navigation";
 import { useCallback, useRef, useState } from "react";
 import { formatBytes } from "@/lib/photos/config";
+import { useProtocolTicks } from "./protocol-ticks";
 import { UploadRow } from "./upload-row";
 import { PARALLEL_UPLOADS, useUploadQueue } from "./use-upload-queue";
 
@@ -17,7 +18,8 @@ export function PhotoUploader({ inspectionId, specimens, maxBytes, toleranceH }:
     if (refreshTimer.current) clearTimeout(refreshTimer.current);
     refreshTimer.current = setTimeout(() => router.refresh(), 800);
   }, [router]);
-  const q = useUploadQueue({ inspectionId, specimens, maxBytes, onFinished });
+  const ticks = useProtocolTicks();
+  const q = useUploadQueue({ inspectionId, specimens, maxBytes, onFinished, protocolTicks: ticks && ticks.steps.length > 0 ? ticks.current : undefined });
   const [dragging, setDragging] = useState(false);
   const inputRef = useRef<HTMLInputElement>(null);
 

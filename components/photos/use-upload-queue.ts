@@ -59,7 +59,13 @@ function putFile(item: UploadItem, url: string, headers: Record<string, string>,
   });
 }
 
-export function useUploadQueue({ inspectionId, specimens, maxBytes, onFinished }: { inspectionId: string; specimens: LabelCandidate[]; maxBytes: number; onFinished: () => void }) {
+export function useUploadQueue({ inspectionId, specimens, maxBytes, onFinished, protocolTicks }: {
+  inspectionId: string; specimens: LabelCandidate[]; maxBytes: number; onFinished: () => void;
+  /** The protocol points ticked now, recorded with each photo as it is finalised; absent: none recorded. */
+  protocolTicks?: () => string[];
+}) {
+  const ticksRef = useRef(protocolTicks);
+  ticksRef.current = protocolTicks;
   const [items, setItems] = useState<UploadItem[]>([]);
   const runtime = useRef(new Map<string, Runtime>());
   const itemsRef = useRef(items);
@@ -111,7 +117,7 @@ export function useUploadQueue({ inspectionId, specimens, maxBytes, onFinished }
       patch(id, { progress: 1 });
     }
     patch(id, { state: "finalizing" });
-    const fin = await postJson("/api/photos/finalize", { token: rt.token });
+    const fin = await postJson("/api/photos/finalize", { token: rt.token, protocol: ticksRef.current?.() });
     if (!fin.ok) {
       // Only a server or network hiccup is worth re-finalising; anything else needs a fresh upload.
       if (fin.status !== 0 && fin.status < 500) runtime.current.set(id, {});

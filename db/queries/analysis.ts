@@ -11,6 +11,7 @@ import type { ExposureQuery } from "@/lib/analysis/params";
 import { loadTrialExposure, type PlacementExposureRow } from "./exposure";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
+import { loadOutcomeAreas, scaleScoreRows } from "./photo-evidence";
 import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
@@ -212,7 +213,9 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
     db.select().from(storageRules).where(and(eq(storageRules.labId, labId), sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})`))
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
   ]);
-  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows, photoRows, readingRows, storageRuleRows };
+  const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.specimenId })) });
+  const scoreRowsMm2 = scoreRows.map((r, i) => ({ ...r, areaMm2: scaled[i].areaMm2 }));
+  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows: scoreRowsMm2, photoRows, readingRows, storageRuleRows };
 }
 export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 
@@ -221,5 +224,6 @@ export async function buildTrialDataPackage({ labId, trial, now = new Date() }: 
   const [rows, loaded, exposure] = await Promise.all([
     loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial }), loadTrialExposure({ labId, trial, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now }),
   ]);
-  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, exposure, now });
+  const areas = await loadOutcomeAreas({ labId, trialId: trial.id, outcomes: loaded.outcomes });
+  return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, exposure, areas, now });
 }

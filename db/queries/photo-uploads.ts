@@ -10,7 +10,7 @@ import { and, eq, ne } from "drizzle-orm";
 import { recordAudit } from "@/db/audit";
 import { db } from "@/db/client";
 import { enqueuePhotoProcess, type PhotoProcessJob } from "@/db/jobs/photos";
-import { inspections, photos, specimens, trials } from "@/db/schema";
+import { inspections, photoEvidence, photos, specimens, trials } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
 import { readPhotoConfig } from "@/lib/photos/config";
@@ -105,10 +105,13 @@ async function buildResult(photoId: string, caller: Caller, alreadyFinalized: bo
 export async function finalizePhotoUpload({
   caller,
   token,
+  protocol,
   enqueue = enqueuePhotoProcess,
 }: {
   caller: Caller;
   token: string;
+  /** Protocol points ticked at upload; recorded with the photo (points not in the trial's protocol are dropped). */
+  protocol?: string[];
   /** Queues the preview job; tests pass their own. */
   enqueue?: (job: PhotoProcessJob) => Promise<void>;
 }): Promise<FinalizeResult> {
@@ -121,7 +124,8 @@ export async function finalizePhotoUpload({
 
   const inserted = await db.transaction(async (tx) => {
     // Share-locked: a conclusion arriving meanwhile waits for this insert, or refuses it first.
-    assertWritable(await lockTrial(tx, caller.labId, claim.trialId, "share"));
+    const trial = await lockTrial(tx, caller.labId, claim.trialId, "share");
+    assertWritable(trial);
     const rows = await tx.insert(photos).values({
       labId: caller.labId, trialId: claim.trialId, inspectionId: claim.inspectionId, specimenId: claim.specimenId,
       objectKey: claim.key, filename: claim.filename, status: "pending", contentType: claim.contentType, sizeBytes: claim.sizeBytes,
@@ -130,11 +134,15 @@ export async function finalizePhotoUpload({
       uploadedBy: caller.userId,
     }).onConflictDoNothing({ target: photos.objectKey }).returning({ id: photos.id });
     if (!rows[0]) return null;
+    const protocolConfirmed = protocol?.filter((l) => trial.photoProtocol.includes(l));
+    if (protocolConfirmed) {
+      await tx.insert(photoEvidence).values({ photoId: rows[0].id, labId: caller.labId, trialId: claim.trialId, protocolConfirmed, recordedBy: caller.userId });
+    }
     // The audit trail is readable by observers, so the location is recorded only as present or not.
     await recordAudit(tx, {
       labId: caller.labId, userId: caller.userId, entity: "photo", entityId: rows[0].id, trialId: claim.trialId, action: "create",
       summary: `Photo ${claim.filename} uploaded`,
-      after: { filename: claim.filename, inspectionId: claim.inspectionId, specimenId: claim.specimenId, contentType: claim.contentType, sizeBytes: claim.sizeBytes, sha256, capturedAtRaw: exif.capturedAtRaw, capturedOffset: exif.capturedOffset, hasGps: exif.gps != null },
+      after: { filename: claim.filename, inspectionId: claim.inspectionId, specimenId: claim.specimenId, contentType: claim.contentType, sizeBytes: claim.sizeBytes, sha256, capturedAtRaw: exif.capturedAtRaw, capturedOffset: exif.capturedOffset, hasGps: exif.gps != null, protocolConfirmed: protocolConfirmed ?? null },
     });
     return rows[0].id;
   });

@@ -9,3 +9,4 @@ export * from "./photos";
 export * from "./storage-rules";
 export * from "./photo-align";
 export * from "./collection";
+export * from "./photo-evidence";

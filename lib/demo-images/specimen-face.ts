@@ -8,6 +8,7 @@
 import { createRng, randomBetween, randomInt, type Rng } from "@/lib/allocation/prng";
 import { polygonCrossings, type Point } from "@/lib/scoring/geometry";
 import { addSensorNoise, applyLighting, hashInt, paintGreyPatch, setRgb, softenEdges, type GreyPatch, type LightingShift } from "./photo-effects";
+import { paintScaleBar, type DrawnScaleBar } from "./scale-bar";
 
 export type SpecimenKind = "iron" | "stony-iron";
 /** "rust" (default): orange- to red-brown with a dark rim; "dark": thick black-brown crust; "droplet": a pale weeping bead. */
@@ -24,7 +25,10 @@ export type SpecimenFaceOptions = {
   greyPatch?: GreyPatch;
   /** The scene photographed under other light (gains in linear light), before sensor noise. */
   lighting?: LightingShift;
+  /** Draw a white scale bar of lengthMm (default 10) at this many px per mm, bottom left, off the face. */
+  scaleBar?: { pxPerMm: number; lengthMm?: number };
 };
+
 
 export type SpecimenFace = {
   width: number;
@@ -34,6 +38,9 @@ export type SpecimenFace = {
   face: Point[];
   /** Painted rust pixels inside the face / face pixels (pixel centre inside the outline). */
   trueRustFraction: number;
+  /** Painted rust pixels inside the face (px², one pixel = 1 px²). */
+  rustPixels: number;
+  scaleBar: DrawnScaleBar | null;
 };
 
 type Rgb = [number, number, number];
@@ -108,6 +115,7 @@ export function renderSpecimenFace(opts: SpecimenFaceOptions): SpecimenFace {
   // Lens softness then sensor noise, so spot edges and grain edges blend as on a real photo.
   if (opts.greyPatch) paintGreyPatch(data, width, height, opts.greyPatch);
   softenEdges(data, width, height);
+  const scaleBar = opts.scaleBar ? paintScaleBar(data, faceMask, width, height, opts.scaleBar) : null;
   if (opts.lighting) applyLighting(data, opts.lighting);
   addSensorNoise(data, randomInt(rng, 2 ** 31));
 
@@ -117,8 +125,9 @@ export function renderSpecimenFace(opts: SpecimenFaceOptions): SpecimenFace {
     facePixels += faceMask[i];
     rustPixels += rustMask[i];
   }
-  return { width, height, data, face, trueRustFraction: facePixels === 0 ? 0 : rustPixels / facePixels };
+  return { width, height, data, face, trueRustFraction: facePixels === 0 ? 0 : rustPixels / facePixels, rustPixels, scaleBar };
 }
+
 
 function insideFace(face: readonly Point[], x: number, y: number): boolean {
   const c = polygonCrossings(face, y);

@@ -1,7 +1,9 @@
 // Per-specimen outcomes as flat rows for CSV (see OUTCOME_TABLE for the columns).
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
+import type { OutcomeAreas } from "@/lib/scoring/scaled-areas";
 
-export function outcomeRows(outcomes: readonly SpecimenOutcome[]) {
+/** areas: mm² figures per placement (db/queries/photo-evidence.ts loadOutcomeAreas); empty cells without. */
+export function outcomeRows(outcomes: readonly SpecimenOutcome[], areas?: ReadonlyMap<string, OutcomeAreas>) {
   return outcomes.map((o) => ({
     placementId: o.placementId,
     specimenId: o.specimenId,
@@ -17,6 +19,8 @@ export function outcomeRows(outcomes: readonly SpecimenOutcome[]) {
     // Unscored specimens are neither: their cells stay empty rather than claiming censoring.
     rightCensored: o.interval ? o.interval.upper === null : null,
     finalAreaPercent: o.finalAreaPercent,
+    finalAreaMm2: areas?.get(o.placementId)?.finalAreaMm2 ?? null,
+    growthMm2PerDay: areas?.get(o.placementId)?.growthMm2PerDay ?? null,
     finalDay: o.finalDay,
     weepingSeen: o.weepingSeen,
     entryDay: o.entry,

@@ -3,6 +3,7 @@
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { toPackageName } from "./datapackage";
 import { EXPOSURE_TABLE, exposureRows, type ExposurePlacement } from "./exposure-rows";
+import type { OutcomeAreas } from "@/lib/scoring/scaled-areas";
 import { outcomeRows } from "./outcome-rows";
 import { buildPackageZip, type PackageTable } from "./package-zip";
 import { formatDateTime } from "./table-schema";
@@ -55,8 +56,8 @@ These results guide storage decisions; they do not replace a conservator's judge
 `;
 
 /** The zip of a trial's tables, their descriptor and the README, with its download name. */
-export async function trialDataPackage({ trial, rows, outcomes, exposure = [], now }: {
-  trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; exposure?: readonly ExposurePlacement[]; now: Date;
+export async function trialDataPackage({ trial, rows, outcomes, exposure = [], areas, now }: {
+  trial: PackagedTrial; rows: TrialExportRows; outcomes: readonly SpecimenOutcome[]; exposure?: readonly ExposurePlacement[]; areas?: ReadonlyMap<string, OutcomeAreas>; now: Date;
 }) {
   const tables: PackageTable[] = [
     { spec: TRIAL_TABLE, rows: [trial] },
@@ -68,7 +69,7 @@ export async function trialDataPackage({ trial, rows, outcomes, exposure = [], n
     { spec: PHOTO_TABLE, rows: rows.photoRows },
     { spec: SCORE_TABLE, rows: rows.scoreRows },
     { spec: READING_TABLE, rows: rows.readingRows },
-    { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes) },
+    { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes, areas) },
     { spec: EXPOSURE_TABLE, rows: exposureRows(exposure) },
     { spec: STORAGE_RULE_TABLE, rows: (rows.storageRuleRows ?? []).map((r) => ({ ...r, sourceTrialIdsText: r.sourceTrialIds.join(" ") })) },
   ];

@@ -14,6 +14,8 @@ export type PresignRequest = z.infer<typeof presignRequestSchema>;
 
 export const finalizeRequestSchema = z.object({
   token: z.string().min(16).max(8000),
+  /** The trial's photo protocol points the photographer ticked for this upload; absent: not recorded. */
+  protocol: z.array(z.string().trim().min(1).max(300), "List the protocol points followed.").max(30).optional(),
 });
 export type FinalizeRequest = z.infer<typeof finalizeRequestSchema>;
 

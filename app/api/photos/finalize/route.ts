@@ -6,7 +6,7 @@ import { labRoute, readJson } from "@/lib/auth/route";
 import { finalizeRequestSchema } from "@/lib/photos/schemas";
 
 export const POST = labRoute("photos.upload", async (ctx, req) => {
-  const { token } = await readJson(req, finalizeRequestSchema);
-  const result = await finalizePhotoUpload({ caller: ctx, token });
+  const { token, protocol } = await readJson(req, finalizeRequestSchema);
+  const result = await finalizePhotoUpload({ caller: ctx, token, protocol });
   return NextResponse.json(result, { status: result.alreadyFinalized ? 200 : 201, headers: { "Cache-Control": "no-store" } });
 });

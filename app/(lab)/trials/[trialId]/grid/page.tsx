@@ -1,6 +1,9 @@
 import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getTrialGrid, representativePhoto, type GridCell } from "@/db/queries/photo-timeline";
+import { loadPhotoEvidence, loadScaledRecords } from "@/db/queries/photo-evidence";
+import { ProtocolFlag } from "@/components/photos/photo-evidence-note";
+import { AreaMm2 } from "@/components/photos/area-mm2";
 import { trialPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDate } from "@/lib/format";
@@ -21,10 +24,17 @@ function groupCells(cells: GridCell[], byArm: boolean): [string, GridCell[]][] {
 export default async function TrialGridPage({ params, searchParams }: { params: Promise<{ trialId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
   const { trialId } = await params;
   const sp = await searchParams;
-  const { ctx, access } = await trialPage("/trials/[trialId]/grid", trialId);
+  const { ctx, access, trial: trialRow } = await trialPage("/trials/[trialId]/grid", trialId);
   const grid = await getTrialGrid({ labId: ctx.labId, trialId, inspectionId: sp.inspection, userId: ctx.userId, role: ctx.role });
   if (!grid) notFound();
   const { trial, inspection, cells } = grid;
+  const protocol = trialRow.photoProtocol;
+  const [evidence, scaled] = await Promise.all([
+    loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol, photoRows: cells.flatMap((c) => c.photos.map((p) => ({ id: p.id, specimenId: c.specimen.id }))) }),
+    // mm² comes from the score of record, which a blind scorer does not see.
+    grid.blind || !inspection ? null : loadScaledRecords({ labId: ctx.labId, trialId: trial.id, inspectionId: inspection.id, protocol }),
+  ]);
+  const scaledBy = new Map((scaled?.records ?? []).map((r) => [r.specimenId, r]));
   const idx = inspection ? grid.inspections.findIndex((i) => i.id === inspection.id) : -1;
   const prev = idx > 0 ? grid.inspections[idx - 1] : null;
   const next = idx >= 0 && idx < grid.inspections.length - 1 ? grid.inspections[idx + 1] : null;
@@ -66,6 +76,8 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
                       </Link>
                       <p className="text-sm font-medium">{c.specimen.label}{c.photos.length > 1 ? <span className="text-xs muted font-normal"> · {c.photos.length} photos</span> : null}</p>
                       <ScoreSummary score={c.score} hidden={grid.blind} />
+                      {c.score && !grid.blind && <AreaMm2 record={scaledBy.get(c.specimen.id)} />}
+                      {photo && protocol.length > 0 && <ProtocolFlag evidence={evidence.get(photo.id)} compact />}
                       {photo && <TimeCheckNote check={photo.check} ack={photo.checkAck} compact />}
                     </li>
                   );

@@ -12,6 +12,9 @@ import { SummaryPanel } from "@/components/analysis/summary-panel";
 import { SurvivalSection } from "@/components/analysis/survival-section";
 import { TrialRules } from "@/components/analysis/trial-rules";
 import { listStorageRules } from "@/db/queries/storage-rules";
+import { loadScaledRecords } from "@/db/queries/photo-evidence";
+import { ScaledAreaSection } from "@/components/analysis/scaled-area-section";
+import { outcomeAreasMm2 } from "@/lib/scoring/scaled-areas";
 import { EmptyState } from "@/components/ui/empty-state";
 import { EXPOSURE_METHOD, ExposureExclusionNote, ExposureTable } from "@/components/analysis/exposure-section";
 import { exposureKeep } from "@/lib/analysis/exposure-params";
@@ -36,7 +39,11 @@ export default async function ReportPage(props: AnalysisPageProps) {
   const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const keep = analysis.exposure ? exposureKeep(analysis.exposure.query) : {};
   const generated = new Date();
-  const rules = await listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id });
+  const [rules, scaled] = await Promise.all([
+    listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id }),
+    loadScaledRecords({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol }),
+  ]);
+  const areas = outcomeAreasMm2(analysis.outcomes, scaled.areaMm2);
 
   return (
     <article className="report space-y-5 max-w-4xl mx-auto">
@@ -75,8 +82,9 @@ export default async function ReportPage(props: AnalysisPageProps) {
           <FinalSection c={c} />
           <section className="panel p-4 space-y-2" aria-labelledby="specimens-h">
             <h2 id="specimens-h" className="font-semibold">Per-specimen outcomes</h2>
-            <OutcomeTable outcomes={analysis.outcomes} />
+            <OutcomeTable outcomes={analysis.outcomes} areas={areas} />
           </section>
+          <ScaledAreaSection outcomes={analysis.outcomes} areas={areas} records={scaled.records} protocol={trial.photoProtocol} />
           <section className="panel p-4 space-y-2" aria-labelledby="rules-h">
             <h2 id="rules-h" className="font-semibold">Storage rules from this trial</h2>
             <TrialRules rules={rules} empty="No storage rule has been accepted from this trial." />

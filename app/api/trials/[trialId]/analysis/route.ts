@@ -9,6 +9,7 @@ import { getTrialAccess } from "@/db/queries/trial-access";
 import { labRoute } from "@/lib/auth/route";
 import { assertResultsVisible } from "@/lib/trials/access";
 import { outcomeRows } from "@/lib/export/outcome-rows";
+import { loadOutcomeAreas } from "@/db/queries/photo-evidence";
 
 export const dynamic = "force-dynamic";
 
@@ -29,7 +30,7 @@ export const GET = labRoute<{ trialId: string }>("analysis.read", async (ctx, re
       doneInspections: analysis.doneInspections,
       recordScores: analysis.recordScores,
       leftOutScores: analysis.leftOut,
-      outcomes: outcomeRows(analysis.outcomes),
+      outcomes: outcomeRows(analysis.outcomes, await loadOutcomeAreas({ labId: ctx.labId, trialId: trial.id, outcomes: analysis.outcomes })),
       comparison: analysis.comparison,
       exposure: analysis.exposure,
     },

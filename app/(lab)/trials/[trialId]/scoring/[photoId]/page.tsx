@@ -14,6 +14,9 @@ import { isUuid } from "@/lib/ids";
 export const metadata = { title: "Blind scoring" };
 
 
+import { loadPhotoEvidence } from "@/db/queries/photo-evidence";
+import { ProtocolFlag, ScaleNote } from "@/components/photos/photo-evidence-note";
+
 export default async function BlindScorePage({ params }: { params: Promise<{ trialId: string; photoId: string }> }) {
   const { trialId, photoId } = await params;
   const { ctx, trial, access } = await trialPage("/trials/[trialId]/scoring/[photoId]", trialId);
@@ -28,6 +31,9 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
   const canScore = can(ctx.role, "scores.write") && !access.locked;
   // This photo's own patch only: one carried over from an earlier photo would tie it to its specimen.
   const initialPatch = await colourPatchForPage({ labId: ctx.labId, photoId: view.photo.id, previous: false });
+  // Protocol points and scale are the trial's and the photo's own; they name no specimen or treatment.
+  const lab = await getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound);
+  const evidence = (await loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: [{ id: photoId, specimenId: lab.specimenId }] })).get(photoId);
 
   return (
     <div className="space-y-4">
@@ -40,6 +46,8 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
       </div>
       <p className="text-sm muted">Specimen, treatment, chamber, day and earlier scores are hidden on purpose. Score only what the photo shows.</p>
       {access.locked && <p role="note" className="text-sm">This trial is concluded: scores are locked.</p>}
+      {trial.photoProtocol.length > 0 && <ProtocolFlag evidence={evidence} />}
+      <ScaleNote evidence={evidence} />
       {view.mine && (
         <section className="panel p-3 text-sm" aria-labelledby="saved-h">
           <h2 id="saved-h" className="font-semibold">Your saved score</h2>

@@ -2,6 +2,7 @@
 // in days since the trial start, censoring, final rusted area. Same columns as the data package's.
 import { loadSpecimenOutcomes } from "@/db/queries/analysis";
 import { getTrialAccess } from "@/db/queries/trial-access";
+import { loadOutcomeAreas } from "@/db/queries/photo-evidence";
 import { labRoute } from "@/lib/auth/route";
 import { assertResultsVisible } from "@/lib/trials/access";
 import { toPackageName } from "@/lib/export/datapackage";
@@ -15,7 +16,8 @@ export const GET = labRoute<{ trialId: string }>("export.read", async (ctx, _req
   const { trial, access } = await getTrialAccess({ labId: ctx.labId, trialId, userId: ctx.userId });
   assertResultsVisible(access);
   const { outcomes } = await loadSpecimenOutcomes({ labId: ctx.labId, trial });
-  const csv = tableToCsv(OUTCOME_TABLE, outcomeRows(outcomes));
+  const areas = await loadOutcomeAreas({ labId: ctx.labId, trialId: trial.id, outcomes });
+  const csv = tableToCsv(OUTCOME_TABLE, outcomeRows(outcomes, areas));
   return new Response(csv, {
     headers: {
       "Content-Type": "text/csv; charset=utf-8",

@@ -2,6 +2,9 @@ import Link from "next/link";
 import { notFound } from "next/navigation";
 import { getInspectionForPhotos, listInspectionPhotos, placedSpecimens, referenceTime } from "@/db/queries/photos";
 import { moveTargets, photoWorkCounts } from "@/db/queries/photo-edits";
+import { loadPhotoEvidence } from "@/db/queries/photo-evidence";
+import { PhotoEvidenceForm } from "@/components/photos/photo-evidence-form";
+import { ProtocolFlag, ScaleNote } from "@/components/photos/photo-evidence-note";
 import { describeDeletion } from "@/lib/photos/photo-edits";
 import { PhotoActions } from "@/components/photos/photo-actions";
 import { PhotoNotices } from "@/components/photos/photo-notices";
@@ -14,6 +17,7 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { PhotoCard } from "@/components/photos/photo-card";
 import { PhotoUploader } from "@/components/photos/photo-uploader";
 import { ProtocolChecklist } from "@/components/photos/protocol-checklist";
+import { ProtocolTicksProvider } from "@/components/photos/protocol-ticks";
 import { RefreshWhilePending } from "@/components/photos/refresh-while-pending";
 import { isUuid } from "@/lib/ids";
 
@@ -37,6 +41,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
   const [targets, work] = mayEdit
     ? await Promise.all([moveTargets({ labId: ctx.labId, trialId: trial.id }), photoWorkCounts({ labId: ctx.labId, photoIds: recorded.map((p) => p.id) })])
     : [null, null];
+  const evidence = await loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: recorded });
   const withPhoto = new Set(recorded.map((p) => p.specimenId));
   const missing = specimens.filter((s) => !withPhoto.has(s.id));
   const base = `/trials/${trial.id}`;
@@ -55,6 +60,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
         <p className="text-sm"><Link className="link" href={`${base}/grid?inspection=${inspection.id}`}>All specimens at this inspection, side by side</Link></p>
       </header>
 
+      <ProtocolTicksProvider steps={trial.photoProtocol}>
       <div className="grid gap-6 lg:grid-cols-[1fr_20rem]">
         <div className="space-y-4">
           {locked ? (
@@ -71,6 +77,7 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
           )}
         </aside>
       </div>
+      </ProtocolTicksProvider>
 
       <section className="space-y-3" aria-labelledby="recorded-h">
         <div className="flex flex-wrap items-baseline gap-3">
@@ -87,6 +94,17 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
               <li key={p.id}>
                 <PhotoCard photo={p} alt={`${p.specimenLabel}, day ${inspection.dayNumber}`}
                   title={p.specimenLabel}>
+                  <ProtocolFlag evidence={evidence.get(p.id)} />
+                  <ScaleNote evidence={evidence.get(p.id)} />
+                  {mayEdit && (
+                    <details className="text-sm">
+                      <summary className="cursor-pointer text-xs underline underline-offset-2">Protocol and scale</summary>
+                      <div className="pt-2">
+                        <PhotoEvidenceForm photoId={p.id} name={access.blind ? `the photo of ${p.specimenLabel}` : `${p.specimenLabel} (${p.filename})`}
+                          protocol={trial.photoProtocol} confirmed={evidence.get(p.id)?.confirmed ?? []} hasOwnScale={evidence.get(p.id)?.ownPxPerMm != null} />
+                      </div>
+                    </details>
+                  )}
                   {targets && work && (
                     <PhotoActions
                       photo={{ id: p.id, specimenId: p.specimenId, inspectionId: p.inspectionId, ackNote: p.checkAck?.note ?? null,

@@ -12,6 +12,8 @@ import { EmptyState } from "@/components/ui/empty-state";
 import { saveConsensusAction, saveScoreAction } from "@/app/_actions/scores";
 import { orNotFound } from "@/lib/auth/not-found";
 import { isUuid } from "@/lib/ids";
+import { loadPhotoEvidence } from "@/db/queries/photo-evidence";
+import { ProtocolFlag, ScaleNote } from "@/components/photos/photo-evidence-note";
 
 export const metadata = { title: "Score a specimen" };
 
@@ -35,6 +37,9 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   const initialPatch = data.photo ? await colourPatchForPage({ labId: ctx.labId, photoId: data.photo.id, previous: canScore }) : null;
   const next = canScore ? await nextUnscoredPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId }) : null;
   const others = data.pairScores.filter((r) => r.score.scorerId !== null);
+  const evidence = data.photo
+    ? (await loadPhotoEvidence({ labId: ctx.labId, trialId, protocol: trial.photoProtocol, photoRows: [{ id: data.photo.id, specimenId }] })).get(data.photo.id)
+    : undefined;
   const consensus = data.pairScores.find((r) => r.score.scorerId === null)?.score ?? null;
 
   return (
@@ -72,6 +77,8 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
           ))}
         </nav>
       )}
+      {data.photo && trial.photoProtocol.length > 0 && <ProtocolFlag evidence={evidence} />}
+      {data.photo && <ScaleNote evidence={evidence} />}
       {!data.photo && (
         <EmptyState text="No processed photo of this specimen for this inspection yet. Upload one on the inspection page to mark spots on it; you can still record a score by eye below."
           action={{ href: `/trials/${trialId}/inspections/${inspectionId}`, label: "Go to the inspection" }} />
