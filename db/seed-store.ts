@@ -36,5 +36,13 @@ export async function seedStore(tx: Tx, { labId, users, now }: { labId: string; 
     }))).returning();
     for (const st of stays) await recordAudit(tx, { labId, userId: users.technician, entity: "object-location", entityId: st.id, action: "create", summary: `${o.label} placed (demo store)`, after: st });
   }
+  // An entered storage rule for the store's archaeological iron (invented demo decision), so locations are judged.
+  const [rule] = await tx.insert(s.storageRules).values({
+    labId, materialClass: "archaeological-iron", treatmentName: "Any treatment", version: 1, thresholdRhPercent: 18, origin: "entered",
+    source: "Tarrow conservation committee, store policy note 3", sourceDate: new Date(now.getTime() - 200 * DAY).toISOString().slice(0, 10),
+    method: "Entered by hand from the source named.", statement: "Keep archaeological iron, any treatment, below 18 %RH (Tarrow conservation committee, store policy note 3).",
+    note: "Demo rule.", acceptedBy: users.lead, acceptedAt: new Date(now.getTime() - 150 * DAY),
+  }).returning();
+  await recordAudit(tx, { labId, userId: users.lead, entity: "storage_rule", entityId: rule.id, action: "create", summary: "Storage rule entered: Archaeological iron, Any treatment below 18 %RH (version 1, demo)", after: rule });
   return ids;
 }

@@ -2,7 +2,7 @@
 // time in rule over the last days, each exceedance, and what needs a keeper's attention. Pure: the
 // caller loads readings, rules and upkeep. "In rule" means RH at or below the rule's threshold; the
 // time arithmetic (step readings, gaps not counted) is the chambers' (lib/climate/band-stats.ts).
-import { bandStats, type ClimateReading, type Excursion, type RhBand } from "@/lib/climate/band-stats";
+import { bandStats, type BandStats, type ClimateReading, type Excursion, type RhBand } from "@/lib/climate/band-stats";
 
 /** The windows the product reports time in rule over. */
 export const TIME_IN_RULE_DAYS = [7, 30, 365] as const;
@@ -59,7 +59,11 @@ export function timeInRule(
   maxGapMinutes = DEFAULT_MAX_GAP_MINUTES,
 ): TimeInRule {
   if (!(days > 0)) throw new RangeError(`The window must be a positive number of days, got ${days}.`);
-  const stats = bandStats(readings, ruleBand(thresholdRhPercent), { maxGapMinutes });
+  return timeInRuleOf(bandStats(readings, ruleBand(thresholdRhPercent), { maxGapMinutes }), days);
+}
+
+/** Time in rule from band statistics against the rule's band (however the readings were read). */
+export function timeInRuleOf(stats: Pick<BandStats, "fractionInBand" | "countedMinutes" | "inBandMinutes" | "excursions">, days: number): TimeInRule {
   return {
     days,
     fractionInRule: stats.fractionInBand,
@@ -120,4 +124,33 @@ export function needRank(needs: readonly LocationNeed[]): number {
   let rank = NEED_ORDER.length;
   for (const n of needs) rank = Math.min(rank, NEED_ORDER.indexOf(n));
   return rank;
+}
+
+export interface RuleForMatch extends RuleThreshold {
+  materialClass: string;
+  treatmentName: string;
+}
+
+/** The name an entered rule carries when it holds for a material under any treatment (lib/validation/storage-rules). */
+const ANY = "any treatment";
+
+/** An object's treatments as listed in the register: one per line, or separated by commas or semicolons. */
+export function treatmentNames(treatmentsApplied: string): string[] {
+  return treatmentsApplied.split(/[\n,;]+/).map((t) => t.trim().toLowerCase()).filter(Boolean);
+}
+
+/**
+ * The rules in force that hold for an object: same material class, and either any treatment or a
+ * treatment the register lists for it; an untreated object (none listed) takes the rules for its bare
+ * material, i.e. those named for an uncoated or untreated control as well as any-treatment rules.
+ */
+export function rulesForObject<R extends RuleForMatch>(object: { materialClass: string; treatmentsApplied: string }, rules: readonly R[]): R[] {
+  const applied = treatmentNames(object.treatmentsApplied);
+  return rules.filter((r) => {
+    if (r.materialClass !== object.materialClass) return false;
+    const name = r.treatmentName.trim().toLowerCase();
+    if (name === ANY) return true;
+    if (applied.length === 0) return /\b(uncoated|untreated|bare|none)\b/.test(name);
+    return applied.includes(name);
+  });
 }

@@ -101,7 +101,7 @@ describe("accepting a storage rule", () => {
 });
 
 describe("entering a storage rule by hand", () => {
-  const form = { materialClass: "archaeological-iron", treatmentId: "any", thresholdRhPercent: "30", sourceDate: "2019-05-01", note: "" };
+  const form = { materialClass: "steel-coupon", treatmentId: "any", thresholdRhPercent: "30", sourceDate: "2019-05-01", note: "" };
 
   it("refuses a rule without a source, naming the field, and saves nothing", async () => {
     const before = await db.$count(storageRules, eq(storageRules.labId, labId));
@@ -112,7 +112,7 @@ describe("entering a storage rule by hand", () => {
     expect(future.error!.issues.map((i) => [i.path[0], i.message])).toEqual([["sourceDate", "The source's date cannot be in the future."]]);
     // the database refuses it too, whoever writes
     await expect(db.insert(storageRules).values({
-      labId, materialClass: "archaeological-iron", treatmentName: "Any treatment", version: 99, thresholdRhPercent: 30,
+      labId, materialClass: "steel-coupon", treatmentName: "Any treatment", version: 99, thresholdRhPercent: 30,
       method: "x", statement: "x", origin: "entered", source: "", sourceDate: "2019-05-01",
     })).rejects.toMatchObject({ cause: { constraint: "storage_rules_source_check" } });
     expect(await db.$count(storageRules, eq(storageRules.labId, labId))).toBe(before);
@@ -130,7 +130,7 @@ describe("entering a storage rule by hand", () => {
     const second = await enterStorageRule({ actor: lead, input: { ...input, thresholdRhPercent: 25 } });
     expect(second.version).toBe(first.version + 1);
     const listed = await listStorageRules({ labId, userId: lead.userId });
-    expect(listed.filter((r) => r.materialClass === "archaeological-iron" && r.current).map((r) => r.thresholdRhPercent)).toEqual([25]);
+    expect(listed.filter((r) => r.materialClass === "steel-coupon" && r.current).map((r) => r.thresholdRhPercent)).toEqual([25]);
     const trail = await db.select().from(auditEvents).where(and(eq(auditEvents.labId, labId), eq(auditEvents.entityId, second.id)));
     expect(trail.map((e) => [e.action, e.trialId])).toEqual([["create", null]]);
     expect(trail[0].summary).toContain("source: Conservation committee decision, minute 14");

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { createRng } from "@/lib/allocation/prng";
 import type { ClimateReading } from "@/lib/climate/band-stats";
 import {
-  exceedancesToAlert, locationNeeds, needRank, ruleBand, strictestRule, timeInRule,
+  exceedancesToAlert, locationNeeds, needRank, ruleBand, rulesForObject, strictestRule, timeInRule,
 } from "@/lib/collection/rule-status";
 
 // Reference: a direct count over the raw readings, minute by minute. A reading holds until the next
@@ -111,5 +111,30 @@ describe("strictest rule and needs", () => {
     });
     expect(stale).toEqual(["no-readings", "no-rule"]);
     expect(needRank([])).toBeGreaterThan(needRank(stale));
+  });
+});
+
+describe("rules that hold for an object", () => {
+  const rules = [
+    { id: "any", materialClass: "archaeological-iron", treatmentName: "Any treatment", thresholdRhPercent: 30 },
+    { id: "wax", materialClass: "archaeological-iron", treatmentName: "Microcrystalline wax", thresholdRhPercent: 35 },
+    { id: "bare", materialClass: "archaeological-iron", treatmentName: "Uncoated control", thresholdRhPercent: 20 },
+    { id: "met", materialClass: "iron-meteorite", treatmentName: "Any treatment", thresholdRhPercent: 25 },
+  ];
+  const ids = (o: { materialClass: string; treatmentsApplied: string }) => rulesForObject(o, rules).map((r) => r.id);
+
+  it("matches the material class and the treatments the register lists", () => {
+    expect(ids({ materialClass: "archaeological-iron", treatmentsApplied: "Desalinated; microcrystalline wax" })).toEqual(["any", "wax"]);
+    expect(ids({ materialClass: "archaeological-iron", treatmentsApplied: "" })).toEqual(["any", "bare"]);
+    expect(ids({ materialClass: "iron-meteorite", treatmentsApplied: "Microcrystalline wax" })).toEqual(["met"]);
+    expect(ids({ materialClass: "chondrite", treatmentsApplied: "" })).toEqual([]);
+  });
+
+  it("a location takes the strictest rule of all its objects", () => {
+    const objects = [
+      { materialClass: "archaeological-iron", treatmentsApplied: "Microcrystalline wax" },
+      { materialClass: "iron-meteorite", treatmentsApplied: "" },
+    ];
+    expect(strictestRule(objects.flatMap((o) => rulesForObject(o, rules)))?.id).toBe("met");
   });
 });

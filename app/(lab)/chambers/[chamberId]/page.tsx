@@ -4,6 +4,8 @@ import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
 import { listReadingImports, listRecentReadings } from "@/db/queries/readings";
 import { getChamberSeries } from "@/db/queries/readings-series";
+import { getLocationRuleStatus } from "@/db/queries/location-status";
+import { RuleStatusSection } from "@/components/collection/rule-status-section";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -36,6 +38,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
     listReadingImports({ labId: ctx.labId, chamberId, limit: 5 }),
   ]);
   const status = isDesiccant ? desiccantStatus(chamber, events) : null;
+  const ruleStatus = isStorageKind(chamber.locationKind) ? await getLocationRuleStatus({ labId: ctx.labId, userId: ctx.userId, locationId: chamber.id }) : null;
   const settleFrom = [
     ...(status?.lastCharge ? [{ label: `the last desiccant ${status.lastCharge.kind === "charged" ? "charge" : status.lastCharge.kind === "regenerated" ? "regeneration" : "replacement"}`, at: status.lastCharge.at }] : []),
     ...(opening ? [{ label: "the last inspection opening", at: opening }] : []),
@@ -107,6 +110,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
         )}
       </section>
 
+      {ruleStatus && <RuleStatusSection status={ruleStatus} />}
       {isDesiccant && status && <DesiccantSection chamber={chamber} status={status} events={events} canWrite={can(ctx.role, "desiccant.write")} />}
       <ReadingsSection chamber={chamber} recent={recent} imports={imports} instruments={instruments} canWrite={can(ctx.role, "readings.write")} />
       <HygrometerSection chamber={chamber} checks={checks} instruments={instruments} canWrite={can(ctx.role, "readings.write")} />

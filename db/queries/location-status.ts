@@ -1,0 +1,130 @@
+import "server-only";
+import { and, asc, desc, eq, gte, inArray, isNull, sql } from "drizzle-orm";
+import { isStorageKind } from "@/lib/collection/locations";
+import {
+  locationNeeds, ruleBand, rulesForObject, strictestRule, TIME_IN_RULE_DAYS, timeInRuleOf, type LocationNeed, type TimeInRule,
+} from "@/lib/collection/rule-status";
+import type { Excursion } from "@/lib/climate/band-stats";
+import { desiccantStatus } from "@/lib/humidity/desiccant-status";
+import { db } from "../client";
+import { chambers, desiccantEvents, objectLocations, readingBlocks, readings, specimens, users } from "../schema";
+import { getChamber, type Chamber } from "./chambers";
+import { hiddenObjectIds } from "./object-locations";
+import { getBandWindowStats } from "./readings-series";
+import { listStorageRules, type StorageRuleView } from "./storage-rules";
+
+const DAY_MS = 86_400_000;
+/** The overview flags a location out of rule for more than this share of the last 30 days (default). */
+export const DEFAULT_OUT_OF_RULE_SHARE = 0.05;
+
+export type ObjectAtRisk = { id: string; label: string; accessionNumber: string | null; thresholdRhPercent: number; ruleStatement: string };
+export type LocationRuleStatus = {
+  location: Chamber;
+  keeperName: string | null;
+  objectCount: number;
+  /** The strictest rule of the objects held now; null when none of them has one. */
+  rule: StorageRuleView | null;
+  windows: TimeInRule[];
+  /** Exceedances of the last 365 days, latest first. */
+  exceedances: Excursion[];
+  /** Highest RH of the last 30 days (as counted for time in rule). */
+  max30dRhPercent: number | null;
+  /** Objects whose own rule the last 30 days exceeded. */
+  atRisk: ObjectAtRisk[];
+  lastReading: { takenAt: Date; rhPercent: number } | null;
+  /** The desiccant's projected exhaustion with the rule's threshold as the RH it must hold (desiccant locations only). */
+  desiccantDueAt: Date | null;
+  needs: LocationNeed[];
+};
+
+type Held = { id: string; label: string; accessionNumber: string | null; materialClass: string; treatmentsApplied: string };
+
+async function heldObjects(labId: string, locationIds: readonly string[]) {
+  if (locationIds.length === 0) return new Map<string, Held[]>();
+  const rows = await db.select({
+    locationId: objectLocations.locationId, id: specimens.id, label: specimens.label, accessionNumber: specimens.accessionNumber,
+    materialClass: specimens.materialClass, treatmentsApplied: specimens.treatmentsApplied,
+  }).from(objectLocations).innerJoin(specimens, eq(specimens.id, objectLocations.specimenId))
+    .where(and(eq(objectLocations.labId, labId), isNull(objectLocations.toAt), inArray(objectLocations.locationId, [...locationIds])))
+    .orderBy(asc(specimens.label));
+  const out = new Map<string, Held[]>();
+  for (const r of rows) out.set(r.locationId, [...(out.get(r.locationId) ?? []), r]);
+  return out;
+}
+
+/**
+ * How one storage location keeps the lab's storage rules: its rule (the strictest of its objects'),
+ * time in rule over 7, 30 and 365 days, exceedances, objects at risk and the desiccant forecast.
+ * Time in rule is counted as the chamber page counts time in band (getBandWindowStats).
+ */
+export async function getLocationRuleStatus({ labId, userId, locationId, now = new Date(), outOfRuleShare = DEFAULT_OUT_OF_RULE_SHARE }: {
+  labId: string; userId: string; locationId: string; now?: Date; outOfRuleShare?: number;
+}): Promise<LocationRuleStatus> {
+  const location = await getChamber({ labId, chamberId: locationId });
+  const [rules, held, hidden, keeper, last, events] = await Promise.all([
+    listStorageRules({ labId, userId }).then((r) => r.filter((x) => x.current)),
+    heldObjects(labId, [locationId]).then((m) => m.get(locationId) ?? []),
+    hiddenObjectIds({ labId, userId }),
+    location.keeperId ? db.select({ name: users.name }).from(users).where(eq(users.id, location.keeperId)) : Promise.resolve([]),
+    db.select({ takenAt: readings.takenAt, rhPercent: readings.rhPercent }).from(readings)
+      .where(and(eq(readings.labId, labId), eq(readings.chamberId, locationId))).orderBy(desc(readings.takenAt)).limit(1),
+    location.kind === "desiccant" ? db.select().from(desiccantEvents).where(and(eq(desiccantEvents.labId, labId), eq(desiccantEvents.chamberId, locationId))) : Promise.resolve([]),
+  ]);
+  const objectRules = held.map((o) => ({ o, rule: strictestRule(rulesForObject(o, rules)) }));
+  const rule = strictestRule(objectRules.flatMap((x) => (x.rule ? [x.rule] : [])));
+  const windows: TimeInRule[] = [];
+  let exceedances: Excursion[] = [];
+  let max30: number | null = null;
+  if (rule) {
+    const band = ruleBand(rule.thresholdRhPercent);
+    const stats = await Promise.all(TIME_IN_RULE_DAYS.map((days) =>
+      getBandWindowStats({ labId, chamberId: locationId, band, from: new Date(now.getTime() - days * DAY_MS), to: now })));
+    TIME_IN_RULE_DAYS.forEach((days, i) => {
+      // The stand-in readings of the summaries give the same counts as every reading would (tests/integration/chambers-climate-sql).
+      windows.push(timeInRuleOf(stats[i], days));
+    });
+    exceedances = [...stats[TIME_IN_RULE_DAYS.length - 1].excursions].reverse();
+    max30 = stats[1].maxRhPercent;
+  }
+  const atRisk = objectRules
+    .filter((x) => x.rule && !hidden.has(x.o.id) && max30 !== null && max30 > x.rule.thresholdRhPercent)
+    .map((x) => ({ id: x.o.id, label: x.o.label, accessionNumber: x.o.accessionNumber, thresholdRhPercent: x.rule!.thresholdRhPercent, ruleStatement: x.rule!.statement }));
+  let desiccantDueAt: Date | null = null;
+  if (location.kind === "desiccant") {
+    const holdAt = rule ? rule.thresholdRhPercent : location.setpointRhPercent;
+    desiccantDueAt = desiccantStatus({ ...location, setpointRhPercent: holdAt }, events).exhaustionAt;
+  }
+  const lastReading = last[0] ?? null;
+  const needs = locationNeeds({
+    now, thresholdRhPercent: rule?.thresholdRhPercent ?? null, lastReading, fractionInRule30d: windows[1]?.fractionInRule ?? null,
+    outOfRuleShareLimit: outOfRuleShare, desiccantDueAt,
+  });
+  return {
+    location, keeperName: keeper[0]?.name ?? null, objectCount: held.filter((o) => !hidden.has(o.id)).length, rule, windows, exceedances,
+    max30dRhPercent: max30, atRisk, lastReading, desiccantDueAt, needs: held.length === 0 ? needs.filter((n) => n !== "no-rule") : needs,
+  };
+}
+
+/** Every storage location of the lab (archived left out) with its rule status, most in need first. */
+export async function listLocationStatuses({ labId, userId, now = new Date(), outOfRuleShare = DEFAULT_OUT_OF_RULE_SHARE }: {
+  labId: string; userId: string; now?: Date; outOfRuleShare?: number;
+}) {
+  const rows = await db.select({ id: chambers.id, locationKind: chambers.locationKind }).from(chambers)
+    .where(and(eq(chambers.labId, labId), isNull(chambers.archivedAt)));
+  const ids = rows.filter((r) => isStorageKind(r.locationKind)).map((r) => r.id);
+  const statuses = await Promise.all(ids.map((locationId) => getLocationRuleStatus({ labId, userId, locationId, now, outOfRuleShare })));
+  const traces = await dailyMaxima({ labId, locationIds: ids, from: new Date(now.getTime() - 30 * DAY_MS) });
+  return statuses.map((s) => ({ ...s, trace: traces.get(s.location.id) ?? [] }));
+}
+
+/** Highest RH per day of the last days, from the hourly summaries (a small trace per overview row). */
+async function dailyMaxima({ labId, locationIds, from }: { labId: string; locationIds: readonly string[]; from: Date }) {
+  const out = new Map<string, { day: Date; maxRhPercent: number }[]>();
+  if (locationIds.length === 0) return out;
+  const day = sql<Date>`date_bin('1 day', ${readingBlocks.blockStart}, timestamptz '1970-01-01 00:00:00+00')`;
+  const rows = await db.select({ chamberId: readingBlocks.chamberId, day, maxRh: sql<number>`max(${readingBlocks.maxRhPercent})` }).from(readingBlocks)
+    .where(and(eq(readingBlocks.labId, labId), inArray(readingBlocks.chamberId, [...locationIds]), eq(readingBlocks.widthHours, 1), gte(readingBlocks.blockStart, from)))
+    .groupBy(readingBlocks.chamberId, day).orderBy(readingBlocks.chamberId, day);
+  for (const r of rows) out.set(r.chamberId, [...(out.get(r.chamberId) ?? []), { day: new Date(r.day), maxRhPercent: Number(r.maxRh) }]);
+  return out;
+}
