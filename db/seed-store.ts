@@ -1,6 +1,7 @@
 // The demo's store (experiments/demo-store.ts): locations in the chamber tree, objects with their
 // stays and six-hourly logger readings for the locations that have one.
 import { demoLocations, demoObjects, demoStoreRh } from "@/experiments/demo-store";
+import { eq } from "drizzle-orm";
 import { recordAudit } from "./audit";
 import type { Tx } from "./client";
 import * as s from "./schema";
@@ -36,6 +37,8 @@ export async function seedStore(tx: Tx, { labId, users, now }: { labId: string; 
     }))).returning();
     for (const st of stays) await recordAudit(tx, { labId, userId: users.technician, entity: "object-location", entityId: st.id, action: "create", summary: `${o.label} placed (demo store)`, after: st });
   }
+  // The store's keeper takes collection alerts as a daily digest (the demo's case and box run out of rule often).
+  await tx.update(s.users).set({ collectionDigest: true }).where(eq(s.users.id, users.technician));
   // An entered storage rule for the store's archaeological iron (invented demo decision), so locations are judged.
   const [rule] = await tx.insert(s.storageRules).values({
     labId, materialClass: "archaeological-iron", treatmentName: "Any treatment", version: 1, thresholdRhPercent: 18, origin: "entered",

@@ -1,8 +1,9 @@
-// The background worker started by `npm start`: inspection and desiccant reminders, photo previews and
-// the orphan sweep, all from the pg-boss queue on the same PostgreSQL.
+// The background worker started by `npm start`: inspection and desiccant reminders, collection alerts,
+// photo previews and the orphan sweep, all from the pg-boss queue on the same PostgreSQL.
 import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
 import { claimDueReminders, reclaimStaleReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
 import { runDesiccantScan } from "@/db/jobs/desiccant";
+import { runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
 import { registerPhotoJobs } from "@/db/jobs/photos";
 import { closeDb } from "@/db/client";
 
@@ -35,6 +36,17 @@ async function main() {
     if (r.claimed || r.sent) console.log(`[worker] desiccant reminders: ${r.claimed} claimed, ${r.sent} sent`);
   });
   await boss.schedule(QUEUES.desiccantScan, "17 * * * *", undefined, { retryLimit: 5, retryDelay: 60, retryBackoff: true });
+  // Collection alerts: a scan every 10 minutes (claims are kept in the database, so a restart sends nothing twice); digests daily at 07:00 UTC.
+  await boss.work(QUEUES.locationAlertScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
+    const r = await runLocationAlertScan();
+    if (r.claimed || r.sent) console.log(`[worker] collection alerts: ${r.claimed} claimed, ${r.sent} sent`);
+  });
+  await boss.schedule(QUEUES.locationAlertScan, "*/10 * * * *", undefined, { retryLimit: 5, retryDelay: 60, retryBackoff: true });
+  await boss.work(QUEUES.locationDigest, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
+    const r = await runLocationDigest();
+    if (r.digests) console.log(`[worker] collection digests: ${r.digests} sent for ${r.alerts} alert(s)`);
+  });
+  await boss.schedule(QUEUES.locationDigest, "0 7 * * *", undefined, { retryLimit: 5, retryDelay: 300, retryBackoff: true });
   await scanOnce().catch((e) => console.error("[worker] scan failed:", e.message));
   console.log("[worker] running");
 }

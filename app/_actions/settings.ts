@@ -44,3 +44,9 @@ export const setReminderPreference = labAction("lab.read", z.object({ optOut: z.
   revalidate("/settings");
   return { message: data.optOut === "1" ? "You will not get reminder e-mails." : "You will get reminder e-mails." };
 });
+
+export const setCollectionDigest = labAction("lab.read", z.object({ digest: z.enum(["0", "1"]) }), async (ctx, data) => {
+  await db.update(users).set({ collectionDigest: data.digest === "1" }).where(eq(users.id, ctx.userId));
+  revalidate("/settings");
+  return { message: data.digest === "1" ? "Collection alerts will come as one e-mail a day." : "Collection alerts will come one e-mail per exceedance." };
+});

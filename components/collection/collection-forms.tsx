@@ -31,6 +31,8 @@ export function NewLocationForm({ parents, members }: { parents: Option[]; membe
       <Field name="toleranceRhPercent" label="Tolerance (± %RH)" state={state} type="text" hint="2 %RH when left empty" />
       <Field name="nominalTempC" label="Usual temperature (°C)" state={state} type="text" defaultValue="18" />
       <SelectField name="keeperId" label="Keeper" state={state} options={[{ value: "", label: "— none —" }, ...members]} defaultValue="" />
+      <Field name="alertAfterHours" label="Alert after (h out of rule)" type="number" step="0.5" min={0.5} max={720} state={state} defaultValue={6}
+        hint="The keeper (or the keeper of the place it sits in) gets an e-mail once the location has been out of its storage rule this long." />
       <SelectField name="desiccantKind" label="Desiccant (desiccant microclimate)" state={state}
         options={[{ value: "", label: "—" }, ...Object.values(DESICCANTS).map((d) => ({ value: d.kind, label: d.displayName }))]} defaultValue="" />
       <Field name="desiccantMassG" label="Desiccant mass (g)" state={state} type="text" />

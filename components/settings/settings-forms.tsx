@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { changeMemberRole, changeOwnPassword, inviteMember, setReminderPreference } from "@/app/_actions/settings";
+import { changeMemberRole, changeOwnPassword, inviteMember, setReminderPreference, setCollectionDigest } from "@/app/_actions/settings";
 import { Field, FormMessage, SelectField, SubmitButton } from "@/components/ui/form";
 import { ROLE_LABELS, ROLES } from "@/lib/auth/permissions";
 
@@ -52,6 +52,22 @@ export function ReminderForm({ optOut }: { optOut: boolean }) {
       <input type="hidden" name="optOut" value={optOut ? "0" : "1"} />
       <p className="text-sm">{optOut ? "You have turned off inspection reminder e-mails." : "You get an e-mail the day before an inspection you are assigned to, and when it is overdue."}</p>
       <SubmitButton>{optOut ? "Turn reminders on" : "Turn reminders off"}</SubmitButton>
+      <FormMessage state={state} />
+    </form>
+  );
+}
+
+export function CollectionDigestForm({ digest }: { digest: boolean }) {
+  const [state, action] = useActionState(setCollectionDigest, undefined);
+  return (
+    <form action={action} className="space-y-2">
+      <input type="hidden" name="digest" value={digest ? "0" : "1"} />
+      <p className="text-sm">
+        {digest
+          ? "Alerts for the storage locations you keep come as one e-mail a day (07:00 UTC) listing the new exceedances."
+          : "You get an e-mail for each exceedance of a storage location you keep, once it has lasted the location's alert delay (6 h unless set)."}
+      </p>
+      <SubmitButton>{digest ? "One e-mail per exceedance" : "One e-mail a day instead"}</SubmitButton>
       <FormMessage state={state} />
     </form>
   );

@@ -7,6 +7,8 @@ export const QUEUES = {
   photoProcess: "photo-process",
   orphanSweep: "orphan-sweep",
   desiccantScan: "desiccant-scan",
+  locationAlertScan: "location-alert-scan",
+  locationDigest: "location-digest",
 } as const;
 
 const g = globalThis as unknown as { rustlineBoss?: Promise<PgBoss> };

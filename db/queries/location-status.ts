@@ -7,7 +7,7 @@ import {
 import type { Excursion } from "@/lib/climate/band-stats";
 import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { db } from "../client";
-import { chambers, desiccantEvents, objectLocations, readingBlocks, readings, specimens, users } from "../schema";
+import { chambers, desiccantEvents, objectLocations, readingBlocks, readings, specimens, storageRules, users } from "../schema";
 import { getChamber, type Chamber } from "./chambers";
 import { hiddenObjectIds } from "./object-locations";
 import { getBandWindowStats } from "./readings-series";
@@ -38,6 +38,23 @@ export type LocationRuleStatus = {
 };
 
 type Held = { id: string; label: string; accessionNumber: string | null; materialClass: string; treatmentsApplied: string };
+
+/**
+ * The rule each storage location takes now: the strictest current rule of the objects it holds
+ * (rules read without a viewer, for the alert scan; pages pass the viewer's rules).
+ */
+export async function rulesOfLocations({ labId, locationIds, rules }: { labId: string; locationIds: readonly string[]; rules?: readonly StorageRuleView[] }) {
+  const [current, held] = await Promise.all([
+    rules ?? db.select().from(storageRules).where(and(eq(storageRules.labId, labId), isNull(storageRules.supersededAt))),
+    heldObjects(labId, locationIds),
+  ]);
+  const out = new Map<string, (typeof current)[number]>();
+  for (const id of locationIds) {
+    const rule = strictestRule((held.get(id) ?? []).flatMap((o) => rulesForObject(o, current)));
+    if (rule) out.set(id, rule);
+  }
+  return out;
+}
 
 async function heldObjects(labId: string, locationIds: readonly string[]) {
   if (locationIds.length === 0) return new Map<string, Held[]>();

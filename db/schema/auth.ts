@@ -7,6 +7,8 @@ export const users = pgTable("users", {
   name: text("name").notNull(),
   passwordHash: text("password_hash").notNull(),
   remindersOptOut: boolean("reminders_opt_out").notNull().default(false),
+  /** Collection alerts gathered into one daily e-mail instead of one per exceedance. */
+  collectionDigest: boolean("collection_digest").notNull().default(false),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [uniqueIndex("users_email_idx").on(t.email)]);
 

@@ -24,6 +24,8 @@ export const chambers = pgTable("chambers", {
   locationKind: locationKindEnum("location_kind").notNull().default("trial-jar"),
   parentId: uuid("parent_id").references((): AnyPgColumn => chambers.id, { onDelete: "restrict" }),
   keeperId: uuid("keeper_id").references(() => users.id, { onDelete: "set null" }),
+  /** A storage location out of rule this long (hours) e-mails its keeper. */
+  alertAfterHours: doublePrecision("alert_after_hours").notNull().default(6),
   archivedAt: timestamp("archived_at", { withTimezone: true }),
   createdBy: uuid("created_by").references(() => users.id, { onDelete: "set null" }),
   createdAt: timestamp("created_at", { withTimezone: true }).notNull().defaultNow(),

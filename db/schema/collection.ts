@@ -2,7 +2,7 @@
 // An object is in one place at a time: the partial unique index allows one open stay per object and
 // the exclusion constraint of migration 0017 (btree_gist) refuses any two overlapping stays.
 import { sql } from "drizzle-orm";
-import { check, index, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { check, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chambers } from "./chambers";
 import { specimens } from "./specimens";
@@ -22,4 +22,27 @@ export const objectLocations = pgTable("object_locations", {
   index("object_locations_lab_location_idx").on(t.labId, t.locationId, t.fromAt),
   index("object_locations_lab_specimen_idx").on(t.labId, t.specimenId, t.fromAt),
   check("object_locations_order", sql`${t.toAt} is null or ${t.toAt} > ${t.fromAt}`),
+]);
+
+// An e-mail owed to a location's keeper because the location stayed out of rule longer than its alert
+// delay. One row per exceedance (its start) and recipient, claimed before sending: a scan after a
+// restart finds the row and sends nothing twice; a failed mail leaves sent_at empty for the next scan.
+export const locationAlerts = pgTable("location_alerts", {
+  id: uuid("id").primaryKey().defaultRandom(),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  locationId: uuid("location_id").notNull().references(() => chambers.id, { onDelete: "cascade" }),
+  recipientId: uuid("recipient_id").notNull().references(() => users.id, { onDelete: "cascade" }),
+  startedAt: timestamp("started_at", { withTimezone: true }).notNull(),
+  thresholdRhPercent: doublePrecision("threshold_rh_percent").notNull(),
+  peakRhPercent: doublePrecision("peak_rh_percent").notNull(),
+  durationMinutes: doublePrecision("duration_minutes").notNull(),
+  /** "each" mails at once; "digest" waits for the keeper's daily digest. */
+  delivery: text("delivery").notNull().default("each"),
+  queuedAt: timestamp("queued_at", { withTimezone: true }).notNull().defaultNow(),
+  attempts: integer("attempts").notNull().default(0),
+  sentAt: timestamp("sent_at", { withTimezone: true }),
+}, (t) => [
+  uniqueIndex("location_alerts_once_idx").on(t.locationId, t.startedAt, t.recipientId),
+  index("location_alerts_unsent_idx").on(t.sentAt, t.queuedAt),
+  check("location_alerts_delivery", sql`${t.delivery} in ('each', 'digest')`),
 ]);

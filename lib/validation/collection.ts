@@ -9,6 +9,8 @@ const placeFields = z.object({
   locationKind: z.enum(STORAGE_KINDS, "Choose what kind of place this is."),
   parentId: optionalId("Choose the location this one sits in, or none."),
   keeperId: optionalId("Choose the keeper from the lab's members."),
+  alertAfterHours: z.preprocess((v) => (v === "" || v == null ? undefined : v), z.coerce.number({ error: "Enter the alert delay in hours." })
+    .min(0.5, "The alert delay must be at least 0.5 h.").max(720, "The alert delay must be at most 720 h (30 days).").default(6)),
 });
 
 /** A storage location: the chamber fields (how its humidity is held = its microclimate) and its place. */

@@ -73,6 +73,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SETTINGS}#changeMemberRole`]: { permission: "members.manage", empty: "invalid", foreign: (f) => ({ userId: f.users.technician, role: "observer" }) },
   [`${SETTINGS}#changeOwnPassword`]: { permission: "lab.read", empty: "invalid" },
   [`${SETTINGS}#setReminderPreference`]: { permission: "lab.read", empty: "invalid" },
+  [`${SETTINGS}#setCollectionDigest`]: { permission: "lab.read", empty: "invalid" },
   [`${SPECIMENS}#createSpecimenAction`]: { permission: "specimens.write", empty: "invalid" },
   [`${SPECIMENS}#updateSpecimenAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, label: "TAKEN-1", materialClass: "steel-coupon" }) },
   [`${SPECIMENS}#importSpecimensAction`]: { permission: "specimens.write", empty: "invalid" },

@@ -6,7 +6,7 @@ import { listMembers } from "@/db/queries/memberships";
 import { labPage } from "@/lib/auth/page";
 import { can, ROLE_LABELS } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
-import { InviteForm, PasswordForm, ReminderForm, RoleForm } from "@/components/settings/settings-forms";
+import { CollectionDigestForm, InviteForm, PasswordForm, ReminderForm, RoleForm } from "@/components/settings/settings-forms";
 
 export const metadata = { title: "Lab settings" };
 
@@ -16,7 +16,7 @@ export default async function SettingsPage() {
   const [members, invites, me] = await Promise.all([
     listMembers({ labId: ctx.labId }),
     manage ? listInvitations({ labId: ctx.labId }) : Promise.resolve([]),
-    db.select({ optOut: users.remindersOptOut }).from(users).where(eq(users.id, ctx.userId)),
+    db.select({ optOut: users.remindersOptOut, digest: users.collectionDigest }).from(users).where(eq(users.id, ctx.userId)),
   ]);
   const now = new Date();
   return (
@@ -72,6 +72,10 @@ export default async function SettingsPage() {
         <section className="panel p-4 space-y-3" aria-labelledby="rem-h">
           <h2 id="rem-h" className="font-semibold">Reminder e-mails</h2>
           <ReminderForm optOut={me[0]?.optOut ?? false} />
+        </section>
+        <section className="panel p-4 space-y-3" aria-labelledby="coll-h">
+          <h2 id="coll-h" className="font-semibold">Collection alerts</h2>
+          <CollectionDigestForm digest={me[0]?.digest ?? false} />
         </section>
       </div>
     </div>
