@@ -69,7 +69,7 @@ describe("compare treatment outcomes", () => {
     const lines = text.trimEnd().split("\r\n");
     expect(lines[0]).toBe(
       "placement_id,specimen_id,specimen_label,material_class,chamber,treatment,arm,inspections_scored,interval_lower_day," +
-        "interval_upper_day,rusted,right_censored,final_area_percent,final_day,weeping_seen,entry_day,rusted_earlier," +
+        "interval_upper_day,rusted,right_censored,final_area_percent,final_area_mm2,growth_mm2_per_day,final_day,weeping_seen,entry_day,rusted_earlier," +
         "weeping_lower_day,weeping_upper_day",
     );
     expect(lines).toHaveLength(25);
