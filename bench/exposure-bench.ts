@@ -1,0 +1,50 @@
+// Chamber exposure per placement (loadTrialExposure, as the comparison and the report load it) over
+// every trial in DATABASE_URL (the seeded demo trials under npm run bench): time per load and a
+// fingerprint of the results, so a change of the query can be shown to leave them unchanged.
+// Run: node --conditions=react-server --import tsx bench/exposure-bench.ts
+import crypto from "node:crypto";
+import { pathToFileURL } from "node:url";
+import { closeDb, db } from "@/db/client";
+import * as s from "@/db/schema";
+import { loadTrialExposure } from "@/db/queries/exposure";
+import { DEFAULT_THRESHOLDS_RH_PERCENT } from "@/lib/climate/exposure";
+import { percentiles } from "./support";
+
+export type ExposureFigures = { trialTitle: string; placements: number; readings: number; p50Ms: number; p95Ms: number; runs: number; fingerprint: string };
+
+export async function runExposureBench(opts: { runs?: number } = {}): Promise<ExposureFigures[]> {
+  const runs = opts.runs ?? 15;
+  const trials = await db.select({ id: s.trials.id, labId: s.trials.labId, title: s.trials.title, startedAt: s.trials.startedAt, concludedAt: s.trials.concludedAt }).from(s.trials);
+  // A fixed "now" so open placements end at the same time in every run.
+  const now = new Date();
+  const out: ExposureFigures[] = [];
+  for (const t of trials) {
+    const load = () => loadTrialExposure({ labId: t.labId, trial: t, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now });
+    const rows = await load(); // warm-up (prepared statements, JIT of the reduction)
+    const times: number[] = [];
+    for (let i = 0; i < runs; i++) {
+      const t0 = performance.now();
+      await load();
+      times.push(performance.now() - t0);
+    }
+    const p = percentiles(times);
+    const fingerprint = crypto.createHash("sha256").update(JSON.stringify(rows)).digest("hex").slice(0, 16);
+    out.push({ trialTitle: t.title, placements: rows.length, readings: rows.reduce((n, r) => n + r.exposure.readings, 0), p50Ms: p.p50, p95Ms: p.p95, runs, fingerprint });
+  }
+  return out;
+}
+
+if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) {
+  runExposureBench()
+    .then((figures) => {
+      if (!figures.length) console.log("no trials in this database (seed the demo first)");
+      for (const f of figures) {
+        console.log(`exposure of "${f.trialTitle}": ${f.placements} placements, ${f.readings.toLocaleString("en")} readings summed over placements: p50 ${f.p50Ms.toFixed(0)} ms, p95 ${f.p95Ms.toFixed(0)} ms (${f.runs} runs); results ${f.fingerprint}`);
+      }
+    })
+    .catch((err) => {
+      console.error(err);
+      process.exitCode = 1;
+    })
+    .finally(() => closeDb());
+}
