@@ -4,6 +4,7 @@
 // Run: node --conditions=react-server --import tsx bench/exposure-bench.ts
 import crypto from "node:crypto";
 import { pathToFileURL } from "node:url";
+import { max } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { loadTrialExposure } from "@/db/queries/exposure";
@@ -15,8 +16,9 @@ export type ExposureFigures = { trialTitle: string; placements: number; readings
 export async function runExposureBench(opts: { runs?: number } = {}): Promise<ExposureFigures[]> {
   const runs = opts.runs ?? 15;
   const trials = await db.select({ id: s.trials.id, labId: s.trials.labId, title: s.trials.title, startedAt: s.trials.startedAt, concludedAt: s.trials.concludedAt }).from(s.trials);
-  // A fixed "now" so open placements end at the same time in every run.
-  const now = new Date();
+  // A fixed "now" (the latest reading) so open placements end at the same time in every run and version.
+  const [{ latest }] = await db.select({ latest: max(s.readings.takenAt) }).from(s.readings);
+  const now = latest ?? new Date(0);
   const out: ExposureFigures[] = [];
   for (const t of trials) {
     const load = () => loadTrialExposure({ labId: t.labId, trial: t, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now });

@@ -86,8 +86,8 @@ export type BlockRow = {
 };
 
 /** Group reading_blocks rows (ordered by block) into blocks, one row per instrument. */
-export function groupBlocks(rows: readonly BlockRow[]): BlockRow[][] {
-  const out: BlockRow[][] = [];
+export function groupBlocks<T extends Pick<BlockRow, "blockStartMs">>(rows: readonly T[]): T[][] {
+  const out: T[][] = [];
   for (const r of rows) {
     const last = out[out.length - 1];
     if (last && last[0].blockStartMs === r.blockStartMs) last.push(r);
@@ -102,7 +102,7 @@ export function groupBlocks(rows: readonly BlockRow[]): BlockRow[][] {
  * intervals are taken as its mean interval, between blocks exactly, so a year of minutes needs
  * no pass over every reading.
  */
-export function gapLimitMinutes(blocks: readonly (readonly BlockRow[])[]): number {
+export function gapLimitMinutes(blocks: readonly (readonly Pick<BlockRow, "n" | "firstMs" | "lastMs">[])[]): number {
   let total = 0;
   const items: { gapMs: number; weight: number }[] = [];
   let prevLast: number | null = null;
