@@ -90,7 +90,7 @@ async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, t
   for (const u of units) {
     if (u.f.side !== null) {
       runs.add(u.f);
-      noteBlockOffsets(u.block, timeline, used);
+      noteBlockOffsets(u.block, used);
       for (const b of u.block) instruments.add(b.instrument);
       count += u.f.n;
       continue;
@@ -108,7 +108,7 @@ async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, t
     count += part.length;
   }
   runs.flush();
-  return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list() };
+  return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list(timeline) };
 }
 
 function dewOf(c: Candidate): { dewC: number | null; dewOver: DewOver | null } {

@@ -1,9 +1,9 @@
-// Pure helpers behind the chamber chart: hygrometer offsets by time, the gap limit, and the
+// Pure helpers behind the chamber chart: hygrometer corrections by time (drift between checks), the gap limit, and the
 // reduction of block summaries (reading_blocks, 6-hour and 1-hour) plus the readings of the few
 // hours that need them into a short series on which lib/climate gives the same band statistics and
 // settle times as on every reading; chart thinning by time buckets. No database access here.
 import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
-import { applyCorrection, correctionOf, type LinearCorrection } from "@/lib/climate/hygrometer-check";
+import { applyCorrection, correctionAt, correctionOf, type LinearCorrection, type TimedCorrection } from "@/lib/climate/hygrometer-check";
 
 export const HOUR_MS = 3_600_000;
 /** The coarse block width of reading_blocks (the fine one is an hour). */
@@ -17,64 +17,109 @@ export type OffsetCheck = {
   id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean; readingRhPercent: number; referenceRhPercent: number; slope: number | null;
 };
 
-/** Applied hygrometer checks per instrument: the latest applied check at or before a time is in force. */
+/**
+ * Applied hygrometer checks per instrument, corrected by the one rule of hygrometer-check
+ * correctionAt (drift interpolated linearly between checks, the nearest check held before the first
+ * and after the last), as exposure corrects them.
+ */
 export class OffsetTimeline {
-  private readonly byInstrument = new Map<string, OffsetCheck[]>();
+  private readonly byInstrument = new Map<string, { checks: OffsetCheck[]; timed: TimedCorrection[] }>();
 
   constructor(checks: readonly OffsetCheck[]) {
-    for (const c of checks) if (c.applied) this.byInstrument.set(c.instrument, [...(this.byInstrument.get(c.instrument) ?? []), c]);
-    for (const list of this.byInstrument.values()) list.sort((a, b) => a.checkedAt.getTime() - b.checkedAt.getTime());
+    const lists = new Map<string, OffsetCheck[]>();
+    for (const c of checks) if (c.applied) lists.set(c.instrument, [...(lists.get(c.instrument) ?? []), c]);
+    for (const [instrument, list] of lists) {
+      list.sort((a, b) => a.checkedAt.getTime() - b.checkedAt.getTime());
+      this.byInstrument.set(instrument, { checks: list, timed: list.map((c) => ({ atMs: c.checkedAt.getTime(), ...correctionOf(c) })) });
+    }
   }
 
   get empty(): boolean {
     return this.byInstrument.size === 0;
   }
 
-  at(instrument: string, tMs: number): OffsetCheck | null {
-    const list = this.byInstrument.get(instrument);
-    if (!list) return null;
-    let lo = 0;
-    let hi = list.length; // first index with checkedAt > t
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (list[mid].checkedAt.getTime() <= tMs) lo = mid + 1;
-      else hi = mid;
-    }
-    return lo > 0 ? list[lo - 1] : null;
+  /** The correction of a reading at tMs; null when the instrument has no applied check. */
+  at(instrument: string, tMs: number): LinearCorrection | null {
+    const e = this.byInstrument.get(instrument);
+    return e ? correctionAt(e.timed, tMs) : null;
   }
 
-  /** True if a check of this instrument falls strictly inside (fromMs, toMs): the offset may change there. */
-  changesWithin(instrument: string, fromMs: number, toMs: number): boolean {
-    return (this.byInstrument.get(instrument) ?? []).some((c) => c.checkedAt.getTime() > fromMs && c.checkedAt.getTime() < toMs);
+  /**
+   * Indexes [lo, hi] of the checks that decide correctionAt for every time t with fromMs <= t < toMs
+   * (or t <= toMs): lo the last check before fromMs (else the first), hi the first at or after toMs
+   * (else the last). correctionAt at such a t reads only checks between them.
+   */
+  private span(timed: readonly TimedCorrection[], fromMs: number, toMs: number): [number, number] {
+    let lo = 0;
+    while (lo + 1 < timed.length && timed[lo + 1].atMs < fromMs) lo++;
+    let hi = lo;
+    while (hi + 1 < timed.length && timed[hi].atMs < toMs) hi++;
+    return [lo, hi];
+  }
+
+  /**
+   * The one correction of every reading in [fromMs, toMs), null when there is no check, "varies"
+   * when it changes there (a check inside, or drift between two checks with different corrections).
+   */
+  over(instrument: string, fromMs: number, toMs: number): LinearCorrection | null | "varies" {
+    const e = this.byInstrument.get(instrument);
+    if (!e) return null;
+    const [lo, hi] = this.span(e.timed, fromMs, toMs);
+    const c = e.timed[lo];
+    for (let i = lo + 1; i <= hi; i++) if (e.timed[i].gain !== c.gain || e.timed[i].shiftRhPercent !== c.shiftRhPercent) return "varies";
+    return { gain: c.gain, shiftRhPercent: c.shiftRhPercent };
+  }
+
+  /** over(), for a block already known to have one correction. */
+  constantOver(instrument: string, fromMs: number, toMs: number): LinearCorrection | null {
+    const c = this.over(instrument, fromMs, toMs);
+    if (c === "varies") throw new Error("The correction varies within this block; its readings must be read.");
+    return c;
+  }
+
+  /** The checks that decide the correction of any reading of the instrument from firstMs to lastMs. */
+  checksOver(instrument: string, firstMs: number, lastMs: number): OffsetCheck[] {
+    const e = this.byInstrument.get(instrument);
+    if (!e) return [];
+    const [lo, hi] = this.span(e.timed, firstMs, lastMs);
+    return e.checks.slice(lo, hi + 1);
   }
 }
 
 const NONE: LinearCorrection = { gain: 1, shiftRhPercent: 0 };
 
-/** Corrected RH of a raw value under a check (raw if none). */
-export function corrected(raw: number, check: OffsetCheck | null): number {
-  return check ? applyCorrection(raw, correctionOf(check)) : raw;
-}
-
+/**
+ * The checks used by a series: each instrument's first and last reading time is noted (blocks and
+ * readings alike), and the checks are those that decide a correction between them, so the list does
+ * not depend on how the series was read.
+ */
 export class OffsetsUsed {
-  private readonly used = new Map<string, OffsetInUse>();
-  note(check: OffsetCheck | null): void {
-    if (check) this.used.set(check.id, { instrument: check.instrument, offsetPercent: check.offsetRhPercent, slope: check.slope, from: check.checkedAt, saltId: check.saltId });
+  private readonly spans = new Map<string, { firstMs: number; lastMs: number }>();
+  note(instrument: string, firstMs: number, lastMs = firstMs): void {
+    const s = this.spans.get(instrument);
+    if (!s) this.spans.set(instrument, { firstMs, lastMs });
+    else {
+      s.firstMs = Math.min(s.firstMs, firstMs);
+      s.lastMs = Math.max(s.lastMs, lastMs);
+    }
   }
-  list(): OffsetInUse[] {
-    return [...this.used.values()];
+  list(timeline: OffsetTimeline): OffsetInUse[] {
+    const out: OffsetInUse[] = [];
+    for (const [instrument, s] of this.spans) {
+      for (const c of timeline.checksOver(instrument, s.firstMs, s.lastMs)) out.push({ instrument, offsetPercent: c.offsetRhPercent, slope: c.slope, from: c.checkedAt, saltId: c.saltId });
+    }
+    return out.sort((a, b) => a.from.getTime() - b.from.getTime() || a.instrument.localeCompare(b.instrument));
   }
 }
 
-/** Apply offsets from the check time on (raw values are kept in rhRaw); returns the offsets used. */
+/** Apply the checks' corrections (raw values are kept in rhRaw); returns the checks used. */
 export function applyOffsets(rows: Row[], timeline: OffsetTimeline, used = new OffsetsUsed()): OffsetInUse[] {
-  if (timeline.empty) return used.list();
+  if (timeline.empty) return [];
   for (const r of rows) {
-    const check = timeline.at(r.instrument, r.takenAt.getTime());
-    r.rhPercent = corrected(r.rhRaw, check);
-    used.note(check);
+    r.rhPercent = applyCorrection(r.rhRaw, timeline.at(r.instrument, r.takenAt.getTime()));
+    used.note(r.instrument, r.takenAt.getTime());
   }
-  return used.list();
+  return used.list(timeline);
 }
 
 /** A reading_blocks row (times as whole epoch ms). */
@@ -135,9 +180,9 @@ export type Range = { fromMs: number | null; toMs: number | null };
  * What a block contributes when all its corrected readings lie on one side of the band (side -1
  * below, 0 in, 1 above) and every interval inside it is counted: extremes, inner time-weighted sum,
  * last reading. side is null when the block must be looked into (its hours, or for an hour its
- * readings): it crosses a band edge, has an interval over maxGap, an offset changes inside it, a
+ * readings): it crosses a band edge, has an interval over maxGap, an correction varies inside it (OffsetTimeline.over), a
  * correction would be clipped at 0 or 100 %RH, or the range cuts it. chartRaw: its summary cannot
- * stand for its readings on the chart (offset change or cut).
+ * stand for its readings on the chart (varying correction or cut).
  */
 export type BlockFacts = { side: -1 | 0 | 1 | null; chartRaw: boolean; n: number; firstMs: number; lastMs: number; vMin: number; vMax: number; innerWeighted: number; vLast: number };
 
@@ -149,10 +194,11 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
   let irregular = cut;
   let lastInstrument = "";
   for (const b of block) {
-    if (timeline.changesWithin(b.instrument, start, end)) irregular = f.chartRaw = true;
+    const over = timeline.over(b.instrument, start, end);
+    if (over === "varies") irregular = f.chartRaw = true;
     if (b.maxSpanMs > maxGapMs) irregular = true;
-    const check = timeline.at(b.instrument, start);
-    const c = check ? correctionOf(check) : NONE;
+    const check = over === "varies" ? null : over; // a varying block is read as readings: its facts are not used
+    const c = check ?? NONE;
     if (check && (c.gain * b.minRh + c.shiftRhPercent < 0 || c.gain * b.maxRh + c.shiftRhPercent > 100)) irregular = true;
     f.n += b.n;
     f.firstMs = Math.min(f.firstMs, b.firstMs);
@@ -160,10 +206,10 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
     if (b.lastMs > f.lastMs || (b.lastMs === f.lastMs && b.instrument > lastInstrument)) {
       f.lastMs = b.lastMs;
       lastInstrument = b.instrument;
-      f.vLast = corrected(b.lastRh, check);
+      f.vLast = applyCorrection(b.lastRh, check);
     }
-    f.vMin = Math.min(f.vMin, corrected(b.minRh, check));
-    f.vMax = Math.max(f.vMax, corrected(b.maxRh, check));
+    f.vMin = Math.min(f.vMin, applyCorrection(b.minRh, check));
+    f.vMax = Math.max(f.vMax, applyCorrection(b.maxRh, check));
     f.innerWeighted += c.gain * b.spanRhMs + c.shiftRhPercent * b.spanMs;
   }
   if (!irregular) {
@@ -174,9 +220,9 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
   return f;
 }
 
-/** The offsets in force over a block (one per instrument: only asked of summarised blocks). */
-export function noteBlockOffsets(block: readonly BlockRow[], timeline: OffsetTimeline, used: OffsetsUsed): void {
-  for (const b of block) used.note(timeline.at(b.instrument, b.blockStartMs));
+/** A summarised block's readings, per instrument, for the checks used. */
+export function noteBlockOffsets(block: readonly BlockRow[], used: OffsetsUsed): void {
+  for (const b of block) used.note(b.instrument, b.firstMs, b.lastMs);
 }
 
 /**
@@ -256,12 +302,12 @@ export class BucketPicker {
     }
   }
 
-  /** A block's lowest and highest reading per instrument, corrected (one offset over the block). */
+  /** A block's lowest and highest reading per instrument, corrected (one correction over the block). */
   offerBlock(block: readonly BlockRow[], timeline: OffsetTimeline): void {
     for (const b of block) {
-      const check = timeline.at(b.instrument, b.blockStartMs);
-      this.offer({ t: b.minMs, rh: corrected(b.minRh, check), rhRaw: b.minRh, tempC: b.minTempC, dewLogged: b.minDewC, instrument: b.instrument });
-      this.offer({ t: b.maxMs, rh: corrected(b.maxRh, check), rhRaw: b.maxRh, tempC: b.maxTempC, dewLogged: b.maxDewC, instrument: b.instrument });
+      const check = timeline.constantOver(b.instrument, b.blockStartMs, b.blockStartMs + b.widthMs);
+      this.offer({ t: b.minMs, rh: applyCorrection(b.minRh, check), rhRaw: b.minRh, tempC: b.minTempC, dewLogged: b.minDewC, instrument: b.instrument });
+      this.offer({ t: b.maxMs, rh: applyCorrection(b.maxRh, check), rhRaw: b.maxRh, tempC: b.maxTempC, dewLogged: b.maxDewC, instrument: b.instrument });
     }
   }
 
