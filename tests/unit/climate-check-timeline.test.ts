@@ -4,7 +4,8 @@
 import { describe, expect, it } from "vitest";
 import { applyOffsets, OffsetsUsed, OffsetTimeline } from "@/lib/climate/check-timeline";
 import { applyCorrection } from "@/lib/climate/hygrometer-check";
-import type { OffsetCheck, Row } from "@/lib/climate/readings-reduce";
+import type { OffsetCheck } from "@/lib/climate/check-timeline";
+import type { Row } from "@/lib/climate/readings-reduce";
 
 const MIN = 60_000;
 const check = (id: string, instrument: string, offsetRhPercent: number, atMin: number, applied = true): OffsetCheck => ({
