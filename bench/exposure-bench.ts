@@ -1,5 +1,5 @@
 // Chamber exposure per placement (loadTrialExposure, as the comparison and the report load it) over
-// every trial in DATABASE_URL (the seeded demo trials under npm run bench): time per load and a
+// the trials in DATABASE_URL (the demo trials and one large-demo trial under npm run bench): time per load and a
 // fingerprint of the results, so a change of the query can be shown to leave them unchanged.
 // Run: node --conditions=react-server --import tsx bench/exposure-bench.ts
 import crypto from "node:crypto";
@@ -29,7 +29,10 @@ const query = pg.Client.prototype.query as (...args: unknown[]) => unknown;
 
 export async function runExposureBench(opts: { runs?: number } = {}): Promise<ExposureFigures[]> {
   const runs = opts.runs ?? 15;
-  const trials = await db.select({ id: s.trials.id, labId: s.trials.labId, title: s.trials.title, startedAt: s.trials.startedAt, concludedAt: s.trials.concludedAt }).from(s.trials);
+  const all = await db.select({ id: s.trials.id, labId: s.trials.labId, title: s.trials.title, startedAt: s.trials.startedAt, concludedAt: s.trials.concludedAt }).from(s.trials).orderBy(s.trials.title);
+  // Under npm run bench the large demo adds 50 alike "Load trial" trials: one of them is enough.
+  const load = all.filter((t) => t.title.startsWith("Load trial"));
+  const trials = [...all.filter((t) => !t.title.startsWith("Load trial")), ...load.slice(0, 1)];
   // A fixed "now" (the latest reading) so open placements end at the same time in every run and version.
   const [{ latest }] = await db.select({ latest: max(s.readings.takenAt) }).from(s.readings);
   const now = latest ?? new Date(0);
