@@ -65,7 +65,7 @@ export function HygrometerSection({ chamber, checks, instruments, canWrite }: { 
   return (
     <section className="panel p-4 space-y-4" aria-labelledby="hyg-h">
       <h2 id="hyg-h" className="font-semibold">Hygrometer checks</h2>
-      <p className="text-sm muted">Put the instrument in a jar over a saturated salt, let it settle, and record what it reads. The offset (reading − salt&apos;s fixed point) can correct that instrument&apos;s readings from the check on; two salts bracketing the band give the slope as well. The chart applies an applied check (offset, and slope when there are two salts) from its time on; a trial&apos;s exposure figures interpolate between checks (drift) and hold the nearest check before the first and after the last.</p>
+      <p className="text-sm muted">Put the instrument in a jar over a saturated salt, let it settle, and record what it reads. The offset (reading − salt&apos;s fixed point) can correct that instrument&apos;s readings; two salts bracketing the band give the slope as well. The chart, its band statistics and a trial&apos;s exposure figures apply the applied checks (offset, and slope when there are two salts) alike: between two checks the correction drifts linearly from one to the other, and the nearest check is held before the first and after the last.</p>
       {checks.length === 0 ? (
         <EmptyState text="No checks recorded for the instruments in this chamber." />
       ) : (

@@ -40,7 +40,7 @@ export function ClimateSummary({ series }: { series: ChamberSeries }) {
         Dew point is computed from RH and temperature (over water).
       </p>
       {series.offsets.length > 0 && (
-        <p className="text-xs">Corrected with hygrometer offsets: {series.offsets.map((o) => `${o.instrument} ${o.offsetPercent >= 0 ? "−" : "+"}${Math.abs(o.offsetPercent).toFixed(2)} %RH${o.slope != null ? ` and slope ${o.slope.toFixed(3)}` : ""} from ${formatDateTime(o.from)} (${o.saltId})`).join("; ")}. Logged values are unchanged.</p>
+        <p className="text-xs">Corrected by hygrometer checks: {series.offsets.map((o) => `${o.instrument} ${o.offsetPercent >= 0 ? "−" : "+"}${Math.abs(o.offsetPercent).toFixed(2)} %RH${o.slope != null ? ` and slope ${o.slope.toFixed(3)}` : ""} checked ${formatDateTime(o.from)} (${o.saltId})`).join("; ")}. Between two checks of an instrument the correction drifts linearly from one to the other; before the first and after the last the nearest is held. Logged values are unchanged.</p>
       )}
     </div>
   );

@@ -113,3 +113,65 @@ export async function loadAppliedChecks({ client }: Snapshot, { labId, chamberId
   });
   return res.rows;
 }
+
+/** A chamber and a time span, both ends inclusive. */
+export type ChamberSpan = { chamberId: string; fromMs: number; toMs: number };
+
+/**
+ * Readings of several chambers, each over its span, with only what exposure needs, ordered by time
+ * then instrument like loadRows: one query, one index range scan per chamber, read once for every
+ * placement of the chamber (sliced by time in memory; stored times are whole milliseconds, as Dates
+ * write them). One array per span, in the order given.
+ */
+export async function loadExposureRows({ client }: Snapshot, { labId, spans }: { labId: string; spans: readonly ChamberSpan[] }) {
+  const out = spans.map(() => [] as { takenAt: Date; rhRaw: number; tempC: number | null; instrument: string }[]);
+  if (spans.length === 0) return out;
+  const res = await client.query<[string, number, number, number | null, string]>({
+    text: `select k.ord, r.t, r.rh_percent, r.temp_c, r.instrument
+           from unnest($2::uuid[], $3::timestamptz[], $4::timestamptz[]) with ordinality as k(chamber, lo, hi, ord)
+           cross join lateral (
+             select date_part('epoch', date_trunc('milliseconds', taken_at)) * 1000 as t, taken_at, rh_percent, temp_c, instrument
+             from readings
+             where lab_id = $1 and chamber_id = k.chamber and taken_at >= k.lo and taken_at <= k.hi
+             offset 0
+           ) r
+           order by k.ord, r.taken_at, r.instrument collate "C"`,
+    values: spanValues(labId, spans),
+    rowMode: "array",
+  });
+  for (const r of res.rows) out[Number(r[0]) - 1].push({ takenAt: new Date(Math.round(r[1])), rhRaw: Number(r[2]), tempC: r[3], instrument: r[4] });
+  return out;
+}
+
+/** What the gap limit needs of a block summary (lib/climate/readings-reduce gapLimitMinutes). */
+export type BlockSpanRow = Pick<BlockRow, "blockStartMs" | "instrument" | "n" | "firstMs" | "lastMs">;
+
+/**
+ * Block summaries of one width for several chambers, each for block starts within its span (both
+ * inclusive), with only their counts and first and last times; ordered by block. One array per span.
+ */
+export async function loadBlockSpans({ client }: Snapshot, { labId, widthMs, spans }: { labId: string; widthMs: number; spans: readonly ChamberSpan[] }) {
+  const out = spans.map(() => [] as BlockSpanRow[]);
+  if (spans.length === 0) return out;
+  const res = await client.query<[string, number, string, number, number, number]>({
+    text: `select k.ord, date_part('epoch', b.block_start) * 1000, b.instrument, b.n,
+                  date_part('epoch', date_trunc('milliseconds', b.first_at)) * 1000, date_part('epoch', date_trunc('milliseconds', b.last_at)) * 1000
+           from unnest($2::uuid[], $3::timestamptz[], $4::timestamptz[]) with ordinality as k(chamber, lo, hi, ord)
+           cross join lateral (
+             select block_start, instrument, n, first_at, last_at from reading_blocks
+             where lab_id = $1 and chamber_id = k.chamber and width_hours = $5 and block_start >= k.lo and block_start <= k.hi
+             offset 0
+           ) b
+           order by k.ord, b.block_start`,
+    values: [...spanValues(labId, spans), widthMs / HOUR_MS],
+    rowMode: "array",
+  });
+  const ms = Math.round;
+  for (const r of res.rows) out[Number(r[0]) - 1].push({ blockStartMs: ms(r[1]), instrument: r[2], n: r[3], firstMs: ms(r[4]), lastMs: ms(r[5]) });
+  return out;
+}
+
+function spanValues(labId: string, spans: readonly ChamberSpan[]) {
+  const at = (ms: number) => new Date(ms).toISOString();
+  return [labId, spans.map((s) => s.chamberId), spans.map((s) => at(s.fromMs)), spans.map((s) => at(s.toMs))];
+}

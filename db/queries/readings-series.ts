@@ -6,9 +6,10 @@ import type { Period } from "@/lib/validation/chambers";
 import type { Chamber } from "./chambers";
 import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, type Snapshot } from "./climate-sql";
 import {
-  applyOffsets, blockFacts, BucketPicker, COARSE_MS, gapLimitMinutes, groupBlocks, HOUR_MS, noteBlockOffsets, OffsetsUsed, OffsetTimeline, RunFolder,
-  type BlockFacts, type BlockRow, type Candidate, type OffsetInUse, type Range, type Row,
+  blockFacts, BucketPicker, COARSE_MS, gapLimitMinutes, groupBlocks, HOUR_MS, noteBlockOffsets, RunFolder,
+  type BlockFacts, type BlockRow, type Candidate, type Range, type Row,
 } from "@/lib/climate/readings-reduce";
+import { applyOffsets, OffsetsUsed, OffsetTimeline, type OffsetInUse } from "@/lib/climate/check-timeline";
 
 /**
  * dewC is the dew point over water when computed at or above 0.01 °C, the frost point over ice when
@@ -90,7 +91,7 @@ async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, t
   for (const u of units) {
     if (u.f.side !== null) {
       runs.add(u.f);
-      noteBlockOffsets(u.block, timeline, used);
+      noteBlockOffsets(u.block, used);
       for (const b of u.block) instruments.add(b.instrument);
       count += u.f.n;
       continue;
@@ -108,7 +109,7 @@ async function reduce(snap: Snapshot, { labId, chamberId, coarse, range, band, t
     count += part.length;
   }
   runs.flush();
-  return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list() };
+  return { series, count, points: picker?.points() ?? [], instruments, offsets: used.list(timeline) };
 }
 
 function dewOf(c: Candidate): { dewC: number | null; dewOver: DewOver | null } {
@@ -177,8 +178,8 @@ export async function getBandWindowStats({ labId, chamberId, band, from, to }: {
 }
 
 /**
- * The chamber chart and its band statistics for a period, with applied hygrometer offsets from
- * each check on. Long periods are read from the block summaries plus the hours that cross a band
+ * The chamber chart and its band statistics for a period, corrected by the applied hygrometer
+ * checks (lib/climate/check-timeline: drift interpolated between checks, the nearest held outside). Long periods are read from the block summaries plus the hours that cross a band
  * edge; the results equal lib/climate on every reading (tests/integration/chambers-climate-sql.test.ts).
  * Periods of up to allRowsLimit readings load every reading (a finer chart).
  */

@@ -104,7 +104,8 @@ export type TimedCorrection = LinearCorrection & { atMs: number };
  * Drift between checks: the correction at a time is the linear interpolation, in time, of the
  * checks either side (so a reading is corrected by the time-weighted mix of both corrections);
  * before the first check and after the last one the nearest check is held. checks sorted by atMs.
- * null when there is no check.
+ * null when there is no check. The one rule for every corrected reading: exposure, and the chamber
+ * chart and band statistics through lib/climate/check-timeline.
  */
 export function correctionAt(checks: readonly TimedCorrection[], tMs: number): LinearCorrection | null {
   if (checks.length === 0) return null;

@@ -1,9 +1,10 @@
-// Pure helpers behind the chamber chart: hygrometer offsets by time, the gap limit, and the
-// reduction of block summaries (reading_blocks, 6-hour and 1-hour) plus the readings of the few
+// Pure helpers behind the chamber chart: the gap limit, and the reduction of block summaries (reading_blocks, 6-hour and 1-hour) plus the readings of the few
 // hours that need them into a short series on which lib/climate gives the same band statistics and
-// settle times as on every reading; chart thinning by time buckets. No database access here.
+// settle times as on every reading (a block is summarised only under one hygrometer correction,
+// lib/climate/check-timeline); chart thinning by time buckets. No database access here.
 import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
-import { applyCorrection, correctionOf, type LinearCorrection } from "@/lib/climate/hygrometer-check";
+import { applyCorrection, type LinearCorrection } from "@/lib/climate/hygrometer-check";
+import type { OffsetsUsed, OffsetTimeline } from "@/lib/climate/check-timeline";
 
 export const HOUR_MS = 3_600_000;
 /** The coarse block width of reading_blocks (the fine one is an hour). */
@@ -11,71 +12,7 @@ export const COARSE_MS = 6 * HOUR_MS;
 
 /** One reading as the chart and analysis use it: rhPercent is corrected, rhRaw as logged. */
 export type Row = { takenAt: Date; rhPercent: number; rhRaw: number; tempC: number | null; dewLogged: number | null; instrument: string };
-export type OffsetInUse = { instrument: string; offsetPercent: number; slope: number | null; from: Date; saltId: string };
-/** A stored check; with a slope (two salts) it corrects along a line, else by its offset (hygrometer-check correctionOf). */
-export type OffsetCheck = {
-  id: string; instrument: string; offsetRhPercent: number; checkedAt: Date; saltId: string; applied: boolean; readingRhPercent: number; referenceRhPercent: number; slope: number | null;
-};
-
-/** Applied hygrometer checks per instrument: the latest applied check at or before a time is in force. */
-export class OffsetTimeline {
-  private readonly byInstrument = new Map<string, OffsetCheck[]>();
-
-  constructor(checks: readonly OffsetCheck[]) {
-    for (const c of checks) if (c.applied) this.byInstrument.set(c.instrument, [...(this.byInstrument.get(c.instrument) ?? []), c]);
-    for (const list of this.byInstrument.values()) list.sort((a, b) => a.checkedAt.getTime() - b.checkedAt.getTime());
-  }
-
-  get empty(): boolean {
-    return this.byInstrument.size === 0;
-  }
-
-  at(instrument: string, tMs: number): OffsetCheck | null {
-    const list = this.byInstrument.get(instrument);
-    if (!list) return null;
-    let lo = 0;
-    let hi = list.length; // first index with checkedAt > t
-    while (lo < hi) {
-      const mid = (lo + hi) >> 1;
-      if (list[mid].checkedAt.getTime() <= tMs) lo = mid + 1;
-      else hi = mid;
-    }
-    return lo > 0 ? list[lo - 1] : null;
-  }
-
-  /** True if a check of this instrument falls strictly inside (fromMs, toMs): the offset may change there. */
-  changesWithin(instrument: string, fromMs: number, toMs: number): boolean {
-    return (this.byInstrument.get(instrument) ?? []).some((c) => c.checkedAt.getTime() > fromMs && c.checkedAt.getTime() < toMs);
-  }
-}
-
 const NONE: LinearCorrection = { gain: 1, shiftRhPercent: 0 };
-
-/** Corrected RH of a raw value under a check (raw if none). */
-export function corrected(raw: number, check: OffsetCheck | null): number {
-  return check ? applyCorrection(raw, correctionOf(check)) : raw;
-}
-
-export class OffsetsUsed {
-  private readonly used = new Map<string, OffsetInUse>();
-  note(check: OffsetCheck | null): void {
-    if (check) this.used.set(check.id, { instrument: check.instrument, offsetPercent: check.offsetRhPercent, slope: check.slope, from: check.checkedAt, saltId: check.saltId });
-  }
-  list(): OffsetInUse[] {
-    return [...this.used.values()];
-  }
-}
-
-/** Apply offsets from the check time on (raw values are kept in rhRaw); returns the offsets used. */
-export function applyOffsets(rows: Row[], timeline: OffsetTimeline, used = new OffsetsUsed()): OffsetInUse[] {
-  if (timeline.empty) return used.list();
-  for (const r of rows) {
-    const check = timeline.at(r.instrument, r.takenAt.getTime());
-    r.rhPercent = corrected(r.rhRaw, check);
-    used.note(check);
-  }
-  return used.list();
-}
 
 /** A reading_blocks row (times as whole epoch ms). */
 export type BlockRow = {
@@ -86,8 +23,8 @@ export type BlockRow = {
 };
 
 /** Group reading_blocks rows (ordered by block) into blocks, one row per instrument. */
-export function groupBlocks(rows: readonly BlockRow[]): BlockRow[][] {
-  const out: BlockRow[][] = [];
+export function groupBlocks<T extends Pick<BlockRow, "blockStartMs">>(rows: readonly T[]): T[][] {
+  const out: T[][] = [];
   for (const r of rows) {
     const last = out[out.length - 1];
     if (last && last[0].blockStartMs === r.blockStartMs) last.push(r);
@@ -102,7 +39,7 @@ export function groupBlocks(rows: readonly BlockRow[]): BlockRow[][] {
  * intervals are taken as its mean interval, between blocks exactly, so a year of minutes needs
  * no pass over every reading.
  */
-export function gapLimitMinutes(blocks: readonly (readonly BlockRow[])[]): number {
+export function gapLimitMinutes(blocks: readonly (readonly Pick<BlockRow, "n" | "firstMs" | "lastMs">[])[]): number {
   let total = 0;
   const items: { gapMs: number; weight: number }[] = [];
   let prevLast: number | null = null;
@@ -135,9 +72,9 @@ export type Range = { fromMs: number | null; toMs: number | null };
  * What a block contributes when all its corrected readings lie on one side of the band (side -1
  * below, 0 in, 1 above) and every interval inside it is counted: extremes, inner time-weighted sum,
  * last reading. side is null when the block must be looked into (its hours, or for an hour its
- * readings): it crosses a band edge, has an interval over maxGap, an offset changes inside it, a
+ * readings): it crosses a band edge, has an interval over maxGap, an correction varies inside it (OffsetTimeline.over), a
  * correction would be clipped at 0 or 100 %RH, or the range cuts it. chartRaw: its summary cannot
- * stand for its readings on the chart (offset change or cut).
+ * stand for its readings on the chart (varying correction or cut).
  */
 export type BlockFacts = { side: -1 | 0 | 1 | null; chartRaw: boolean; n: number; firstMs: number; lastMs: number; vMin: number; vMax: number; innerWeighted: number; vLast: number };
 
@@ -149,10 +86,11 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
   let irregular = cut;
   let lastInstrument = "";
   for (const b of block) {
-    if (timeline.changesWithin(b.instrument, start, end)) irregular = f.chartRaw = true;
+    const over = timeline.over(b.instrument, start, end);
+    if (over === "varies") irregular = f.chartRaw = true;
     if (b.maxSpanMs > maxGapMs) irregular = true;
-    const check = timeline.at(b.instrument, start);
-    const c = check ? correctionOf(check) : NONE;
+    const check = over === "varies" ? null : over; // a varying block is read as readings: its facts are not used
+    const c = check ?? NONE;
     if (check && (c.gain * b.minRh + c.shiftRhPercent < 0 || c.gain * b.maxRh + c.shiftRhPercent > 100)) irregular = true;
     f.n += b.n;
     f.firstMs = Math.min(f.firstMs, b.firstMs);
@@ -160,10 +98,10 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
     if (b.lastMs > f.lastMs || (b.lastMs === f.lastMs && b.instrument > lastInstrument)) {
       f.lastMs = b.lastMs;
       lastInstrument = b.instrument;
-      f.vLast = corrected(b.lastRh, check);
+      f.vLast = applyCorrection(b.lastRh, check);
     }
-    f.vMin = Math.min(f.vMin, corrected(b.minRh, check));
-    f.vMax = Math.max(f.vMax, corrected(b.maxRh, check));
+    f.vMin = Math.min(f.vMin, applyCorrection(b.minRh, check));
+    f.vMax = Math.max(f.vMax, applyCorrection(b.maxRh, check));
     f.innerWeighted += c.gain * b.spanRhMs + c.shiftRhPercent * b.spanMs;
   }
   if (!irregular) {
@@ -174,9 +112,9 @@ export function blockFacts(block: readonly BlockRow[], band: RhBand, timeline: O
   return f;
 }
 
-/** The offsets in force over a block (one per instrument: only asked of summarised blocks). */
-export function noteBlockOffsets(block: readonly BlockRow[], timeline: OffsetTimeline, used: OffsetsUsed): void {
-  for (const b of block) used.note(timeline.at(b.instrument, b.blockStartMs));
+/** A summarised block's readings, per instrument, for the checks used. */
+export function noteBlockOffsets(block: readonly BlockRow[], used: OffsetsUsed): void {
+  for (const b of block) used.note(b.instrument, b.firstMs, b.lastMs);
 }
 
 /**
@@ -256,12 +194,12 @@ export class BucketPicker {
     }
   }
 
-  /** A block's lowest and highest reading per instrument, corrected (one offset over the block). */
+  /** A block's lowest and highest reading per instrument, corrected (one correction over the block). */
   offerBlock(block: readonly BlockRow[], timeline: OffsetTimeline): void {
     for (const b of block) {
-      const check = timeline.at(b.instrument, b.blockStartMs);
-      this.offer({ t: b.minMs, rh: corrected(b.minRh, check), rhRaw: b.minRh, tempC: b.minTempC, dewLogged: b.minDewC, instrument: b.instrument });
-      this.offer({ t: b.maxMs, rh: corrected(b.maxRh, check), rhRaw: b.maxRh, tempC: b.maxTempC, dewLogged: b.maxDewC, instrument: b.instrument });
+      const check = timeline.constantOver(b.instrument, b.blockStartMs, b.blockStartMs + b.widthMs);
+      this.offer({ t: b.minMs, rh: applyCorrection(b.minRh, check), rhRaw: b.minRh, tempC: b.minTempC, dewLogged: b.minDewC, instrument: b.instrument });
+      this.offer({ t: b.maxMs, rh: applyCorrection(b.maxRh, check), rhRaw: b.maxRh, tempC: b.maxTempC, dewLogged: b.maxDewC, instrument: b.instrument });
     }
   }
 

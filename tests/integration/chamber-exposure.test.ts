@@ -9,6 +9,7 @@ import { addHygrometerCheckAction } from "@/app/_actions/chamber-records";
 import { getTrialAnalysis } from "@/db/queries/analysis";
 import { loadTrialExposure } from "@/db/queries/exposure";
 import { getTrial } from "@/db/queries/trial-access";
+import { getChamberSeries } from "@/db/queries/readings-series";
 import { readSessionIdentity } from "@/lib/auth/session";
 import { dewPointC } from "@/lib/humidity/psychrometrics";
 import { saltEquilibriumRh } from "@/lib/humidity/salts";
@@ -163,6 +164,22 @@ describe("exposure per placement", () => {
       }
     }
     expect(direct(rawA, true).wet).toBeGreaterThan(0);
+  });
+
+  it("the chamber chart's band statistics correct by the same rule: equal to the exposure of a placement over every reading of the jar", async () => {
+    const trial = await getTrial({ labId: lab.labId, trialId: hand.trialId });
+    const [row] = (await loadTrialExposure({ labId: lab.labId, trial, thresholdsRhPercent: [60] })).filter((r) => r.chamberId === jarA);
+    expect(row.exposure.readings).toBe(rawA.length);
+    const [chamber] = await db.select().from(s.chambers).where(eq(s.chambers.id, jarA));
+    // Every reading, and the block summaries plus the hours that need their readings (allRowsLimit 0).
+    for (const allRowsLimit of [100_000, 0]) {
+      const chart = await getChamberSeries({ labId: lab.labId, chamber, period: "all", allRowsLimit });
+      expect(chart.count).toBe(rawA.length);
+      expect(chart.stats.countedMinutes).toBeCloseTo(row.exposure.countedMinutes, 9);
+      expect(chart.stats.meanRhPercent!).toBeCloseTo(row.exposure.meanRhPercent!, 9);
+      expect(1 - chart.stats.fractionInBand!).toBeCloseTo(row.exposure.outOfBandShare!, 9);
+      expect(chart.offsets.map((o) => o.slope != null)).toEqual([false, true]); // the one-salt check, then the two-salt one
+    }
   });
 
   it("the re-analysis leaves out the specimen whose jar was out of band more than the share, and says which", async () => {

@@ -1,7 +1,8 @@
 // The chamber chart over long periods is computed from the block summaries (reading_blocks) plus
 // the hours that cross a band edge. lib/climate is the reference: on a generated series with gaps,
 // excursions of every shape, two instruments logging at the same instants and applied hygrometer
-// offsets (one changing inside an hour, one clipped at 100 %RH), the reduced path must give what
+// corrections (one instrument drifting between a check inside an hour and a two-salt check, the
+// other held from its only check and clipped at 100 %RH), the reduced path must give what
 // lib/climate bandStats / settleTimeMinutes give on every reading, and the chart must keep each
 // time bucket's lowest and highest reading.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -57,34 +58,45 @@ function series(setpoint: number): NewReading[] {
   return rows;
 }
 
+/**
+ * probe-a: offset 1.5 (gain 1, shift −1.5) at day 2 07:31, then the two-salt line true = 32.8 +
+ * (reading − 34) / 1.08 at day 8 02:20 (gain 1/1.08, shift 32.8 − 34/1.08), each term mixed by the
+ * share of time elapsed between them; probe-b: offset −3, its only check, held throughout. Kept
+ * within 0–100 %RH; gain × reading + shift is the product's arithmetic order, so extremes compare exactly.
+ */
+function referenceRh(instrument: string, t: number, rh: number): number {
+  if (instrument === "probe-b") return applyOffset(rh, -3);
+  const c1 = at(2, 7, 31);
+  const c2 = at(8, 2, 20);
+  if (t <= c1) return applyOffset(rh, 1.5);
+  const gain2 = 1 / 1.08;
+  const shift2 = 32.8 - gain2 * 34;
+  const w = t >= c2 ? 1 : (t - c1) / (c2 - c1);
+  const gain = t >= c2 ? gain2 : 1 + w * (gain2 - 1);
+  const shift = t >= c2 ? shift2 : -1.5 + w * (shift2 - -1.5);
+  return Math.min(100, Math.max(0, gain * rh + shift));
+}
+
 beforeAll(async () => {
   lab = await createTestLab("Chambers climate SQL");
   chamber = await createChamber({ labId: lab.labId, userId: lab.users.researcher.id, values: chamberSchema.parse({ name: "Reduced jar", kind: "saturated-salt", saltId: "NaCl", nominalTempC: "22" }) });
   await insertReadings(db, { labId: lab.labId, chamberId: chamber.id, source: "csv", rows: series(chamber.setpointRhPercent) });
   const check = { labId: lab.labId, chamberId: chamber.id, saltId: "NaCl", tempC: 22, readingRhPercent: 0, referenceRhPercent: 0, notes: "" };
   await db.insert(hygrometerChecks).values([
-    // probe-a reads 1.5 high from 07:31 on day 2, inside an hour of the long excursion
+    // probe-a read 1.5 high at 07:31 on day 2, inside an hour of the long excursion
     { ...check, instrument: "probe-a", offsetRhPercent: 1.5, applied: true, checkedAt: new Date(at(2, 7, 31)) },
     // not applied: must change nothing
     { ...check, instrument: "probe-a", offsetRhPercent: 10, applied: false, checkedAt: new Date(at(3, 0)) },
-    // probe-b reads 3 low from day 6 on: 98.5 %RH becomes 101.5, clipped to 100
+    // probe-b read 3 low on day 6, its only check, held before and after: 98.5 %RH becomes 101.5, clipped to 100
     { ...check, instrument: "probe-b", offsetRhPercent: -3, applied: true, checkedAt: new Date(at(6, 0)) },
-    // a two-salt check of probe-a from 02:20 on day 8: slope 1.08 through (34 read, 32.8 reference)
+    // a two-salt check of probe-a at 02:20 on day 8: slope 1.08 through (34 read, 32.8 reference); drift between the two
     { ...check, instrument: "probe-a", readingRhPercent: 34, referenceRhPercent: 32.8, offsetRhPercent: 1.2, slope: 1.08, applied: true, checkedAt: new Date(at(8, 2, 20)) },
   ]);
-  // The reference: every reading, offsets applied as the chamber view always did (latest applied check at or before the reading).
+  // The reference: every reading, corrected as the product's one rule says (drift interpolated
+  // linearly in time between two checks of an instrument, the nearest check held before the first
+  // and after the last), written out here for these checks.
   const raw = await db.select().from(readings).where(eq(readings.chamberId, chamber.id)).orderBy(asc(readings.takenAt), asc(readings.instrument));
-  const offsetAt = (instrument: string, t: number) =>
-    instrument === "probe-a" ? (t >= at(2, 7, 31) ? 1.5 : null) : t >= at(6, 0) ? -3 : null;
-  // The two-salt line written out: true = 32.8 + (reading − 34) / 1.08, kept within 0–100 %RH; as
-  // gain × reading + shift (the product's arithmetic order) so excursion extremes compare exactly.
-  const gain = 1 / 1.08;
-  const slopeLine = (rh: number) => Math.min(100, Math.max(0, gain * rh + (32.8 - gain * 34)));
-  all = raw.map((r) => {
-    const off = offsetAt(r.instrument, r.takenAt.getTime());
-    const rh = r.instrument === "probe-a" && r.takenAt.getTime() >= at(8, 2, 20) ? slopeLine(r.rhPercent) : off == null ? r.rhPercent : applyOffset(r.rhPercent, off);
-    return { takenAt: r.takenAt, rhPercent: rh, rhRaw: r.rhPercent, instrument: r.instrument, tempC: r.tempC };
-  });
+  all = raw.map((r) => ({ takenAt: r.takenAt, rhPercent: referenceRh(r.instrument, r.takenAt.getTime(), r.rhPercent), rhRaw: r.rhPercent, instrument: r.instrument, tempC: r.tempC }));
 });
 afterAll(async () => {
   await closeDb();
@@ -149,7 +161,7 @@ describe("chamber chart from block summaries (reference: lib/climate on every re
       expect(s.points.map(({ t, rh, rhRaw, instrument }) => ({ t, rh, rhRaw, instrument }))).toEqual(bucketExtremes(all, width, maxPoints));
       expect(s.points.length).toBeLessThanOrEqual(maxPoints);
       // Spikes survive thinning, and the clipped correction shows as 100 %RH.
-      expect(s.points.some((p) => p.rhRaw === 90 && p.rh === 88.5)).toBe(true);
+      expect(s.points.some((p) => p.rhRaw === 90 && p.rh === referenceRh("probe-a", at(6, 12), 90))).toBe(true);
       expect(s.points.some((p) => p.rh === 100 && p.rhRaw === 98.5)).toBe(true);
     }
   });

@@ -24,7 +24,7 @@ afterAll(async () => {
 });
 
 describe("climate analysis", () => {
-  it("applies an instrument's offset from the check on, at analysis time only, and computes band statistics", async () => {
+  it("applies an instrument's only check to all its readings (held before and after it), at analysis time only, and computes band statistics", async () => {
     const values = chamberSchema.parse({ name: "Analysed jar", kind: "saturated-salt", saltId: "NaCl", nominalTempC: "22" }); // 75.4 ± 2 → 73.4–77.4 %RH
     const c = await createChamber({ labId: lab.labId, userId: lab.users.researcher.id, values });
     await insertReadings(db, { labId: lab.labId, chamberId: c.id, source: "csv", rows: raw.map((rh, i) => ({ takenAt: new Date(t0 + i * H), rhPercent: rh, tempC: 21, dewPointC: null, instrument: "probe" })) });
@@ -41,13 +41,16 @@ describe("climate analysis", () => {
     const s = await getChamberSeries({ labId: lab.labId, chamber: c, period: "all", settleFrom: [{ label: "opening", at: new Date(t0 + 2 * H) }] });
     expect(s.offsets).toHaveLength(1);
     expect(s.points.map((p) => p.rhRaw)).toEqual(raw);
-    expect(s.points.slice(0, 5).map((p) => p.rh)).toEqual(raw.slice(0, 5));
-    for (const p of s.points.slice(5)) expect(p.rh).toBeCloseTo(78 - check.offsetRhPercent, 9);
-    expect(s.stats.fractionInBand).toBeCloseTo(7 / 9, 9);
-    expect(s.stats.worstExcursion).toMatchObject({ worstRhPercent: 79, direction: "above", durationMinutes: 120 });
-    expect(s.settle[0].minutes).toBe(120); // back in band at h4 and held for an hour
-    // Dew point from RH and T (over water); 21 °C at 75 %RH ≈ 16.4 °C (Magnus form, Alduchov & Eskridge 1996)
-    expect(s.points[0].dewC!).toBeCloseTo(16.4, 1);
+    // By hand: corrected 72.9, 72.9, 76.9, 76.9, 72.9, 75.9 … against 73.4–77.4: below over h0–h2 and h4–h5.
+    s.points.forEach((p, i) => expect(p.rh).toBeCloseTo(raw[i] - check.offsetRhPercent, 9));
+    expect(s.stats.fractionInBand).toBeCloseTo(6 / 9, 9);
+    expect(s.stats.excursions.map((e) => [e.direction, e.durationMinutes])).toEqual([["below", 120], ["below", 60]]);
+    expect(s.stats.worstExcursion).toMatchObject({ direction: "below", durationMinutes: 120 }); // equally deep: the longer
+    expect(s.stats.worstExcursion!.worstRhPercent).toBeCloseTo(75 - check.offsetRhPercent, 9);
+    expect(s.settle[0].minutes).toBe(0); // in band at h2 and held for two hours
+    // Dew point from the corrected RH and T (over water); 21 °C at 72.9 %RH ≈ 15.96 °C (Magnus form,
+    // a = 17.625, b = 243.04 °C, Alduchov & Eskridge 1996)
+    expect(s.points[0].dewC!).toBeCloseTo(15.96, 1);
     expect(s.points[0].dewOver).toBe("water");
 
     // The stored readings are never rewritten.
