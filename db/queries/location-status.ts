@@ -2,13 +2,14 @@ import "server-only";
 import { and, asc, desc, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { isStorageKind } from "@/lib/collection/locations";
 import {
-  locationNeeds, ruleBand, rulesForObject, strictestRule, TIME_IN_RULE_DAYS, timeInRuleOf, type LocationNeed, type TimeInRule,
+  locationNeeds, needRank, ruleBand, rulesForObject, strictestRule, TIME_IN_RULE_DAYS, timeInRuleOf, type LocationNeed, type TimeInRule,
 } from "@/lib/collection/rule-status";
 import type { Excursion } from "@/lib/climate/band-stats";
 import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { db } from "../client";
 import { chambers, desiccantEvents, objectLocations, readingBlocks, readings, specimens, storageRules, users } from "../schema";
 import { getChamber, type Chamber } from "./chambers";
+import { locationPaths } from "./locations";
 import { hiddenObjectIds } from "./object-locations";
 import { getBandWindowStats } from "./readings-series";
 import { listStorageRules, type StorageRuleView } from "./storage-rules";
@@ -129,9 +130,14 @@ export async function listLocationStatuses({ labId, userId, now = new Date(), ou
   const rows = await db.select({ id: chambers.id, locationKind: chambers.locationKind }).from(chambers)
     .where(and(eq(chambers.labId, labId), isNull(chambers.archivedAt)));
   const ids = rows.filter((r) => isStorageKind(r.locationKind)).map((r) => r.id);
-  const statuses = await Promise.all(ids.map((locationId) => getLocationRuleStatus({ labId, userId, locationId, now, outOfRuleShare })));
-  const traces = await dailyMaxima({ labId, locationIds: ids, from: new Date(now.getTime() - 30 * DAY_MS) });
-  return statuses.map((s) => ({ ...s, trace: traces.get(s.location.id) ?? [] }));
+  const [statuses, traces, paths] = await Promise.all([
+    Promise.all(ids.map((locationId) => getLocationRuleStatus({ labId, userId, locationId, now, outOfRuleShare }))),
+    dailyMaxima({ labId, locationIds: ids, from: new Date(now.getTime() - 30 * DAY_MS) }),
+    locationPaths({ labId }),
+  ]);
+  return statuses
+    .map((s) => ({ ...s, path: paths.get(s.location.id)?.path ?? s.location.name, rank: needRank(s.needs), trace: traces.get(s.location.id) ?? [] }))
+    .sort((a, b) => a.rank - b.rank || a.path.localeCompare(b.path));
 }
 
 /** Highest RH per day of the last days, from the hourly summaries (a small trace per overview row). */

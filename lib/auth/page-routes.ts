@@ -14,6 +14,8 @@ export const PAGE_ROUTES = {
   "/audit": { permission: "audit.read" },
   "/chambers": { permission: "lab.read" },
   "/collection": { permission: "lab.read" },
+  "/collection/overview": { permission: "lab.read" },
+  "/collection/report": { permission: "lab.read" },
   "/chambers/new": { permission: "chambers.write" },
   "/chambers/[chamberId]": { permission: "lab.read" },
   "/chambers/[chamberId]/edit": { permission: "chambers.write" },

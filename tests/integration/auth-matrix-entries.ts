@@ -125,6 +125,7 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   "GET /api/specimens/[specimenId]": { permission: "lab.read", empty: 200 },
   "PATCH /api/specimens/[specimenId]": { permission: "specimens.write", empty: 200, foreign: () => ({ face: "taken over" }) },
   "GET /api/specimens/export": { permission: "export.read", empty: 200 },
+  "GET /api/collection/overview": { permission: "export.read", empty: 200 },
   "POST /api/specimens/import": { permission: "specimens.write", empty: 422 },
   "GET /api/specimens": { permission: "lab.read", empty: 200 },
   "POST /api/specimens": { permission: "specimens.write", empty: 422 },

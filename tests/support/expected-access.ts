@@ -32,6 +32,8 @@ export const PAGE_PERMISSIONS: Record<string, Permission> = {
   "/audit": "audit.read",
   "/chambers": "lab.read",
   "/collection": "lab.read",
+  "/collection/overview": "lab.read",
+  "/collection/report": "lab.read",
   "/chambers/new": "chambers.write",
   "/chambers/[chamberId]": "lab.read",
   "/chambers/[chamberId]/edit": "chambers.write",
