@@ -122,3 +122,18 @@ export async function loadHistoryFactors({ labId, specimenIds, before }: { labId
   }
   return out;
 }
+
+/** Every history entry of the given specimens of the lab, by specimen and date (the data package's history tables). */
+export async function loadHistoryRows({ labId, specimenIds }: { labId: string; specimenIds: readonly string[] }) {
+  const ids = [...new Set(specimenIds)].filter(isUuid);
+  const none = { chlorideTestRows: [], akaganeiteCheckRows: [], priorTreatmentRows: [], massMeasurementRows: [] };
+  if (ids.length === 0) return none;
+  const theirs = (t: { labId: PgColumn; specimenId: PgColumn }) => and(eq(t.labId, labId), inArray(t.specimenId, ids));
+  const [chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows] = await Promise.all([
+    db.select().from(chlorideTests).where(theirs(chlorideTests)).orderBy(asc(chlorideTests.specimenId), asc(chlorideTests.testedOn), asc(chlorideTests.createdAt)),
+    db.select().from(akaganeiteChecks).where(theirs(akaganeiteChecks)).orderBy(asc(akaganeiteChecks.specimenId), asc(akaganeiteChecks.checkedOn), asc(akaganeiteChecks.createdAt)),
+    db.select().from(priorTreatments).where(theirs(priorTreatments)).orderBy(asc(priorTreatments.specimenId), asc(priorTreatments.treatedOn), asc(priorTreatments.createdAt)),
+    db.select().from(massMeasurements).where(theirs(massMeasurements)).orderBy(asc(massMeasurements.specimenId), asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
+  ]);
+  return { chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows };
+}

@@ -83,10 +83,13 @@ export const specimenListSchema = z.object({
 export type SpecimenListParams = z.infer<typeof specimenListSchema>;
 
 // ---- CSV ----
-export const CSV_COLUMNS = ["label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "contamination_notes"] as const;
+export const CSV_COLUMNS = [
+  "label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "parent_piece", "slice", "provenance", "contamination_notes",
+] as const;
 const CSV_TO_FIELD: Record<(typeof CSV_COLUMNS)[number], keyof SpecimenInput> = {
   label: "label", material_class: "materialClass", find_name: "findName", face: "face", description: "description",
-  surface_prep: "surfacePrep", mass_g: "massG", history: "history", contamination_notes: "contaminationNotes",
+  surface_prep: "surfacePrep", mass_g: "massG", history: "history", parent_piece: "parentPiece", slice: "slice", provenance: "provenance",
+  contamination_notes: "contaminationNotes",
 };
 export const MAX_IMPORT_ROWS = 5000;
 // Under the 2 MB server-action body limit (next.config.ts) with room for the form around it.
