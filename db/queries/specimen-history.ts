@@ -6,7 +6,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
-import { akaganeiteSeenOf, chlorideStateOf, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
+import { akaganeiteSeenOf, chlorideStateOf, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
 import type { HistoryEntryInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
@@ -137,3 +137,31 @@ export async function loadHistoryRows({ labId, specimenIds }: { labId: string; s
   ]);
   return { chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows };
 }
+
+/**
+ * Per specimen placed in a trial, its origin and what its history says at the trial
+ * (historyBeforeTrial): the trial report's history table. Results-gated like the report.
+ */
+export async function loadTrialHistory({ labId, trial }: { labId: string; trial: { id: string; startedAt: Date | null; concludedAt: Date | null } }) {
+  const placed = await db.selectDistinct({ specimenId: placements.specimenId }).from(placements)
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trial.id)));
+  const ids = placed.map((p) => p.specimenId);
+  if (ids.length === 0) return [];
+  const [rows, history] = await Promise.all([
+    db.select({ id: specimens.id, label: specimens.label, parentPiece: specimens.parentPiece, slice: specimens.slice, provenance: specimens.provenance })
+      .from(specimens).where(and(eq(specimens.labId, labId), inArray(specimens.id, ids))).orderBy(asc(specimens.label)),
+    loadHistoryRows({ labId, specimenIds: ids }),
+  ]);
+  const day = (d: Date) => d.toISOString().slice(0, 10);
+  const startOn = trial.startedAt ? day(trial.startedAt) : null;
+  const endOn = day(trial.concludedAt ?? new Date());
+  const of = <T extends { specimenId: string }>(list: readonly T[], id: string) => list.filter((r) => r.specimenId === id);
+  return rows.map((sp) => ({
+    ...sp,
+    ...historyBeforeTrial({
+      chlorideTests: of(history.chlorideTestRows, sp.id), akaganeiteChecks: of(history.akaganeiteCheckRows, sp.id),
+      priorTreatments: of(history.priorTreatmentRows, sp.id), weighings: of(history.massMeasurementRows, sp.id),
+    }, startOn, endOn),
+  }));
+}
+export type TrialHistoryRow = Awaited<ReturnType<typeof loadTrialHistory>>[number];

@@ -12,6 +12,8 @@ import { SummaryPanel } from "@/components/analysis/summary-panel";
 import { SurvivalSection } from "@/components/analysis/survival-section";
 import { TrialRules } from "@/components/analysis/trial-rules";
 import { listStorageRules } from "@/db/queries/storage-rules";
+import { loadTrialHistory } from "@/db/queries/specimen-history";
+import { HISTORY_METHOD, HistoryTable } from "@/components/analysis/history-table";
 import { EmptyState } from "@/components/ui/empty-state";
 import { EXPOSURE_METHOD, ExposureExclusionNote, ExposureTable } from "@/components/analysis/exposure-section";
 import { exposureKeep } from "@/lib/analysis/exposure-params";
@@ -36,7 +38,10 @@ export default async function ReportPage(props: AnalysisPageProps) {
   const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const keep = analysis.exposure ? exposureKeep(analysis.exposure.query) : {};
   const generated = new Date();
-  const rules = await listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id });
+  const [rules, history] = await Promise.all([
+    listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id }),
+    loadTrialHistory({ labId: ctx.labId, trial }),
+  ]);
 
   return (
     <article className="report space-y-5 max-w-4xl mx-auto">
@@ -76,6 +81,11 @@ export default async function ReportPage(props: AnalysisPageProps) {
           <section className="panel p-4 space-y-2" aria-labelledby="specimens-h">
             <h2 id="specimens-h" className="font-semibold">Per-specimen outcomes</h2>
             <OutcomeTable outcomes={analysis.outcomes} />
+          </section>
+          <section className="panel p-4 space-y-2" aria-labelledby="history-h">
+            <h2 id="history-h" className="font-semibold">Specimen history</h2>
+            <p className="text-sm muted">{HISTORY_METHOD}</p>
+            <HistoryTable rows={history} />
           </section>
           <section className="panel p-4 space-y-2" aria-labelledby="rules-h">
             <h2 id="rules-h" className="font-semibold">Storage rules from this trial</h2>
