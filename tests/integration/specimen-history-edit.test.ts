@@ -92,5 +92,10 @@ describe("correcting specimen history", () => {
     expect((await asLead(before, "4.1001")).ok).toBe(true); // history before the trial stays theirs to correct
     const rows = await db.select().from(s.massMeasurements).where(and(eq(s.massMeasurements.specimenId, spec.id)));
     expect(rows.map((r) => r.massG).sort()).toEqual(["4.1001", "4.1350"]);
+    // Someone not blind moves the in-trial weighing to before the trial: the event holds the old row,
+    // so it stays with the trial (hidden from its blind scorers in the audit trail).
+    const moved = await updateSpecimenHistoryAction.withIdentity(a.as("researcher"), { specimenId: spec.id, entryId: during, kind: "mass", measuredOn: "2026-01-25", mass: "4.1350", unit: "g" });
+    expect(moved.ok, moved.message).toBe(true);
+    expect((await auditOf(during)).find((e) => e.action === "update")!.trialId).toBe(trial.id);
   });
 });
