@@ -7,7 +7,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { addSpecimenHistoryAction, deleteSpecimenHistoryAction, updateSpecimenHistoryAction } from "@/app/_actions/specimen-history";
-import { createTestLab, type TestLab } from "../support/db";
+import { createTestLab, TEST_PASSWORD, type TestLab } from "../support/db";
+import { signedInClient } from "../support/http";
 import { addChambers, addSpecimens, addTreatments } from "./trials-fixtures";
 
 let a: TestLab;
@@ -97,5 +98,18 @@ describe("correcting specimen history", () => {
     const moved = await updateSpecimenHistoryAction.withIdentity(a.as("researcher"), { specimenId: spec.id, entryId: during, kind: "mass", measuredOn: "2026-01-25", mass: "4.1350", unit: "g" });
     expect(moved.ok, moved.message).toBe(true);
     expect((await auditOf(during)).find((e) => e.action === "update")!.trialId).toBe(trial.id);
+
+    // The specimen page over HTTP: the correction form for an entry the viewer sees, none for one hidden from them.
+    const page = async (role: "researcher" | "lead" | "observer", entryId: string) =>
+      (await (await signedInClient(a.users[role].email, TEST_PASSWORD)).fetch(`/specimens/${spec.id}?entry=mass:${entryId}`)).text();
+    const researcherView = await page("researcher", before);
+    expect(researcherView).toContain("Correct the entry");
+    expect(researcherView).toContain("4.1001");
+    expect(researcherView).toContain("Why delete this entry?");
+    const secondWeighing = await add({ kind: "mass", measuredOn: "2026-02-20", mass: "4.2222", unit: "g" }, a, spec.id);
+    const blindView = await page("lead", secondWeighing); // the lead scores this trial blind
+    expect(blindView).not.toContain("Correct the entry");
+    expect(blindView).not.toContain("4.2222");
+    expect(await page("observer", before)).not.toContain("Correct or delete");
   });
 });
