@@ -59,5 +59,3 @@ export const MASS_MEASUREMENT_TABLE: TableSpec = {
     ...mass.tail,
   ],
 };
-
-export const HISTORY_TABLES = [CHLORIDE_TEST_TABLE, AKAGANEITE_CHECK_TABLE, PRIOR_TREATMENT_TABLE, MASS_MEASUREMENT_TABLE] as const;
