@@ -1,7 +1,8 @@
 "use server";
 import { addHistoryEntry } from "@/db/queries/specimen-history";
+import { deleteHistoryEntry, updateHistoryEntry } from "@/db/queries/specimen-history-edit";
 import { labAction, revalidate } from "@/lib/auth/action";
-import { historyEntrySchema } from "@/lib/validation/specimen-history";
+import { historyEntryDeleteSchema, historyEntryEditSchema, historyEntrySchema } from "@/lib/validation/specimen-history";
 
 const SAVED = { chloride: "Chloride test", akaganeite: "Akaganeite check", treatment: "Treatment", mass: "Weighing" } as const;
 
@@ -9,4 +10,16 @@ export const addSpecimenHistoryAction = labAction("specimens.write", historyEntr
   const r = await addHistoryEntry({ actor: ctx, input: data });
   revalidate(`/specimens/${data.specimenId}`);
   return { message: `${SAVED[data.kind]} of ${r.specimenLabel} saved.`, data: { id: r.id } };
+});
+
+export const updateSpecimenHistoryAction = labAction("specimens.write", historyEntryEditSchema, async (ctx, data) => {
+  const r = await updateHistoryEntry({ actor: ctx, input: data });
+  revalidate(`/specimens/${data.specimenId}`);
+  return { message: `${SAVED[data.kind]} of ${r.specimenLabel} corrected.`, data: { id: r.id } };
+});
+
+export const deleteSpecimenHistoryAction = labAction("specimens.write", historyEntryDeleteSchema, async (ctx, data) => {
+  const r = await deleteHistoryEntry({ actor: ctx, input: data });
+  revalidate(`/specimens/${data.specimenId}`);
+  return { message: `${SAVED[data.kind]} of ${r.specimenLabel} deleted.`, data: { id: r.id } };
 });

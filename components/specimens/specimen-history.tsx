@@ -30,7 +30,12 @@ function Table({ caption, head, children }: { caption: string; head: string[]; c
   );
 }
 
-export function SpecimenHistory({ history }: { history: History }) {
+type Kind = "mass" | "chloride" | "akaganeite" | "treatment";
+
+/** `correctHref` (for those who may write) adds a link on each row to correct or delete it. */
+export function SpecimenHistory({ history, correctHref }: { history: History; correctHref?: (kind: Kind, id: string) => string }) {
+  const fix = (kind: Kind, id: string) => (correctHref ? <td className="no-print"><a className="link text-sm" href={correctHref(kind, id)}>Correct or delete</a></td> : null);
+  const head = (cols: string[]) => (correctHref ? [...cols, "Fix"] : cols);
   const { weighings, chlorideTests, akaganeiteChecks, priorTreatments } = history;
   const last = weighings.at(-1);
   return (
@@ -42,25 +47,25 @@ export function SpecimenHistory({ history }: { history: History }) {
       </dl>
       {history.hidden > 0 && <p className="text-sm muted">{history.hidden} later entr{history.hidden === 1 ? "y is" : "ies are"} {BLIND_HIDDEN}.</p>}
       {weighings.length > 0 && (
-        <Table caption="Weighings" head={["Weighed on", "Mass (g)", "Since previous", "Since first", "Notes"]}>
+        <Table caption="Weighings" head={head(["Weighed on", "Mass (g)", "Since previous", "Since first", "Notes"])}>
           {weighings.map((w) => (
-            <tr key={w.id}><td>{w.measuredOn}</td><td className="font-mono">{w.massG}</td><td><Change s={w.sincePrevious} /></td><td>{w.sinceFirst ? <Change s={w.sinceFirst} /> : "—"}</td><td>{w.notes}</td></tr>
+            <tr key={w.id}><td>{w.measuredOn}</td><td className="font-mono">{w.massG}</td><td><Change s={w.sincePrevious} /></td><td>{w.sinceFirst ? <Change s={w.sinceFirst} /> : "—"}</td><td>{w.notes}</td>{fix("mass", w.id)}</tr>
           ))}
         </Table>
       )}
       {chlorideTests.length > 0 && (
-        <Table caption="Chloride tests" head={["Tested on", "Method", "Result", "Notes"]}>
-          {chlorideTests.map((c) => <tr key={c.id}><td>{c.testedOn}</td><td>{CHLORIDE_METHOD_LABELS[c.method as keyof typeof CHLORIDE_METHOD_LABELS] ?? c.method}</td><td>{c.result}</td><td>{c.notes}</td></tr>)}
+        <Table caption="Chloride tests" head={head(["Tested on", "Method", "Result", "Notes"])}>
+          {chlorideTests.map((c) => <tr key={c.id}><td>{c.testedOn}</td><td>{CHLORIDE_METHOD_LABELS[c.method as keyof typeof CHLORIDE_METHOD_LABELS] ?? c.method}</td><td>{c.result}</td><td>{c.notes}</td>{fix("chloride", c.id)}</tr>)}
         </Table>
       )}
       {akaganeiteChecks.length > 0 && (
-        <Table caption="Akaganeite checks" head={["Checked on", "Method", "Seen", "Notes"]}>
-          {akaganeiteChecks.map((a) => <tr key={a.id}><td>{a.checkedOn}</td><td>{AKAGANEITE_METHOD_LABELS[a.method as keyof typeof AKAGANEITE_METHOD_LABELS] ?? a.method}</td><td>{a.seen ? "yes" : "no"}</td><td>{a.notes}</td></tr>)}
+        <Table caption="Akaganeite checks" head={head(["Checked on", "Method", "Seen", "Notes"])}>
+          {akaganeiteChecks.map((a) => <tr key={a.id}><td>{a.checkedOn}</td><td>{AKAGANEITE_METHOD_LABELS[a.method as keyof typeof AKAGANEITE_METHOD_LABELS] ?? a.method}</td><td>{a.seen ? "yes" : "no"}</td><td>{a.notes}</td>{fix("akaganeite", a.id)}</tr>)}
         </Table>
       )}
       {priorTreatments.length > 0 && (
-        <Table caption="Earlier treatments" head={["Treated on", "Treatment", "Notes"]}>
-          {priorTreatments.map((t) => <tr key={t.id}><td>{t.treatedOn}</td><td>{t.treatment}</td><td>{t.notes}</td></tr>)}
+        <Table caption="Earlier treatments" head={head(["Treated on", "Treatment", "Notes"])}>
+          {priorTreatments.map((t) => <tr key={t.id}><td>{t.treatedOn}</td><td>{t.treatment}</td><td>{t.notes}</td>{fix("treatment", t.id)}</tr>)}
         </Table>
       )}
     </div>

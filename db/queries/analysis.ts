@@ -8,6 +8,7 @@ import type { LeftOutScores } from "@/lib/analysis/sentences";
 import { trialDataPackage } from "@/lib/export/trial-package";
 import { DEFAULT_THRESHOLDS_RH_PERCENT, excludedByBand } from "@/lib/climate/exposure";
 import type { ExposureQuery } from "@/lib/analysis/params";
+import { loadHistoryRows } from "./specimen-history";
 import { loadTrialExposure, type PlacementExposureRow } from "./exposure";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
@@ -202,7 +203,7 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
   const specimenIds = [...new Set([...placementRows, ...photoRows, ...scoreRows].map((r) => r.specimenId))];
   const chamberIds = [...new Set(placementRows.map((p) => p.chamberId))];
   const treatmentIds = [...new Set(placementRows.map((p) => p.treatmentId))];
-  const [specimenRows, chamberRows, treatmentRows, readingRows, storageRuleRows] = await Promise.all([
+  const [specimenRows, chamberRows, treatmentRows, readingRows, storageRuleRows, historyRows] = await Promise.all([
     db.select().from(specimens).where(and(eq(specimens.labId, labId), specimenIds.length ? inArray(specimens.id, specimenIds) : none)).orderBy(asc(specimens.label)),
     db.select().from(chambers).where(and(eq(chambers.labId, labId), chamberIds.length ? inArray(chambers.id, chamberIds) : none)).orderBy(asc(chambers.name)),
     db.select().from(treatments).where(and(eq(treatments.labId, labId), treatmentIds.length ? inArray(treatments.id, treatmentIds) : none)).orderBy(asc(treatments.name)),
@@ -212,10 +213,11 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
       : Promise.resolve([] as (typeof readings.$inferSelect)[]),
     db.select().from(storageRules).where(and(eq(storageRules.labId, labId), sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})`))
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
+    loadHistoryRows({ labId, specimenIds }),
   ]);
   const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.specimenId })) });
   const scoreRowsMm2 = scoreRows.map((r, i) => ({ ...r, areaMm2: scaled[i].areaMm2 }));
-  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows: scoreRowsMm2, photoRows, readingRows, storageRuleRows };
+  return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows: scoreRowsMm2, photoRows, readingRows, storageRuleRows, ...historyRows };
 }
 export type ExportRows = Awaited<ReturnType<typeof loadExportRows>>;
 

@@ -6,7 +6,7 @@ import { and, asc, eq, inArray } from "drizzle-orm";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
-import { akaganeiteSeenOf, chlorideStateOf, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
+import { akaganeiteSeenOf, chlorideStateOf, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
 import type { HistoryEntryInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
@@ -122,3 +122,46 @@ export async function loadHistoryFactors({ labId, specimenIds, before }: { labId
   }
   return out;
 }
+
+/** Every history entry of the given specimens of the lab, by specimen and date (the data package's history tables). */
+export async function loadHistoryRows({ labId, specimenIds }: { labId: string; specimenIds: readonly string[] }) {
+  const ids = [...new Set(specimenIds)].filter(isUuid);
+  const none = { chlorideTestRows: [], akaganeiteCheckRows: [], priorTreatmentRows: [], massMeasurementRows: [] };
+  if (ids.length === 0) return none;
+  const theirs = (t: { labId: PgColumn; specimenId: PgColumn }) => and(eq(t.labId, labId), inArray(t.specimenId, ids));
+  const [chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows] = await Promise.all([
+    db.select().from(chlorideTests).where(theirs(chlorideTests)).orderBy(asc(chlorideTests.specimenId), asc(chlorideTests.testedOn), asc(chlorideTests.createdAt)),
+    db.select().from(akaganeiteChecks).where(theirs(akaganeiteChecks)).orderBy(asc(akaganeiteChecks.specimenId), asc(akaganeiteChecks.checkedOn), asc(akaganeiteChecks.createdAt)),
+    db.select().from(priorTreatments).where(theirs(priorTreatments)).orderBy(asc(priorTreatments.specimenId), asc(priorTreatments.treatedOn), asc(priorTreatments.createdAt)),
+    db.select().from(massMeasurements).where(theirs(massMeasurements)).orderBy(asc(massMeasurements.specimenId), asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
+  ]);
+  return { chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows };
+}
+
+/**
+ * Per specimen placed in a trial, its origin and what its history says at the trial
+ * (historyBeforeTrial): the trial report's history table. Results-gated like the report.
+ */
+export async function loadTrialHistory({ labId, trial }: { labId: string; trial: { id: string; startedAt: Date | null; concludedAt: Date | null } }) {
+  const placed = await db.selectDistinct({ specimenId: placements.specimenId }).from(placements)
+    .where(and(eq(placements.labId, labId), eq(placements.trialId, trial.id)));
+  const ids = placed.map((p) => p.specimenId);
+  if (ids.length === 0) return [];
+  const [rows, history] = await Promise.all([
+    db.select({ id: specimens.id, label: specimens.label, parentPiece: specimens.parentPiece, slice: specimens.slice, provenance: specimens.provenance })
+      .from(specimens).where(and(eq(specimens.labId, labId), inArray(specimens.id, ids))).orderBy(asc(specimens.label)),
+    loadHistoryRows({ labId, specimenIds: ids }),
+  ]);
+  const day = (d: Date) => d.toISOString().slice(0, 10);
+  const startOn = trial.startedAt ? day(trial.startedAt) : null;
+  const endOn = day(trial.concludedAt ?? new Date());
+  const of = <T extends { specimenId: string }>(list: readonly T[], id: string) => list.filter((r) => r.specimenId === id);
+  return rows.map((sp) => ({
+    ...sp,
+    ...historyBeforeTrial({
+      chlorideTests: of(history.chlorideTestRows, sp.id), akaganeiteChecks: of(history.akaganeiteCheckRows, sp.id),
+      priorTreatments: of(history.priorTreatmentRows, sp.id), weighings: of(history.massMeasurementRows, sp.id),
+    }, startOn, endOn),
+  }));
+}
+export type TrialHistoryRow = Awaited<ReturnType<typeof loadTrialHistory>>[number];

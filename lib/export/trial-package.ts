@@ -2,6 +2,7 @@
 // db/queries/analysis.ts loads the rows and the outcomes, package-zip.ts writes the zip.
 import type { SpecimenOutcome } from "@/lib/analysis/derive";
 import { toPackageName } from "./datapackage";
+import { AKAGANEITE_CHECK_TABLE, CHLORIDE_TEST_TABLE, MASS_MEASUREMENT_TABLE, PRIOR_TREATMENT_TABLE } from "./history-tables";
 import { EXPOSURE_TABLE, exposureRows, type ExposurePlacement } from "./exposure-rows";
 import type { OutcomeAreas } from "@/lib/scoring/scaled-areas";
 import { outcomeRows } from "./outcome-rows";
@@ -26,6 +27,11 @@ export type TrialExportRows = {
   readingRows: readonly object[];
   /** Storage rules accepted from the trial (every version). */
   storageRuleRows?: readonly { sourceTrialIds: readonly string[] }[];
+  /** Specimen history of the package's specimens (every entry, whatever its date). */
+  chlorideTestRows?: readonly object[];
+  akaganeiteCheckRows?: readonly object[];
+  priorTreatmentRows?: readonly object[];
+  massMeasurementRows?: readonly object[];
 };
 
 const packageReadme = (trial: PackagedTrial, created: Date) => `# ${trial.title}
@@ -43,6 +49,9 @@ under \`data/\`: column types, primary and foreign keys, byte size and SHA-256 c
   share of time out of the chamber's band, hours above 25 and 60 %RH and hours with the dew point within
   2 °C of the air temperature — from the readings corrected by applied hygrometer checks (linear drift
   between checks; the nearest check held before the first and after the last).
+- \`chloride_tests.csv\`, \`akaganeite_checks.csv\`, \`prior_treatments.csv\` and \`mass_measurements.csv\`
+  are the specimens' history as recorded, before, during and after the trial (dates are the lab's
+  calendar days; masses in grams to 0.1 mg). Mass change is the difference between two weighings.
 - \`photos.csv\` is a manifest: the image files stay in the lab's object storage; check a copy
   against its \`sha256\`.
 - User ids (scorer_id, done_by) are pseudonymous; \`blind\` marks scores made without seeing the treatment.
@@ -71,13 +80,17 @@ export async function trialDataPackage({ trial, rows, outcomes, exposure = [], a
     { spec: READING_TABLE, rows: rows.readingRows },
     { spec: OUTCOME_TABLE, rows: outcomeRows(outcomes, areas) },
     { spec: EXPOSURE_TABLE, rows: exposureRows(exposure) },
+    { spec: CHLORIDE_TEST_TABLE, rows: rows.chlorideTestRows ?? [] },
+    { spec: AKAGANEITE_CHECK_TABLE, rows: rows.akaganeiteCheckRows ?? [] },
+    { spec: PRIOR_TREATMENT_TABLE, rows: rows.priorTreatmentRows ?? [] },
+    { spec: MASS_MEASUREMENT_TABLE, rows: rows.massMeasurementRows ?? [] },
     { spec: STORAGE_RULE_TABLE, rows: (rows.storageRuleRows ?? []).map((r) => ({ ...r, sourceTrialIdsText: r.sourceTrialIds.join(" ") })) },
   ];
   const name = toPackageName(`rustline-${trial.title}`);
   const result = await buildPackageZip({
     name,
     title: trial.title,
-    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest, per-specimen outcomes, per-placement chamber exposure and the storage rules accepted from the trial.`,
+    description: `${trial.question} Specimens, treatments, chambers, placements, inspections, scores, chamber readings, a photo manifest, per-specimen outcomes, per-placement chamber exposure, the specimens' history (chloride tests, akaganeite checks, treatments, weighings) and the storage rules accepted from the trial.`,
     created: now,
     keywords: ["corrosion", "relative humidity", "time to first rust", "interval-censored"],
     readme: packageReadme(trial, now),

@@ -30,6 +30,9 @@ export const SPECIMEN_TABLE: TableSpec = {
     col("find_name", "string", "findName"), col("description", "string", "description"), col("face", "string", "face"),
     col("surface_prep", "string", "surfacePrep"), col("mass_g", "number", "massG", { description: "Mass in grams." }),
     col("history", "string", "history"), col("contamination_notes", "string", "contaminationNotes"),
+    col("parent_piece", "string", "parentPiece", { description: "The piece this specimen was cut from." }),
+    col("slice", "string", "slice", { description: "This slice's mark on the parent piece." }),
+    col("provenance", "string", "provenance"),
   ],
 };
 

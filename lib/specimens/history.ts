@@ -86,3 +86,40 @@ export function chlorideStateOf(tests: readonly { testedOn: string; result: stri
 export function akaganeiteSeenOf(checks: readonly { seen: boolean }[]): boolean | null {
   return checks.length === 0 ? null : checks.some((c) => c.seen);
 }
+
+export type TrialMassChange = { from: Weighing; to: Weighing; step: MassStep };
+export type HistoryBeforeTrial = {
+  chlorideState: ChlorideState;
+  akaganeiteSeen: boolean | null;
+  /** Treatments dated before the start day, oldest first. */
+  priorTreatments: string[];
+  /** The specimen's earliest weighing, whenever it was. */
+  firstWeighing: Weighing | null;
+  /** From the last weighing on or before the start day to the last one after it up to the end day; null without both. */
+  trialChange: TrialMassChange | null;
+};
+
+/**
+ * What a specimen's history says about it at a trial: chloride state, akaganeite and treatments
+ * from entries dated before the start day (as loadHistoryFactors), its first weighing, and its
+ * mass change over the trial (a weighing on the start day counts as the baseline).
+ */
+export function historyBeforeTrial(h: {
+  chlorideTests: readonly { testedOn: string; result: string; createdAt?: Date | string }[];
+  akaganeiteChecks: readonly { checkedOn: string; seen: boolean }[];
+  priorTreatments: readonly { treatedOn: string; treatment: string }[];
+  weighings: readonly Weighing[];
+}, startOn: string | null, endOn: string): HistoryBeforeTrial {
+  const before = (on: string) => startOn === null || on < startOn;
+  const weighings = massChanges(h.weighings);
+  const baseline = startOn === null ? undefined : weighings.filter((w) => w.measuredOn <= startOn).at(-1);
+  const final = baseline ? weighings.filter((w) => w.measuredOn > baseline.measuredOn && w.measuredOn <= endOn).at(-1) : undefined;
+  const plain = (w: Weighing): Weighing => ({ measuredOn: w.measuredOn, massG: w.massG });
+  return {
+    chlorideState: chlorideStateOf(h.chlorideTests.filter((t) => before(t.testedOn))),
+    akaganeiteSeen: akaganeiteSeenOf(h.akaganeiteChecks.filter((c) => before(c.checkedOn))),
+    priorTreatments: h.priorTreatments.filter((t) => before(t.treatedOn)).sort((a, b) => (a.treatedOn < b.treatedOn ? -1 : a.treatedOn > b.treatedOn ? 1 : 0)).map((t) => t.treatment),
+    firstWeighing: weighings[0] ? plain(weighings[0]) : null,
+    trialChange: baseline && final ? { from: plain(baseline), to: plain(final), step: step(baseline, final) } : null,
+  };
+}

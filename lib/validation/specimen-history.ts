@@ -58,3 +58,21 @@ const mass = z.object({
 export const HISTORY_KINDS = ["chloride", "akaganeite", "treatment", "mass"] as const;
 export const historyEntrySchema = z.discriminatedUnion("kind", [chloride, akaganeite, treatment, mass], { error: "Choose what to record." });
 export type HistoryEntryInput = z.infer<typeof historyEntrySchema>;
+
+/** Correcting a wrong entry: the same fields as a new one, plus the entry's id (its kind cannot change). */
+export const historyEntryEditSchema = z.discriminatedUnion("kind", [
+  chloride.extend({ entryId: z.uuid("No such entry.") }),
+  akaganeite.extend({ entryId: z.uuid("No such entry.") }),
+  treatment.extend({ entryId: z.uuid("No such entry.") }),
+  mass.safeExtend({ entryId: z.uuid("No such entry.") }),
+], { error: "Choose what to record." });
+export type HistoryEntryEditInput = z.infer<typeof historyEntryEditSchema>;
+
+/** Deleting a wrong entry: which one, and why (kept in the audit trail). */
+export const historyEntryDeleteSchema = z.object({
+  specimenId: z.uuid("Choose a specimen."),
+  kind: z.enum(HISTORY_KINDS, "Choose what to delete."),
+  entryId: z.uuid("No such entry."),
+  reason: z.string({ error: "Say why this entry is deleted." }).trim().min(3, "Say why this entry is deleted (at least 3 characters).").max(500, "Reason: use at most 500 characters."),
+});
+export type HistoryEntryDeleteInput = z.infer<typeof historyEntryDeleteSchema>;

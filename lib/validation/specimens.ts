@@ -103,13 +103,14 @@ export const specimenListSchema = z.object({
 export type SpecimenListParams = z.infer<typeof specimenListSchema>;
 
 // ---- CSV ----
-const FIELD_COLUMNS = ["label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "contamination_notes",
+const FIELD_COLUMNS = ["label", "material_class", "find_name", "face", "description", "surface_prep", "mass_g", "history", "parent_piece", "slice", "provenance", "contamination_notes",
   "accession_number", "treatments_applied", "chloride_state", "storage_notes"] as const;
 /** `location` names a storage location (its name, or its path "Room / Cabinet / Drawer"): the object's place from the import on. */
 export const CSV_COLUMNS = [...FIELD_COLUMNS, "location"] as const;
 const CSV_TO_FIELD: Record<(typeof FIELD_COLUMNS)[number], keyof SpecimenInput> = {
   label: "label", material_class: "materialClass", find_name: "findName", face: "face", description: "description",
-  surface_prep: "surfacePrep", mass_g: "massG", history: "history", contamination_notes: "contaminationNotes",
+  surface_prep: "surfacePrep", mass_g: "massG", history: "history", parent_piece: "parentPiece", slice: "slice", provenance: "provenance",
+  contamination_notes: "contaminationNotes",
   accession_number: "accessionNumber", treatments_applied: "treatmentsApplied", chloride_state: "chlorideState", storage_notes: "storageNotes",
 };
 export const MAX_IMPORT_ROWS = 5000;

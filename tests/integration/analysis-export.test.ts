@@ -92,7 +92,8 @@ describe("GET …/export/datapackage.zip", () => {
     expect(profileProblems(descriptor)).toEqual([]); // Frictionless Data, Tabular Data Package profile v1
     expect(descriptor.profile).toBe("tabular-data-package");
     expect(descriptor.resources.map((r) => r.name)).toEqual([
-      "trial", "specimens", "treatments", "chambers", "placements", "inspections", "photos", "scores", "readings", "outcomes", "exposure", "storage_rules",
+      "trial", "specimens", "treatments", "chambers", "placements", "inspections", "photos", "scores", "readings", "outcomes", "exposure",
+      "chloride_tests", "akaganeite_checks", "prior_treatments", "mass_measurements", "storage_rules",
     ]);
     expect(zip.file("README.md")).not.toBeNull();
   });

@@ -50,9 +50,10 @@ async function fixture(lab: TestLab, tag: string): Promise<Fixture> {
   }).returning();
   const [token] = await db.insert(s.chamberTokens).values({ labId: lab.labId, chamberId: chamber.id, label: `${tag} logger`, tokenHash: crypto.randomBytes(32).toString("hex") }).returning();
   const [check] = await db.insert(s.hygrometerChecks).values({ labId: lab.labId, chamberId: chamber.id, instrument: `${tag} logger`, saltId: "NaCl", tempC: 20, readingRhPercent: 76, referenceRhPercent: 75.5, offsetRhPercent: 0.5, checkedAt: new Date("2026-01-05T09:00:00Z") }).returning();
+  const [weighing] = await db.insert(s.massMeasurements).values({ labId: lab.labId, specimenId: specimen.id, measuredOn: "2026-01-04", massG: "12.3456" }).returning();
   return {
     chamberId: chamber.id, treatmentId: treatment.id, specimenId: specimen.id, otherSpecimenId: other.id, trialId: trial.id, inspectionId: inspection.id,
-    photoId: photo.id, tokenId: token.id, checkId: check.id, users: Object.fromEntries(ROLES.map((r) => [r, lab.users[r].id])) as Record<Role, string>,
+    photoId: photo.id, tokenId: token.id, checkId: check.id, weighingId: weighing.id, users: Object.fromEntries(ROLES.map((r) => [r, lab.users[r].id])) as Record<Role, string>,
   };
 }
 

@@ -202,5 +202,6 @@ describe("a blind scorer of a running trial", () => {
     expect(audit).toContain("Stand cracked");
     const report = await (await scene.client.fetch(`/trials/${scene.trialId}/report`)).text();
     expect(report).toMatch(/Scoring ended when the trial was concluded/);
+    expect(report).toContain("Specimen history"); // the report's history table, results-gated with the rest
   }, 120_000);
 });

@@ -7,7 +7,7 @@
 import fs from "node:fs";
 import os from "node:os";
 import path from "node:path";
-import { eq } from "drizzle-orm";
+import { asc, eq, inArray } from "drizzle-orm";
 import { Package } from "datapackage";
 import JSZip from "jszip";
 import Papa from "papaparse";
@@ -97,6 +97,53 @@ describe("data packages read by the Frictionless library", () => {
     expect(new Set(scores.col("notes"))).toEqual(new Set([`'${FORMULAS.scoreNotes}`]));
     expect(new Set(scores.col("updated_at"))).toEqual(new Set(["2026-02-02T10:11:12Z"]));
     expect(await zip.file("README.md")!.async("string")).toMatch(/leading `'` guard/);
+  });
+
+  it("the package carries the specimens' history, row for row as the database holds it", async () => {
+    const sp = hand.specimens;
+    const own = { labId: lab.labId };
+    await db.insert(s.specimens).values({ labId: lab.labId, label: `Not in the trial ${hand.trialId.slice(0, 6)}`, materialClass: "other" });
+    const [outsider] = await db.select().from(s.specimens).where(eq(s.specimens.label, `Not in the trial ${hand.trialId.slice(0, 6)}`));
+    await db.update(s.specimens).set({ parentPiece: "Corvenlow Tarn main mass", slice: "S3", provenance: "Tarrow collection, 1971" }).where(eq(s.specimens.id, sp.rustsAt3rd));
+    await db.insert(s.chlorideTests).values([
+      { ...own, specimenId: sp.rustsAt3rd, testedOn: "2025-11-02", method: "silver-nitrate-spot", result: "present", notes: "=1+1" },
+      { ...own, specimenId: sp.neverRusts, testedOn: "2025-11-02", method: "chloride-strip", result: "absent" },
+      { ...own, specimenId: outsider.id, testedOn: "2025-11-02", method: "other", result: "absent" },
+    ]);
+    await db.insert(s.akaganeiteChecks).values({ ...own, specimenId: sp.rustsAt3rd, checkedOn: "2025-11-03", method: "raman", seen: true });
+    await db.insert(s.priorTreatments).values({ ...own, specimenId: sp.weepsAt2nd, treatedOn: "2025-10-20", treatment: "Rinsed in deionised water, dried" });
+    await db.insert(s.massMeasurements).values([
+      { ...own, specimenId: sp.rustsAt3rd, measuredOn: "2025-12-20", massG: "10.0123" },
+      { ...own, specimenId: sp.rustsAt3rd, measuredOn: "2026-03-02", massG: "10.0131" },
+      { ...own, specimenId: outsider.id, measuredOn: "2025-12-20", massG: "1.0000" },
+    ]);
+
+    session.mockResolvedValue(lab.as("observer") as never);
+    const res = await getZip(request("datapackage.zip"), { params: Promise.resolve({ trialId: hand.trialId }) });
+    const bytes = new Uint8Array(await res.arrayBuffer());
+    const pkg = await loadWithLibrary(bytes, "hand-history");
+    expect(pkg.errors.map((e) => e.message)).toEqual([]);
+    // Read with casting and foreign keys: every history row names a specimen of specimens.csv.
+    expect(await readAll(pkg)).toMatchObject({ chloride_tests: 2, akaganeite_checks: 1, prior_treatments: 1, mass_measurements: 2 });
+    const read = async (name: string) => (await pkg.resources.find((x) => x.name === name)!.read({ keyed: true, cast: true })) as Record<string, unknown>[];
+    const trialIds = Object.values(sp);
+    const day = (d: unknown) => (d as Date).toISOString().slice(0, 10);
+    const at = (d: unknown) => (d as Date).toISOString().slice(0, 19);
+
+    const chloride = await db.select().from(s.chlorideTests).where(inArray(s.chlorideTests.specimenId, trialIds)).orderBy(asc(s.chlorideTests.specimenId));
+    expect((await read("chloride_tests")).map((r) => [r.id, r.specimen_id, day(r.tested_on), r.method, r.result, r.notes ?? "", at(r.created_at)] /* an empty cell reads as missing */).sort())
+      .toEqual(chloride.map((r) => [r.id, r.specimenId, r.testedOn, r.method, r.result, r.notes === "=1+1" ? "'=1+1" : r.notes, r.createdAt.toISOString().slice(0, 19)]).sort());
+    const aka = await db.select().from(s.akaganeiteChecks).where(inArray(s.akaganeiteChecks.specimenId, trialIds));
+    expect((await read("akaganeite_checks")).map((r) => [r.id, r.specimen_id, day(r.checked_on), r.method, r.seen])).toEqual(aka.map((r) => [r.id, r.specimenId, r.checkedOn, r.method, r.seen]));
+    const treated = await db.select().from(s.priorTreatments).where(inArray(s.priorTreatments.specimenId, trialIds));
+    expect((await read("prior_treatments")).map((r) => [r.id, r.specimen_id, day(r.treated_on), r.treatment])).toEqual(treated.map((r) => [r.id, r.specimenId, r.treatedOn, r.treatment]));
+    const weighed = await db.select().from(s.massMeasurements).where(inArray(s.massMeasurements.specimenId, trialIds)).orderBy(asc(s.massMeasurements.measuredOn));
+    // The cell text is the stored numeric(12,4) exactly; the library casts it to a decimal.
+    expect((await read("mass_measurements")).map((r) => [r.id, r.specimen_id, day(r.measured_on), String(r.mass_g)])).toEqual(weighed.map((r) => [r.id, r.specimenId, r.measuredOn, String(Number(r.massG))]));
+    const zip = await JSZip.loadAsync(bytes);
+    expect(await zip.file("data/mass_measurements.csv")!.async("string")).toContain(",2025-12-20,10.0123,");
+    const specimensCsv = Papa.parse<Record<string, string>>((await zip.file("data/specimens.csv")!.async("string")).trimEnd(), { header: true }).data;
+    expect(specimensCsv.find((r) => r.id === sp.rustsAt3rd)).toMatchObject({ parent_piece: "Corvenlow Tarn main mass", slice: "S3", provenance: "Tarrow collection, 1971" });
   });
 
   it("the outcomes CSV guards the same text cells", async () => {

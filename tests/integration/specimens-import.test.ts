@@ -83,6 +83,30 @@ describe("specimen CSV import", () => {
     expect(weird.value).toMatchObject({ description: "quote \" and, comma\nnew line", massG: 2.5, materialClass: "other" });
   });
 
+  it("parent piece, slice and provenance go in and come back out; a too long slice stops the whole file at its line", async () => {
+    const header = "label,material_class,parent_piece,slice,provenance,mass_g";
+    const bad = [header, "PP-1,iron meteorite,Corvenlow Tarn main mass,S1,\"Tarrow collection, 1971\",4.2", `PP-2,iron meteorite,Corvenlow Tarn main mass,${"x".repeat(61)},,3`].join("\n");
+    const r1 = await importSpecimensAction.withIdentity(a.as("researcher"), { csv: bad });
+    expect(r1.ok).toBe(false);
+    expect((r1.data as { errors: { line: number; field?: string }[] }).errors.map((e) => [e.line, e.field])).toEqual([[3, "slice"]]);
+    expect((await listSpecimens({ labId: a.labId, q: "PP-", sort: "label", dir: "asc", page: 1, pageSize: 25 })).total).toBe(0);
+
+    const good = [header, "PP-1,iron meteorite,Corvenlow Tarn main mass,S1,\"Tarrow collection, 1971\",4.2", "PP-2,iron meteorite,Corvenlow Tarn main mass,S2,=from a dealer,3"].join("\n");
+    const r2 = await importSpecimensAction.withIdentity(a.as("researcher"), { csv: good });
+    expect(r2, r2.message).toMatchObject({ ok: true });
+    const stored = await exportSpecimens({ labId: a.labId, userId: a.users.researcher.id, q: "PP-" });
+    expect(stored.map((x) => [x.label, x.parentPiece, x.slice, x.provenance])).toEqual([
+      ["PP-1", "Corvenlow Tarn main mass", "S1", "Tarrow collection, 1971"],
+      ["PP-2", "Corvenlow Tarn main mass", "S2", "=from a dealer"],
+    ]);
+    const csv = specimensToCsv(stored.map((x) => ({ ...x, massG: x.massG ?? undefined })));
+    expect(csv.split("\r\n")[1]).toContain(",Corvenlow Tarn main mass,S1,\"Tarrow collection, 1971\",");
+    expect(csv).toContain(",'=from a dealer,"); // guarded on the way out, unguarded on the way in
+    const back = parseSpecimenCsv(csv);
+    expect(back.errors).toEqual([]);
+    expect(back.rows.map((x) => [x.value.label, x.value.parentPiece, x.value.slice, x.value.provenance])).toEqual(stored.map((x) => [x.label, x.parentPiece, x.slice, x.provenance]));
+  });
+
   it("labels are unique per lab, case-insensitively, on create and edit", async () => {
     const dup = await createSpecimenAction.withIdentity(a.as("researcher"), { label: "imp-1", materialClass: "other" });
     expect(dup).toMatchObject({ ok: false, errors: { label: ["This label is already used in this lab."] } });

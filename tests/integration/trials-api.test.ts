@@ -46,7 +46,7 @@ describe("JSON API", () => {
     expect((await observer.fetch(`/api/specimens/${crypto.randomUUID()}`)).status).toBe(404);
     expect((await observer.fetch("/api/specimens/not-a-uuid")).status).toBe(404);
     const csv = await (await observer.fetch(`/api/specimens/export?q=API-${tag}`)).text();
-    expect(csv.split("\r\n")[0]).toBe("label,material_class,find_name,face,description,surface_prep,mass_g,history,contamination_notes,accession_number,treatments_applied,chloride_state,storage_notes,location");
+    expect(csv.split("\r\n")[0]).toBe("label,material_class,find_name,face,description,surface_prep,mass_g,history,parent_piece,slice,provenance,contamination_notes,accession_number,treatments_applied,chloride_state,storage_notes,location");
     expect(csv).toContain(`API-${tag}-2,steel-coupon`);
   });
 

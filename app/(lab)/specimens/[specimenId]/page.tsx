@@ -11,7 +11,8 @@ import { listObjectStays } from "@/db/queries/object-locations";
 import { EmptyState } from "@/components/ui/empty-state";
 import { loadSpecimenHistory } from "@/db/queries/specimen-history";
 import { latestToday } from "@/lib/specimens/history";
-import { HistoryForm } from "@/components/specimens/history-form";
+import { HistoryForm, type EditedEntry } from "@/components/specimens/history-form";
+import { HistoryDeleteForm } from "@/components/specimens/history-delete-form";
 import { SpecimenHistory } from "@/components/specimens/specimen-history";
 
 export const metadata = { title: "Specimen" };
@@ -25,8 +26,24 @@ function Fact({ term, children }: { term: string; children: React.ReactNode }) {
   );
 }
 
-export default async function SpecimenPage({ params }: { params: Promise<{ specimenId: string }> }) {
-  const { specimenId } = await params;
+type History = Awaited<ReturnType<typeof loadSpecimenHistory>>;
+
+/** The entry named by ?entry=<kind>:<id>, among those the viewer sees, with its values as form text. */
+function entryToCorrect(history: History, param: string | undefined): EditedEntry | null {
+  const [kind, id] = (param ?? "").split(":");
+  const w = kind === "mass" ? history.weighings.find((x) => x.id === id) : undefined;
+  if (w) return { id: w.id, kind: "mass", values: { measuredOn: w.measuredOn, mass: w.massG, unit: "g", notes: w.notes } };
+  const c = kind === "chloride" ? history.chlorideTests.find((x) => x.id === id) : undefined;
+  if (c) return { id: c.id, kind: "chloride", values: { testedOn: c.testedOn, method: c.method, result: c.result, notes: c.notes } };
+  const a = kind === "akaganeite" ? history.akaganeiteChecks.find((x) => x.id === id) : undefined;
+  if (a) return { id: a.id, kind: "akaganeite", values: { checkedOn: a.checkedOn, method: a.method, seen: a.seen ? "yes" : "no", notes: a.notes } };
+  const t = kind === "treatment" ? history.priorTreatments.find((x) => x.id === id) : undefined;
+  if (t) return { id: t.id, kind: "treatment", values: { treatedOn: t.treatedOn, treatment: t.treatment, notes: t.notes } };
+  return null;
+}
+
+export default async function SpecimenPage({ params, searchParams }: { params: Promise<{ specimenId: string }>; searchParams: Promise<Record<string, string | undefined>> }) {
+  const [{ specimenId }, raw] = await Promise.all([params, searchParams]);
   const ctx = await labPage("/specimens/[specimenId]");
   const specimen = await getSpecimen({ labId: ctx.labId, specimenId });
   if (!specimen) notFound();
@@ -35,6 +52,9 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
   ]);
   const placements = hideArmsOfTrials(rawPlacements, blindIn);
   const history = await loadSpecimenHistory({ labId: ctx.labId, specimenId, blindTrialIds: blindIn });
+  const writable = can(ctx.role, "specimens.write");
+  const correcting = writable ? entryToCorrect(history, raw.entry) : null;
+  const today = new Date().toISOString().slice(0, 10);
   return (
     <div className="space-y-6">
       <p className="text-sm"><Link className="link" href="/specimens">Specimens</Link> /</p>
@@ -81,11 +101,19 @@ export default async function SpecimenPage({ params }: { params: Promise<{ speci
       </section>
       <section className="space-y-2" aria-labelledby="history-h">
         <h2 id="history-h" className="text-lg font-semibold">Specimen history</h2>
-        <SpecimenHistory history={history} />
-        {can(ctx.role, "specimens.write") && (
+        <SpecimenHistory history={history} correctHref={writable ? (kind, id) => `/specimens/${specimen.id}?entry=${kind}:${id}#correct-h` : undefined} />
+        {correcting ? (
+          <div className="panel p-4 space-y-4">
+            <h3 id="correct-h" className="font-medium">Correct the entry</h3>
+            <HistoryForm key={correcting.id} specimenId={specimen.id} today={today} maxDate={latestToday()} entry={correcting} />
+            <h3 className="font-medium">Or delete it</h3>
+            <HistoryDeleteForm specimenId={specimen.id} entry={correcting} />
+            <p className="text-sm"><Link className="link" href={`/specimens/${specimen.id}`}>Cancel</Link></p>
+          </div>
+        ) : writable && (
           <details className="panel p-4">
             <summary className="cursor-pointer font-medium">Record a weighing, test, check or treatment</summary>
-            <div className="mt-3"><HistoryForm specimenId={specimen.id} today={new Date().toISOString().slice(0, 10)} maxDate={latestToday()} /></div>
+            <div className="mt-3"><HistoryForm specimenId={specimen.id} today={today} maxDate={latestToday()} /></div>
           </details>
         )}
       </section>

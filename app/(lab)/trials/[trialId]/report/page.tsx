@@ -15,6 +15,8 @@ import { listStorageRules } from "@/db/queries/storage-rules";
 import { loadScaledRecords } from "@/db/queries/photo-evidence";
 import { ScaledAreaSection } from "@/components/analysis/scaled-area-section";
 import { outcomeAreasMm2 } from "@/lib/scoring/scaled-areas";
+import { loadTrialHistory } from "@/db/queries/specimen-history";
+import { HISTORY_METHOD, HistoryTable } from "@/components/analysis/history-table";
 import { EmptyState } from "@/components/ui/empty-state";
 import { EXPOSURE_METHOD, ExposureExclusionNote, ExposureTable } from "@/components/analysis/exposure-section";
 import { exposureKeep } from "@/lib/analysis/exposure-params";
@@ -39,9 +41,10 @@ export default async function ReportPage(props: AnalysisPageProps) {
   const { ctx, q, access, analysis, trial, c } = await analysisPage("/trials/[trialId]/report", props);
   const keep = analysis.exposure ? exposureKeep(analysis.exposure.query) : {};
   const generated = new Date();
-  const [rules, scaled] = await Promise.all([
+  const [rules, scaled, history] = await Promise.all([
     listStorageRules({ labId: ctx.labId, userId: ctx.userId, trialId: trial.id }),
     loadScaledRecords({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol }),
+    loadTrialHistory({ labId: ctx.labId, trial }),
   ]);
   const areas = outcomeAreasMm2(analysis.outcomes, scaled.areaMm2);
 
@@ -85,6 +88,11 @@ export default async function ReportPage(props: AnalysisPageProps) {
             <OutcomeTable outcomes={analysis.outcomes} areas={areas} />
           </section>
           <ScaledAreaSection outcomes={analysis.outcomes} areas={areas} records={scaled.records} protocol={trial.photoProtocol} />
+          <section className="panel p-4 space-y-2" aria-labelledby="history-h">
+            <h2 id="history-h" className="font-semibold">Specimen history</h2>
+            <p className="text-sm muted">{HISTORY_METHOD}</p>
+            <HistoryTable rows={history} />
+          </section>
           <section className="panel p-4 space-y-2" aria-labelledby="rules-h">
             <h2 id="rules-h" className="font-semibold">Storage rules from this trial</h2>
             <TrialRules rules={rules} empty="No storage rule has been accepted from this trial." />
