@@ -96,6 +96,7 @@ describe("the grey patch on the scoring screen", () => {
     await expect(refusal.count()).resolves.toBe(0);
     await expect(page.getByTestId("estimate-normalised").innerText()).resolves.toContain("White balance and exposure normalised from the grey patch");
     await page.getByRole("button", { name: "Accept", exact: true }).click();
+    await page.getByLabel("S — spot").check(); // the score form asks how the rust is distributed
     await page.getByRole("button", { name: "Save score", exact: true }).click();
     await page.getByRole("status").filter({ hasText: "Score saved" }).waitFor({ timeout: 20_000 });
     await expect(page.getByTestId("saved-estimate").innerText()).resolves.toContain("normalised from the grey patch");
