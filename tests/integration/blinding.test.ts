@@ -79,7 +79,7 @@ function urlsOf(scene: Scene) {
   for (const route of pages.filter((r) => r.startsWith("/specimens/[specimenId]"))) {
     for (const sp of scene.specimens) out.push({ url: fillRoute(route, { specimenId: sp.id }), results: false, permission: PAGE_ROUTES[route].permission });
   }
-  out.push({ url: "/", results: false }, { url: "/audit", results: false }, { url: `/audit?entity=trial`, results: false }, { url: "/collection", results: false });
+  out.push({ url: "/", results: false }, { url: "/audit", results: false }, { url: `/audit?entity=trial`, results: false }, { url: "/collection", results: false }, { url: "/collection/overview", results: false }, { url: "/collection/report", results: false });
   for (const r of routes.filter((x) => x.method === "GET" && x.permission)) {
     const permission = r.permission as Permission;
     if (r.route.includes("[trialId]") || r.route.includes("[inspectionId]")) out.push({ url: fillRoute(r.route, ids), results: RESULT_ROUTES.has(r.route), permission });

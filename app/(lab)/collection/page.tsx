@@ -31,7 +31,8 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-2xl font-semibold">Collection</h1>
-        <a className="btn-quiet ml-auto" href="/api/specimens/export">Export register (CSV)</a>
+        <Link className="btn ml-auto" href="/collection/overview">Overview by need</Link>
+        <a className="btn-quiet" href="/api/specimens/export">Export register (CSV)</a>
         {can(ctx.role, "specimens.write") && <Link className="btn-quiet" href="/specimens/import">Import register (CSV)</Link>}
       </div>
       <p className="text-sm muted max-w-3xl">
