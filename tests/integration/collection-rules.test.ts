@@ -6,6 +6,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import { getLocationRuleStatus, listLocationStatuses } from "@/db/queries/location-status";
 import { chambers, labs, memberships, readings, users } from "@/db/schema";
+import { OVERVIEW_CSV_COLUMNS } from "@/lib/collection/overview-csv";
+import { signedInClient } from "../support/http";
 
 const DAY = 86_400_000;
 let labId: string;
@@ -82,5 +84,17 @@ describe("a storage location and its rule", () => {
     expect(drawer.objectCount).toBe(0);
     expect(drawer.needs).toEqual(["no-readings"]);
     expect(byName.get("Display case 3")!.trace.length).toBeGreaterThanOrEqual(29);
+  });
+
+  it("exports the overview as CSV in the same order, and refuses a bad share", async () => {
+    const lead = await signedInClient("lead@tarrow.example", "rustline-demo-1");
+    const res = await lead.fetch("/api/collection/overview?share=5");
+    expect(res.status).toBe(200);
+    const lines = (await res.text()).trimEnd().split("\r\n");
+    expect(lines[0]).toBe(OVERVIEW_CSV_COLUMNS.join(","));
+    const statuses = await listLocationStatuses({ labId, userId: leadId });
+    expect(lines.slice(1).map((l) => l.split(",")[0].replace(/^"|"$/g, ""))).toEqual(statuses.map((x) => x.path));
+    expect(lines.find((l) => l.startsWith("Store 2 (basement) / Display case 3"))).toContain("Out of rule now");
+    expect((await lead.fetch("/api/collection/overview?share=abc")).status).toBe(422);
   });
 });
