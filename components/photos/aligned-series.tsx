@@ -57,7 +57,8 @@ function newText(item: SeriesItem, previousDay: string | null): string | null {
   const faceRef = item.entry.face && item.entry.state.transform ? polygonArea(item.entry.face) * Math.abs(determinant(item.entry.state.transform)) : 0;
   const share = faceRef > 0 ? ` (${((100 * n.newAreaPx2) / faceRef).toFixed(2)} % of the face)` : "";
   const since = previousDay ? `since ${previousDay}` : "at the first inspection";
-  return `New ${since}: ${Math.round(n.newAreaPx2).toLocaleString("en-GB")} px² in the first photo's frame${share}, ±${Math.round(n.errorBoundPx2).toLocaleString("en-GB")} px².`;
+  const mm2 = n.newAreaMm2 !== null ? ` = ${n.newAreaMm2.toFixed(2)} mm² at the first photo's scale` : "";
+  return `New ${since}: ${Math.round(n.newAreaPx2).toLocaleString("en-GB")} px² in the first photo's frame${mm2}${share}, ±${Math.round(n.errorBoundPx2).toLocaleString("en-GB")} px².`;
 }
 
 export function AlignedSeries({ items, reference, alignHref, canAlign }: {

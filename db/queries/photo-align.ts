@@ -10,6 +10,7 @@ import { inspections, photoControlPoints, photos, scores, specimens } from "@/db
 import { AppError } from "@/lib/auth/errors";
 import { alignStateOf, controlPointProblem, fitAlignment, type Affine, type AlignState } from "@/lib/photos/align";
 import { newSinceLast, type NewSinceResult } from "@/lib/photos/new-since";
+import { loadPhotoEvidence } from "./photo-evidence";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { assertWritable } from "@/lib/trials/lock";
 import { isUuid } from "@/lib/ids";
@@ -106,6 +107,8 @@ export async function loadAlignedSeries({ labId, trialId, specimenId, photos: as
     : [];
   const markBy = new Map(await Promise.all(record.filter((r) => r.photoId && r.scorerId)
     .map(async (r) => [r.photoId!, await marksOnPhoto({ labId, photoId: r.photoId!, scorerId: r.scorerId! })] as const)));
+  // Areas are measured in the first photo's frame, so its scale (own or the series') turns px² into mm².
+  const refScale = ref ? (await loadPhotoEvidence({ labId, trialId, protocol: [], photoRows: [{ id: ref.id, specimenId }] })).get(ref.id)?.scale ?? null : null;
   const entries: AlignedEntry[] = [];
   // The previous inspection's photo must itself be aligned and scored, else "new since" is unknown.
   let previous: { marks: Mark[]; toReference: Affine } | null | undefined = null;
@@ -113,7 +116,7 @@ export async function loadAlignedSeries({ labId, trialId, specimenId, photos: as
     const state = alignStateOf(photoId, ref?.id ?? null, pts);
     const m = markBy.get(photoId) ?? null;
     const here = state.transform && m ? { marks: m.marks, face: m.face, toReference: state.transform } : undefined;
-    const newSince = here && previous !== undefined ? newSinceLast(here, previous, { samples: 400 }) : null;
+    const newSince = here && previous !== undefined ? newSinceLast(here, previous, { samples: 400, pxPerMm: refScale?.pxPerMm ?? null }) : null;
     entries.push({ photoId, state, marks: m?.marks ?? null, face: m?.face ?? null, newSince });
     previous = here;
   }

@@ -120,6 +120,14 @@ describe("an aligned series", () => {
       expect(Math.abs(e.newSince!.newAreaPx2 - wanted[k])).toBeLessThan(e.newSince!.errorBoundPx2);
       expect(Math.abs(e.newSince!.newAreaPx2 - wanted[k]) / wanted[k]).toBeLessThan(0.03);
     });
+    // With a series scale of 20 px/mm the same areas read in mm²: px² ÷ (px/mm)².
+    expect(series.entries.every((e) => e.newSince!.newAreaMm2 === null)).toBe(true);
+    await db.insert(s.seriesScales).values({ labId: lab.labId, trialId: t.trialId, specimenId: t.specimenIds[0], pxPerMm: 20, scaleSource: { kind: "typed" } });
+    const scaled = await loadAlignedSeries({
+      labId: lab.labId, trialId: t.trialId, specimenId: t.specimenIds[0], withMarks: true,
+      photos: photos.map((p, k) => ({ id: p.photoId, inspectionId: t.inspectionIds[k] })),
+    });
+    scaled.entries.forEach((e, k) => expect(e.newSince!.newAreaMm2).toBeCloseTo(series.entries[k].newSince!.newAreaPx2 / 400, 9));
     // A blind viewer's series carries no marks and no areas.
     const blind = await loadAlignedSeries({ labId: lab.labId, trialId: t.trialId, specimenId: t.specimenIds[0], withMarks: false, photos: [] });
     expect(blind.entries.every((e) => e.marks === null && e.newSince === null)).toBe(true);
