@@ -75,14 +75,16 @@ async function heldObjects(labId: string, locationIds: readonly string[]) {
  * time in rule over 7, 30 and 365 days, exceedances, objects at risk and the desiccant forecast.
  * Time in rule is counted as the chamber page counts time in band (getBandWindowStats).
  */
-export async function getLocationRuleStatus({ labId, userId, locationId, now = new Date(), outOfRuleShare = DEFAULT_OUT_OF_RULE_SHARE }: {
+export async function getLocationRuleStatus({ labId, userId, locationId, now = new Date(), outOfRuleShare = DEFAULT_OUT_OF_RULE_SHARE, shared }: {
   labId: string; userId: string; locationId: string; now?: Date; outOfRuleShare?: number;
+  /** What every location of a list shares, loaded once by listLocationStatuses. */
+  shared?: { rules: StorageRuleView[]; hidden: Set<string>; held: Map<string, Held[]> };
 }): Promise<LocationRuleStatus> {
   const location = await getChamber({ labId, chamberId: locationId });
   const [rules, held, hidden, keeper, last, events] = await Promise.all([
-    listStorageRules({ labId, userId }).then((r) => r.filter((x) => x.current)),
-    heldObjects(labId, [locationId]).then((m) => m.get(locationId) ?? []),
-    hiddenObjectIds({ labId, userId }),
+    shared?.rules ?? listStorageRules({ labId, userId }).then((r) => r.filter((x) => x.current)),
+    shared ? shared.held.get(locationId) ?? [] : heldObjects(labId, [locationId]).then((m) => m.get(locationId) ?? []),
+    shared?.hidden ?? hiddenObjectIds({ labId, userId }),
     location.keeperId ? db.select({ name: users.name }).from(users).where(eq(users.id, location.keeperId)) : Promise.resolve([]),
     db.select({ takenAt: readings.takenAt, rhPercent: readings.rhPercent }).from(readings)
       .where(and(eq(readings.labId, labId), eq(readings.chamberId, locationId))).orderBy(desc(readings.takenAt)).limit(1),
@@ -130,8 +132,11 @@ export async function listLocationStatuses({ labId, userId, now = new Date(), ou
   const rows = await db.select({ id: chambers.id, locationKind: chambers.locationKind }).from(chambers)
     .where(and(eq(chambers.labId, labId), isNull(chambers.archivedAt)));
   const ids = rows.filter((r) => isStorageKind(r.locationKind)).map((r) => r.id);
+  const [rules, hidden, held] = await Promise.all([
+    listStorageRules({ labId, userId }).then((r) => r.filter((x) => x.current)), hiddenObjectIds({ labId, userId }), heldObjects(labId, ids),
+  ]);
   const [statuses, traces, paths] = await Promise.all([
-    Promise.all(ids.map((locationId) => getLocationRuleStatus({ labId, userId, locationId, now, outOfRuleShare }))),
+    Promise.all(ids.map((locationId) => getLocationRuleStatus({ labId, userId, locationId, now, outOfRuleShare, shared: { rules, hidden, held } }))),
     dailyMaxima({ labId, locationIds: ids, from: new Date(now.getTime() - 30 * DAY_MS) }),
     locationPaths({ labId }),
   ]);
