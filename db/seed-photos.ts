@@ -18,6 +18,8 @@ import * as s from "./schema";
 
 const WIDTH = 1200;
 const HEIGHT = 900;
+// The copy stand's fixed framing: 12 px per mm at the specimen face (invented), with a 10 mm bar in frame.
+const PX_PER_MM = 12;
 const IN_FLIGHT = 4;
 // The invented lab keeps its clocks at UTC+01:00; the camera records that offset.
 const OFFSET = "+01:00";
@@ -58,6 +60,8 @@ export async function seedDemoPhotos(ids: SeedIds): Promise<number> {
   const total = placed.length * inspections.length;
   const rows: (typeof s.photos.$inferInsert)[] = [];
   const inFlight = new Set<Promise<void>>();
+  const bars = new Map<string, { a: { x: number; y: number }; b: { x: number; y: number }; lengthMm: number }>();
+  let wrongCardPhoto: string | null = null;
   let done = 0;
   let worstGap = 0;
 
@@ -69,7 +73,8 @@ export async function seedDemoPhotos(ids: SeedIds): Promise<number> {
       const area = areaBy.get(`${insp.id}:${sp.id}`) ?? 0;
       const spots = planner.spotsFor(area);
       // Rendering is synchronous; encoding and uploads of earlier photos run meanwhile.
-      const img = renderSpecimenFace({ width: WIDTH, height: HEIGHT, seed, kind, rustSpots: spots });
+      const img = renderSpecimenFace({ width: WIDTH, height: HEIGHT, seed, kind, rustSpots: spots, scaleBar: { pxPerMm: PX_PER_MM } });
+      if (img.scaleBar && !bars.has(sp.id)) bars.set(sp.id, { a: img.scaleBar.a, b: img.scaleBar.b, lengthMm: img.scaleBar.lengthMm });
       worstGap = Math.max(worstGap, Math.abs(img.trueRustFraction * 100 - area));
       // Photographed a few minutes before the inspection was marked done; one photo of the set
       // carries the previous day's date, as if from the wrong memory card, to show the warning.
@@ -77,6 +82,7 @@ export async function seedDemoPhotos(ids: SeedIds): Promise<number> {
       const shotAt = new Date(insp.doneAt!.getTime() - (4 + ((si * 7 + ii * 3) % 11)) * 60_000 - (wrongCard ? 86_400_000 : 0));
       const photoId = stableUuid(`${ids.labId}:${sp.id}:${insp.id}`);
       const filename = `${sp.label}_day${String(insp.dayNumber).padStart(2, "0")}.jpg`;
+      if (wrongCard) wrongCardPhoto = photoId;
       const task = (async () => {
         const jpeg = await sharp(Buffer.from(img.data.buffer, img.data.byteOffset, img.data.byteLength), { raw: { width: WIDTH, height: HEIGHT, channels: 4 } })
           .removeAlpha()
@@ -114,7 +120,20 @@ export async function seedDemoPhotos(ids: SeedIds): Promise<number> {
     for (const r of rows) {
       await tx.update(s.scores).set({ photoId: r.id! }).where(and(eq(s.scores.inspectionId, r.inspectionId!), eq(s.scores.specimenId, r.specimenId)));
     }
-    await recordAudit(tx, { labId: ids.labId, userId: ids.technicianId, entity: "photo", entityId: ids.trialId, trialId: ids.trialId, action: "create", summary: `Demo photos loaded (${rows.length})`, after: { photos: rows.length } });
+    // The protocol was followed for every photo but the one from the wrong memory card (its points are left
+    // unconfirmed, so the grid and report flag it); the fixed framing gives each specimen's series one scale,
+    // marked on the bar's ends in its first photo.
+    const [trial] = await tx.select({ protocol: s.trials.photoProtocol }).from(s.trials).where(eq(s.trials.id, ids.trialId));
+    for (let i = 0; i < rows.length; i += 100) {
+      await tx.insert(s.photoEvidence).values(rows.slice(i, i + 100).map((r) => ({
+        photoId: r.id!, labId: ids.labId, trialId: ids.trialId, protocolConfirmed: r.id === wrongCardPhoto ? [] : trial.protocol, recordedBy: ids.technicianId,
+      })));
+    }
+    await tx.insert(s.seriesScales).values([...bars].map(([specimenId, bar]) => ({
+      labId: ids.labId, trialId: ids.trialId, specimenId, pxPerMm: Math.hypot(bar.b.x - bar.a.x, bar.b.y - bar.a.y) / bar.lengthMm,
+      scaleSource: { kind: "points" as const, a: bar.a, b: bar.b, lengthMm: bar.lengthMm }, setBy: ids.technicianId,
+    })));
+    await recordAudit(tx, { labId: ids.labId, userId: ids.technicianId, entity: "photo", entityId: ids.trialId, trialId: ids.trialId, action: "create", summary: `Demo photos loaded (${rows.length}) with their protocol points and series scales`, after: { photos: rows.length } });
   });
   console.log(`[seed] ${rows.length} demo photos with previews in ${((Date.now() - t0) / 1000).toFixed(1)} s (painted rust within ${worstGap.toFixed(2)} points of the scores)`);
   return rows.length;
