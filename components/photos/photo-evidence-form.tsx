@@ -8,6 +8,7 @@ import { startTransition, useActionState, useState } from "react";
 import { savePhotoEvidenceAction } from "@/app/_actions/photo-evidence";
 import type { ActionState } from "@/lib/auth/action";
 import { SCALE_MODES } from "@/lib/validation/photo-evidence";
+import { ScalePointPicker } from "./scale-point-picker";
 
 type Props = {
   photoId: string;
@@ -15,6 +16,8 @@ type Props = {
   protocol: string[];
   confirmed: string[];
   hasOwnScale: boolean;
+  /** The photo's display copy and original size, to click the bar's ends on it. */
+  picker?: { src: string; width: number; height: number } | null;
 };
 
 function FieldError({ id, state, field }: { id: string; state?: ActionState; field: string }) {
@@ -35,7 +38,7 @@ function NumberInput({ id, name, label, state, defaultValue }: { id: string; nam
   );
 }
 
-export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnScale }: Props) {
+export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnScale, picker }: Props) {
   const [state, action, pending] = useActionState(savePhotoEvidenceAction, undefined);
   const [mode, setMode] = useState<keyof typeof SCALE_MODES>((state?.values?.scaleMode as keyof typeof SCALE_MODES) ?? (hasOwnScale ? "keep" : "none"));
   const id = `ev-${photoId}`;
@@ -78,6 +81,7 @@ export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnSc
             <NumberInput id={id} name="y2" label="End 2 y (px)" state={state} />
             <NumberInput id={id} name="lengthMm" label="Length between (mm)" state={state} defaultValue="10" />
           </div>
+          {picker && <ScalePointPicker fieldId={id} src={picker.src} width={picker.width} height={picker.height} />}
           <FieldError id={`${id}-points-err`} state={state} field="points" />
           <FieldError id={`${id}-lengthMm-err`} state={state} field="lengthMm" />
         </div>

@@ -101,7 +101,8 @@ export default async function InspectionPhotosPage({ params }: { params: Promise
                       <summary className="cursor-pointer text-xs underline underline-offset-2">Protocol and scale</summary>
                       <div className="pt-2">
                         <PhotoEvidenceForm photoId={p.id} name={access.blind ? `the photo of ${p.specimenLabel}` : `${p.specimenLabel} (${p.filename})`}
-                          protocol={trial.photoProtocol} confirmed={evidence.get(p.id)?.confirmed ?? []} hasOwnScale={evidence.get(p.id)?.ownPxPerMm != null} />
+                          protocol={trial.photoProtocol} confirmed={evidence.get(p.id)?.confirmed ?? []} hasOwnScale={evidence.get(p.id)?.ownPxPerMm != null}
+                          picker={p.displayUrl && p.width && p.height ? { src: p.displayUrl, width: p.width, height: p.height } : null} />
                       </div>
                     </details>
                   )}
