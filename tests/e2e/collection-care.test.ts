@@ -85,7 +85,7 @@ describe("collection care walk", () => {
 
     // The overview lists the room as often out of rule (10 % of its 30 days > 5 %), and the report names the rule's source.
     await page.goto(`${APP_URL}/collection/overview`);
-    const roomRow = page.locator("tr", { has: page.getByRole("link", { name: "Walk room" }) });
+    const roomRow = page.locator("tr", { has: page.getByRole("link", { name: "Walk room", exact: true }) });
     await expect(roomRow.textContent()).resolves.toContain("Often out of rule (last 30 days)");
     await expect(page.locator("tbody tr").first().textContent()).resolves.toContain("Walk room");
     await expect(roomRow.locator("svg[role=img]").count()).resolves.toBe(1);
