@@ -49,7 +49,7 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
           </table>
           <p className="text-xs muted">
             Each reading holds until the next; gaps longer than the logger&apos;s usual interval allows are not counted, as on a chamber&apos;s
-            climate record. Hygrometer corrections apply from each check on.
+            climate record, with the same hygrometer corrections (drift between checks, the nearest check held before the first and after the last).
           </p>
           {exceedances.length > 0 ? (
             <details>
