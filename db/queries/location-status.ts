@@ -2,7 +2,7 @@ import "server-only";
 import { and, asc, desc, eq, gte, inArray, isNull, sql } from "drizzle-orm";
 import { isStorageKind } from "@/lib/collection/locations";
 import {
-  locationNeeds, needRank, ruleBand, rulesForObject, strictestRule, TIME_IN_RULE_DAYS, timeInRuleOf, type LocationNeed, type TimeInRule,
+  locationNeeds, locationRule, needRank, ruleBand, TIME_IN_RULE_DAYS, timeInRuleOf, type LocationNeed, type TimeInRule,
 } from "@/lib/collection/rule-status";
 import type { Excursion } from "@/lib/climate/band-stats";
 import { desiccantStatus } from "@/lib/humidity/desiccant-status";
@@ -51,7 +51,7 @@ export async function rulesOfLocations({ labId, locationIds, rules }: { labId: s
   ]);
   const out = new Map<string, (typeof current)[number]>();
   for (const id of locationIds) {
-    const rule = strictestRule((held.get(id) ?? []).flatMap((o) => rulesForObject(o, current)));
+    const { rule } = locationRule(held.get(id) ?? [], current);
     if (rule) out.set(id, rule);
   }
   return out;
@@ -90,8 +90,7 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
       .where(and(eq(readings.labId, labId), eq(readings.chamberId, locationId))).orderBy(desc(readings.takenAt)).limit(1),
     location.kind === "desiccant" ? db.select().from(desiccantEvents).where(and(eq(desiccantEvents.labId, labId), eq(desiccantEvents.chamberId, locationId))) : Promise.resolve([]),
   ]);
-  const objectRules = held.map((o) => ({ o, rule: strictestRule(rulesForObject(o, rules)) }));
-  const rule = strictestRule(objectRules.flatMap((x) => (x.rule ? [x.rule] : [])));
+  const { perObject: objectRules, rule } = locationRule(held, rules);
   const windows: TimeInRule[] = [];
   let exceedances: Excursion[] = [];
   let max30: number | null = null;
@@ -107,8 +106,8 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
     max30 = stats[1].maxRhPercent;
   }
   const atRisk = objectRules
-    .filter((x) => x.rule && !hidden.has(x.o.id) && max30 !== null && max30 > x.rule.thresholdRhPercent)
-    .map((x) => ({ id: x.o.id, label: x.o.label, accessionNumber: x.o.accessionNumber, thresholdRhPercent: x.rule!.thresholdRhPercent, ruleStatement: x.rule!.statement }));
+    .filter((x) => x.rule && !hidden.has(x.object.id) && max30 !== null && max30 > x.rule.thresholdRhPercent)
+    .map((x) => ({ id: x.object.id, label: x.object.label, accessionNumber: x.object.accessionNumber, thresholdRhPercent: x.rule!.thresholdRhPercent, ruleStatement: x.rule!.statement }));
   let desiccantDueAt: Date | null = null;
   if (location.kind === "desiccant") {
     const holdAt = rule ? rule.thresholdRhPercent : location.setpointRhPercent;

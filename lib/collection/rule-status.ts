@@ -2,7 +2,8 @@
 // time in rule over the last days, each exceedance, and what needs a keeper's attention. Pure: the
 // caller loads readings, rules and upkeep. "In rule" means RH at or below the rule's threshold; the
 // time arithmetic (step readings, gaps not counted) is the chambers' (lib/climate/band-stats.ts).
-import { bandStats, type BandStats, type ClimateReading, type Excursion, type RhBand } from "@/lib/climate/band-stats";
+import { ANY_TREATMENT } from "@/lib/validation/storage-rules";
+import type { BandStats, ClimateReading, Excursion, RhBand } from "@/lib/climate/band-stats";
 
 /** The windows the product reports time in rule over. */
 export const TIME_IN_RULE_DAYS = [7, 30, 365] as const;
@@ -10,8 +11,6 @@ export const TIME_IN_RULE_DAYS = [7, 30, 365] as const;
 export const NO_READINGS_AFTER_HOURS = 48;
 /** Default: an e-mail when a location stays out of rule this long. */
 export const DEFAULT_ALERT_AFTER_HOURS = 6;
-/** Default readings gap that is not counted (the logger was off): the chambers' default. */
-export const DEFAULT_MAX_GAP_MINUTES = 60;
 
 export interface RuleThreshold {
   thresholdRhPercent: number;
@@ -49,20 +48,9 @@ export interface TimeInRule {
 }
 
 /**
- * Time in rule over readings already cut to the window (the chambers' rule: the readings taken within
- * it, db/queries/readings-series), so a location's figures and a chamber's are counted the same way.
+ * Time in rule from band statistics against the rule's band (ruleBand), counted by the chambers' rule
+ * over the readings taken within the window (db/queries/readings-series getBandWindowStats).
  */
-export function timeInRule(
-  readings: readonly ClimateReading[],
-  thresholdRhPercent: number,
-  days: number,
-  maxGapMinutes = DEFAULT_MAX_GAP_MINUTES,
-): TimeInRule {
-  if (!(days > 0)) throw new RangeError(`The window must be a positive number of days, got ${days}.`);
-  return timeInRuleOf(bandStats(readings, ruleBand(thresholdRhPercent), { maxGapMinutes }), days);
-}
-
-/** Time in rule from band statistics against the rule's band (however the readings were read). */
 export function timeInRuleOf(stats: Pick<BandStats, "fractionInBand" | "countedMinutes" | "inBandMinutes" | "excursions">, days: number): TimeInRule {
   return {
     days,
@@ -131,8 +119,7 @@ export interface RuleForMatch extends RuleThreshold {
   treatmentName: string;
 }
 
-/** The name an entered rule carries when it holds for a material under any treatment (lib/validation/storage-rules). */
-const ANY = "any treatment";
+const ANY = ANY_TREATMENT.toLowerCase();
 
 /** An object's treatments as listed in the register: one per line, or separated by commas or semicolons. */
 export function treatmentNames(treatmentsApplied: string): string[] {
@@ -153,4 +140,10 @@ export function rulesForObject<R extends RuleForMatch>(object: { materialClass: 
     if (applied.length === 0) return /\b(uncoated|untreated|bare|none)\b/.test(name);
     return applied.includes(name);
   });
+}
+
+/** Each object's own rule (the strictest that holds for it) and the location's: the strictest of those. */
+export function locationRule<O extends { materialClass: string; treatmentsApplied: string }, R extends RuleForMatch>(objects: readonly O[], rules: readonly R[]) {
+  const perObject = objects.map((object) => ({ object, rule: strictestRule(rulesForObject(object, rules)) }));
+  return { perObject, rule: strictestRule(perObject.flatMap((x) => (x.rule ? [x.rule] : []))) };
 }

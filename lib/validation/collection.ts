@@ -35,10 +35,12 @@ export const moveObjectSchema = z
   .transform((v) => ({ specimenId: v.specimenId, locationId: v.locationId, at: localToInstant(v.at, v.timeZone)!, reason: v.reason }));
 export type MoveObjectInput = z.output<typeof moveObjectSchema>;
 
+const overviewShareSchema = z.coerce.number().min(0).max(100);
+
 /** The overview's share (% of the last 30 days out of rule) from the URL: a bad value falls back to the default, with a sentence saying so. */
 export function overviewShare(raw: string | undefined, fallback: number): { share: number; problem: string | null } {
   if (raw === undefined || raw === "") return { share: fallback, problem: null };
-  const v = Number(raw);
-  if (!Number.isFinite(v) || v < 0 || v > 100) return { share: fallback, problem: `The share must be a number from 0 to 100 %; showing ${+(fallback * 100).toFixed(2)} %.` };
-  return { share: v / 100, problem: null };
+  const parsed = overviewShareSchema.safeParse(raw);
+  if (!parsed.success) return { share: fallback, problem: `The share must be a number from 0 to 100 %; showing ${+(fallback * 100).toFixed(2)} %.` };
+  return { share: parsed.data / 100, problem: null };
 }

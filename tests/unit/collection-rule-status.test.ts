@@ -1,8 +1,8 @@
 import { describe, expect, it } from "vitest";
 import { createRng } from "@/lib/allocation/prng";
-import type { ClimateReading } from "@/lib/climate/band-stats";
+import { bandStats, type ClimateReading } from "@/lib/climate/band-stats";
 import {
-  exceedancesToAlert, locationNeeds, needRank, ruleBand, rulesForObject, strictestRule, timeInRule,
+  exceedancesToAlert, locationNeeds, needRank, ruleBand, rulesForObject, strictestRule, timeInRuleOf,
 } from "@/lib/collection/rule-status";
 
 // Reference: a direct count over the raw readings, minute by minute. A reading holds until the next
@@ -53,7 +53,7 @@ describe("time in rule equals a direct count over the raw readings", () => {
     for (const threshold of [30, 40, 55]) {
       it(`${days} days, threshold ${threshold} %RH`, () => {
         const w = within(days);
-        const result = timeInRule(w, threshold, days, 60);
+        const result = timeInRuleOf(bandStats(w, ruleBand(threshold), { maxGapMinutes: 60 }), days);
         const direct = directCount(w, threshold, w[0].takenAt.getTime(), now.getTime(), 60);
         expect(result.countedMinutes).toBeCloseTo(direct.counted, 6);
         expect(result.outOfRuleMinutes).toBeCloseTo(direct.out, 6);
@@ -74,7 +74,7 @@ describe("time in rule equals a direct count over the raw readings", () => {
   }
 
   it("the 365-day window holds everything there is", () => {
-    const result = timeInRule(within(365), 40, 365, 60);
+    const result = timeInRuleOf(bandStats(within(365), ruleBand(40), { maxGapMinutes: 60 }), 365);
     const direct = directCount(readings.filter((r) => r.takenAt <= now), 40, T0, now.getTime(), 60);
     expect(result.countedMinutes).toBeCloseTo(direct.counted, 6);
     expect(result.outOfRuleMinutes).toBeCloseTo(direct.out, 6);
