@@ -101,7 +101,7 @@ export function HygrometerCheckForm({ chamberId, instruments, defaultSalt, defau
       <WhenField name="checkedAt" id="hc-checkedAt" label="Checked at" error={state?.errors?.checkedAt} defaultValue={state?.values?.checkedAt} />
       <label className="flex items-start gap-2 text-sm">
         <input type="checkbox" name="apply" className="mt-1" />
-        <span>Apply the check: correct this instrument&apos;s readings (the chamber chart applies it, offset and slope, from this time on; a trial&apos;s exposure figures interpolate between checks and hold the nearest check before the first and after the last). The logged values stay as they are.</span>
+        <span>Apply the check: correct this instrument&apos;s readings by its offset and slope. The chart, its statistics and a trial&apos;s exposure figures all interpolate between applied checks and hold the nearest check before the first and after the last. The logged values stay as they are.</span>
       </label>
       <TextField name="notes" id="hc-notes" label="Notes" multiline error={state?.errors?.notes} value={state?.values?.notes} />
       <FormMessage state={state} />

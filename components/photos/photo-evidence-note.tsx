@@ -16,7 +16,9 @@ export function ProtocolFlag({ evidence, compact }: { evidence: EvidenceNote | u
   );
 }
 
-export function ScaleNote({ evidence }: { evidence: EvidenceNote | undefined }) {
+/** `blind`: only whether a scale is recorded; its value (shared by a specimen's series) would tie photos together. */
+export function ScaleNote({ evidence, blind }: { evidence: EvidenceNote | undefined; blind?: boolean }) {
   if (!evidence?.scale) return <p className="text-xs muted">No scale: areas stay in % only.</p>;
+  if (blind) return <p className="text-xs muted">Scale recorded for this photo.</p>;
   return <p className="text-xs muted" data-px-per-mm={evidence.scale.pxPerMm}>Scale {evidence.scale.pxPerMm.toFixed(2)} px/mm{evidence.scale.from === "series" ? " (series scale)" : ""}</p>;
 }

@@ -36,7 +36,7 @@ export function SpecimenForm({ specimen }: { specimen?: Specimen }) {
         <Field name="parentPiece" label="Parent piece" state={state} defaultValue={specimen?.parentPiece} hint="The piece this was cut from, e.g. Tarrow mass 2 end piece. Slices of one parent can be balanced across arms." />
         <Field name="slice" label="Slice" state={state} defaultValue={specimen?.slice} hint="This slice's mark on the parent piece, e.g. S3." />
         <Field name="accessionNumber" label="Accession number" state={state} defaultValue={specimen?.accessionNumber ?? ""} hint="The collection's register number, if it has one." />
-        <SelectField name="chlorideState" label="Chloride state" options={chlorideOptions} state={state} defaultValue={specimen?.chlorideState ?? "unknown"} />
+        <SelectField name="chlorideState" label="Chloride condition (register)" options={chlorideOptions} state={state} defaultValue={specimen?.chlorideState ?? "unknown"} hint="The collection record's summary. Allocation blocks and the humidity covariates use the dated chloride tests in the specimen history instead." />
       </div>
       <fieldset className="space-y-2" aria-describedby={prepErr ? "prep-err" : undefined}>
         <legend className="text-sm font-medium">Surface preparation</legend>

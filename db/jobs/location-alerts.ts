@@ -4,7 +4,7 @@
 // in location_alerts; sending marks the claim. A scan after a worker restart finds the claims and
 // sends nothing twice; a failed mail stays unsent, the scan throws and pg-boss retries it. Keepers
 // who chose the digest get one e-mail a day listing their new exceedances instead.
-import { and, asc, eq, inArray, isNull, lt } from "drizzle-orm";
+import { and, asc, eq, inArray, isNull, lt, sql } from "drizzle-orm";
 import { exceedancesToAlert, ruleBand } from "@/lib/collection/rule-status";
 import { isStorageKind } from "@/lib/collection/locations";
 import { formatDateTime } from "@/lib/format";
@@ -12,7 +12,8 @@ import { appUrl, sendMail } from "@/lib/mail/send";
 import { db } from "../client";
 import { getBandWindowStats } from "../queries/readings-series";
 import { rulesOfLocations } from "../queries/location-status";
-import { chambers, locationAlerts, users } from "../schema";
+import { blindTrialIds } from "../queries/trial-access";
+import { chambers, locationAlerts, memberships, storageRules, users } from "../schema";
 
 export const MAX_SEND_ATTEMPTS = 25;
 const DAY_MS = 86_400_000;
@@ -44,11 +45,21 @@ export async function claimLocationAlerts(now = new Date(), labId?: string) {
   for (const [lab, locs] of byLab) {
     const byId = new Map(locs.map((l) => [l.id, l]));
     const watched = locs.filter((l) => isStorageKind(l.locationKind) && !l.archivedAt);
-    const rules = await rulesOfLocations({ labId: lab, locationIds: watched.map((l) => l.id) });
     const keepers = [...new Set(watched.map((l) => keeperOf(l.id, byId)).filter((k): k is string => k !== null))];
     if (keepers.length === 0) continue;
-    const recipients = await db.select({ id: users.id, digest: users.collectionDigest }).from(users).where(inArray(users.id, keepers));
+    // Only keepers who are still members of the lab get mail about its store.
+    const recipients = await db.select({ id: users.id, digest: users.collectionDigest }).from(users)
+      .innerJoin(memberships, and(eq(memberships.userId, users.id), eq(memberships.labId, lab))).where(inArray(users.id, keepers));
     const digest = new Map(recipients.map((r) => [r.id, r.digest]));
+    // Each keeper's locations are judged by the rules that keeper may see: not those resting on a trial they score blind.
+    const current = await db.select().from(storageRules).where(and(eq(storageRules.labId, lab), isNull(storageRules.supersededAt)));
+    const rules = new Map<string, (typeof current)[number]>();
+    for (const keeper of digest.keys()) {
+      const blind = await blindTrialIds({ labId: lab, userId: keeper });
+      const theirs = watched.filter((l) => keeperOf(l.id, byId) === keeper).map((l) => l.id);
+      const seen = current.filter((r) => !r.sourceTrialIds.some((id) => blind.has(id)));
+      for (const [id, rule] of await rulesOfLocations({ labId: lab, locationIds: theirs, rules: seen })) rules.set(id, rule);
+    }
     for (const l of watched) {
       const rule = rules.get(l.id);
       const keeper = keeperOf(l.id, byId);
@@ -76,7 +87,7 @@ export async function sendLocationAlert(alertId: string): Promise<"sent" | "alre
     .from(locationAlerts).innerJoin(users, eq(users.id, locationAlerts.recipientId)).innerJoin(chambers, eq(chambers.id, locationAlerts.locationId))
     .where(eq(locationAlerts.id, alertId));
   if (!a || a.alert.sentAt) return "already-sent";
-  await db.update(locationAlerts).set({ attempts: a.alert.attempts + 1 }).where(eq(locationAlerts.id, alertId));
+  await db.update(locationAlerts).set({ attempts: sql`${locationAlerts.attempts} + 1` }).where(eq(locationAlerts.id, alertId));
   await sendMail({
     to: a.email,
     labId: a.alert.labId,

@@ -213,7 +213,7 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
       : Promise.resolve([] as (typeof readings.$inferSelect)[]),
     db.select().from(storageRules).where(and(eq(storageRules.labId, labId), sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})`))
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
-    loadHistoryRows({ labId, specimenIds }),
+    loadHistoryRows({ labId, specimenIds, untilDay: until.toISOString().slice(0, 10) }),
   ]);
   const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.specimenId })) });
   const scoreRowsMm2 = scoreRows.map((r, i) => ({ ...r, areaMm2: scaled[i].areaMm2 }));

@@ -44,7 +44,7 @@ type Held = { id: string; label: string; accessionNumber: string | null; materia
  * The rule each storage location takes now: the strictest current rule of the objects it holds
  * (rules read without a viewer, for the alert scan; pages pass the viewer's rules).
  */
-export async function rulesOfLocations({ labId, locationIds, rules }: { labId: string; locationIds: readonly string[]; rules?: readonly StorageRuleView[] }) {
+export async function rulesOfLocations<R extends typeof storageRules.$inferSelect>({ labId, locationIds, rules }: { labId: string; locationIds: readonly string[]; rules?: readonly R[] }) {
   const [current, held] = await Promise.all([
     rules ?? db.select().from(storageRules).where(and(eq(storageRules.labId, labId), isNull(storageRules.supersededAt))),
     heldObjects(labId, locationIds),
@@ -81,7 +81,7 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
   shared?: { rules: StorageRuleView[]; hidden: Set<string>; held: Map<string, Held[]> };
 }): Promise<LocationRuleStatus> {
   const location = await getChamber({ labId, chamberId: locationId });
-  const [rules, held, hidden, keeper, last, events] = await Promise.all([
+  const [rules, allHeld, hidden, keeper, last, events] = await Promise.all([
     shared?.rules ?? listStorageRules({ labId, userId }).then((r) => r.filter((x) => x.current)),
     shared ? shared.held.get(locationId) ?? [] : heldObjects(labId, [locationId]).then((m) => m.get(locationId) ?? []),
     shared?.hidden ?? hiddenObjectIds({ labId, userId }),
@@ -90,6 +90,8 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
       .where(and(eq(readings.labId, labId), eq(readings.chamberId, locationId))).orderBy(desc(readings.takenAt)).limit(1),
     location.kind === "desiccant" ? db.select().from(desiccantEvents).where(and(eq(desiccantEvents.labId, labId), eq(desiccantEvents.chamberId, locationId))) : Promise.resolve([]),
   ]);
+  // Objects whose place the viewer may not see (a trial scored blind) count for nothing on this page.
+  const held = allHeld.filter((o) => !hidden.has(o.id));
   const { perObject: objectRules, rule } = locationRule(held, rules);
   const windows: TimeInRule[] = [];
   let exceedances: Excursion[] = [];
@@ -106,7 +108,7 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
     max30 = stats[1].maxRhPercent;
   }
   const atRisk = objectRules
-    .filter((x) => x.rule && !hidden.has(x.object.id) && max30 !== null && max30 > x.rule.thresholdRhPercent)
+    .filter((x) => x.rule && max30 !== null && max30 > x.rule.thresholdRhPercent)
     .map((x) => ({ id: x.object.id, label: x.object.label, accessionNumber: x.object.accessionNumber, thresholdRhPercent: x.rule!.thresholdRhPercent, ruleStatement: x.rule!.statement }));
   let desiccantDueAt: Date | null = null;
   if (location.kind === "desiccant") {
@@ -119,7 +121,7 @@ export async function getLocationRuleStatus({ labId, userId, locationId, now = n
     outOfRuleShareLimit: outOfRuleShare, desiccantDueAt,
   });
   return {
-    location, keeperName: keeper[0]?.name ?? null, objectCount: held.filter((o) => !hidden.has(o.id)).length, rule, windows, exceedances,
+    location, keeperName: keeper[0]?.name ?? null, objectCount: held.length, rule, windows, exceedances,
     max30dRhPercent: max30, atRisk, lastReading, desiccantDueAt, needs: held.length === 0 ? needs.filter((n) => n !== "no-rule") : needs,
   };
 }

@@ -162,7 +162,7 @@ async function windowSeries(snap: Snapshot, { labId, chamberId, band, fromMs, to
  * chamber page (time-weighted mean RH, time in band), from the same readings and offsets.
  */
 export async function getChamberWindowStats({ labId, chamber, from, to }: { labId: string; chamber: Pick<Chamber, "id" | "setpointRhPercent" | "toleranceRhPercent">; from: Date; to: Date }) {
-  const band: RhBand = { minRh: Math.max(0, chamber.setpointRhPercent - chamber.toleranceRhPercent), maxRh: Math.min(100, chamber.setpointRhPercent + chamber.toleranceRhPercent) };
+  const band = chamberBand(chamber);
   return getBandWindowStats({ labId, chamberId: chamber.id, band, from, to });
 }
 

@@ -2,7 +2,7 @@ import "server-only";
 // A specimen's history: chloride tests, akaganeite checks, prior treatments and weighings. Rules
 // (exact masses, mass change, chloride state) come from lib/specimens/history.ts; what a blind
 // scorer may see from lib/trials/access.ts.
-import { and, asc, eq, inArray } from "drizzle-orm";
+import { and, asc, eq, inArray, lte } from "drizzle-orm";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
@@ -124,16 +124,21 @@ export async function loadHistoryFactors({ labId, specimenIds, before }: { labId
 }
 
 /** Every history entry of the given specimens of the lab, by specimen and date (the data package's history tables). */
-export async function loadHistoryRows({ labId, specimenIds }: { labId: string; specimenIds: readonly string[] }) {
+/**
+ * Every history entry of the specimens, oldest first; with `untilDay` (YYYY-MM-DD) only those dated up to
+ * that day: a trial's data package stops at the trial's end, so entries made while a specimen sat in a
+ * later trial (which the downloader may score blind) are not in it.
+ */
+export async function loadHistoryRows({ labId, specimenIds, untilDay }: { labId: string; specimenIds: readonly string[]; untilDay?: string }) {
   const ids = [...new Set(specimenIds)].filter(isUuid);
   const none = { chlorideTestRows: [], akaganeiteCheckRows: [], priorTreatmentRows: [], massMeasurementRows: [] };
   if (ids.length === 0) return none;
-  const theirs = (t: { labId: PgColumn; specimenId: PgColumn }) => and(eq(t.labId, labId), inArray(t.specimenId, ids));
+  const theirs = (t: { labId: PgColumn; specimenId: PgColumn }, on: PgColumn) => and(eq(t.labId, labId), inArray(t.specimenId, ids), untilDay ? lte(on, untilDay) : undefined);
   const [chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows] = await Promise.all([
-    db.select().from(chlorideTests).where(theirs(chlorideTests)).orderBy(asc(chlorideTests.specimenId), asc(chlorideTests.testedOn), asc(chlorideTests.createdAt)),
-    db.select().from(akaganeiteChecks).where(theirs(akaganeiteChecks)).orderBy(asc(akaganeiteChecks.specimenId), asc(akaganeiteChecks.checkedOn), asc(akaganeiteChecks.createdAt)),
-    db.select().from(priorTreatments).where(theirs(priorTreatments)).orderBy(asc(priorTreatments.specimenId), asc(priorTreatments.treatedOn), asc(priorTreatments.createdAt)),
-    db.select().from(massMeasurements).where(theirs(massMeasurements)).orderBy(asc(massMeasurements.specimenId), asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
+    db.select().from(chlorideTests).where(theirs(chlorideTests, chlorideTests.testedOn)).orderBy(asc(chlorideTests.specimenId), asc(chlorideTests.testedOn), asc(chlorideTests.createdAt)),
+    db.select().from(akaganeiteChecks).where(theirs(akaganeiteChecks, akaganeiteChecks.checkedOn)).orderBy(asc(akaganeiteChecks.specimenId), asc(akaganeiteChecks.checkedOn), asc(akaganeiteChecks.createdAt)),
+    db.select().from(priorTreatments).where(theirs(priorTreatments, priorTreatments.treatedOn)).orderBy(asc(priorTreatments.specimenId), asc(priorTreatments.treatedOn), asc(priorTreatments.createdAt)),
+    db.select().from(massMeasurements).where(theirs(massMeasurements, massMeasurements.measuredOn)).orderBy(asc(massMeasurements.specimenId), asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
   ]);
   return { chlorideTestRows, akaganeiteCheckRows, priorTreatmentRows, massMeasurementRows };
 }

@@ -20,7 +20,7 @@ export const chambers = pgTable("chambers", {
   roomRhPercent: doublePrecision("room_rh_percent"),
   notes: text("notes").notNull().default(""),
   // The collection tree (lib/collection/locations.ts): a trial jar is a location used in a trial.
-  // Same lab and no cycles are checked by the trigger of migration 0017 as well as by the queries.
+  // Same lab and no cycles are checked by the trigger of migration 0022 as well as by the queries.
   locationKind: locationKindEnum("location_kind").notNull().default("trial-jar"),
   parentId: uuid("parent_id").references((): AnyPgColumn => chambers.id, { onDelete: "restrict" }),
   keeperId: uuid("keeper_id").references(() => users.id, { onDelete: "set null" }),

@@ -1,6 +1,6 @@
 // Where each object of the register (a specimen) is kept: one row per stay in a storage location.
 // An object is in one place at a time: the partial unique index allows one open stay per object and
-// the exclusion constraint of migration 0017 (btree_gist) refuses any two overlapping stays.
+// the exclusion constraint of migration 0022 (btree_gist) refuses any two overlapping stays.
 import { sql } from "drizzle-orm";
 import { check, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";

@@ -30,7 +30,7 @@ export const moveObjectSchema = z
     reason: z.preprocess((v) => v ?? "", z.string().trim().max(500, "Use at most 500 characters.")),
   })
   .superRefine((v, ctx) => {
-    if (!localToInstant(v.at, v.timeZone)) ctx.addIssue({ code: "custom", path: ["at"], message: "Enter a date and time such as 2025-03-01 14:30." });
+    if (v.at && !localToInstant(v.at, v.timeZone)) ctx.addIssue({ code: "custom", path: ["at"], message: "Enter a date and time such as 2025-03-01 14:30." });
   })
   .transform((v) => ({ specimenId: v.specimenId, locationId: v.locationId, at: localToInstant(v.at, v.timeZone)!, reason: v.reason }));
 export type MoveObjectInput = z.output<typeof moveObjectSchema>;

@@ -3,6 +3,7 @@
 import { z } from "zod";
 import { DEFAULT_RESPONSE_OPTIONS, type ResponseOptions } from "@/lib/analysis/humidity-result";
 import { RESPONSE_COVARIATES } from "@/lib/analysis/humidity-covariates";
+import { latestToday } from "@/lib/specimens/history";
 import { MATERIAL_CLASSES } from "./specimens";
 
 const YEAR_DAYS = 365.25;
@@ -84,6 +85,6 @@ export const enterRuleSchema = z.object({
   sourceDate: z.iso.date({ error: "Enter the source's date as YYYY-MM-DD." }),
   note: z.string().trim().max(2000, "Keep the note under 2,000 characters.").default(""),
 }).superRefine((v, ctx) => {
-  if (v.sourceDate > new Date().toISOString().slice(0, 10)) ctx.addIssue({ code: "custom", path: ["sourceDate"], message: "The source's date cannot be in the future." });
+  if (v.sourceDate > latestToday()) ctx.addIssue({ code: "custom", path: ["sourceDate"], message: "The source's date cannot be in the future." });
 });
 export type EnterRuleInput = z.infer<typeof enterRuleSchema>;

@@ -82,7 +82,7 @@ export default async function SpecimenPage({ params, searchParams }: { params: P
         </dl>
         <dl className="grid gap-4 md:grid-cols-4 mt-4">
           <Fact term="Accession number">{specimen.accessionNumber}</Fact>
-          <Fact term="Chloride state">{CHLORIDE_STATE_LABELS[specimen.chlorideState]}</Fact>
+          <Fact term="Chloride condition (register)">{CHLORIDE_STATE_LABELS[specimen.chlorideState]}</Fact>
           <Fact term="Treatments applied">{specimen.treatmentsApplied}</Fact>
           <Fact term="Storage notes">{specimen.storageNotes}</Fact>
         </dl>

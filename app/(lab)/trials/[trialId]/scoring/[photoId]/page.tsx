@@ -31,7 +31,8 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
   const canScore = can(ctx.role, "scores.write") && !access.locked;
   // This photo's own patch only: one carried over from an earlier photo would tie it to its specimen.
   const initialPatch = await colourPatchForPage({ labId: ctx.labId, photoId: view.photo.id, previous: false });
-  // Protocol points and scale are the trial's and the photo's own; they name no specimen or treatment.
+  // Protocol points are the trial's and the photo's own; the scale's value is not shown here, since a
+  // series scale is shared by every photo of a specimen and would tie them together.
   const lab = await getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound);
   const evidence = (await loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: [{ id: photoId, specimenId: lab.specimenId }] })).get(photoId);
 
@@ -47,7 +48,7 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
       <p className="text-sm muted">Specimen, treatment, chamber, day and earlier scores are hidden on purpose. Score only what the photo shows.</p>
       {access.locked && <p role="note" className="text-sm">This trial is concluded: scores are locked.</p>}
       {trial.photoProtocol.length > 0 && <ProtocolFlag evidence={evidence} />}
-      <ScaleNote evidence={evidence} />
+      <ScaleNote evidence={evidence} blind />
       {view.mine && (
         <section className="panel p-3 text-sm" aria-labelledby="saved-h">
           <h2 id="saved-h" className="font-semibold">Your saved score</h2>
