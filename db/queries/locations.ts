@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, count, eq, isNull, ne, sql } from "drizzle-orm";
+import { and, asc, eq, isNull, ne, sql } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { buildTree, isStorageKind, wouldCycle } from "@/lib/collection/locations";
 import type { LocationInput } from "@/lib/validation/collection";
@@ -10,19 +10,23 @@ import { getChamber } from "./chambers";
 
 export type LocationRow = { id: string; name: string; parentId: string | null; locationKind: string; kind: string; keeperName: string | null; archivedAt: Date | null; setpointRhPercent: number; toleranceRhPercent: number; objectCount: number };
 
-/** The lab's storage locations (trial jars left out) as a tree, each with the number of objects in it now. */
-export async function listLocationTree({ labId, archived = false }: { labId: string; archived?: boolean }) {
-  const [rows, counts] = await Promise.all([
+/**
+ * The lab's storage locations (trial jars left out) as a tree, each with the number of objects in it now
+ * that the viewer may see: `hidden` (hiddenObjectIds) are objects in a trial they score blind, whose place is hidden.
+ */
+export async function listLocationTree({ labId, hidden = new Set(), archived = false }: { labId: string; hidden?: ReadonlySet<string>; archived?: boolean }) {
+  const [rows, open] = await Promise.all([
     db.select({
       id: chambers.id, name: chambers.name, parentId: chambers.parentId, locationKind: chambers.locationKind, kind: chambers.kind,
       keeperName: users.name, archivedAt: chambers.archivedAt, setpointRhPercent: chambers.setpointRhPercent, toleranceRhPercent: chambers.toleranceRhPercent,
     }).from(chambers).leftJoin(users, eq(users.id, chambers.keeperId))
       .where(and(eq(chambers.labId, labId), ne(chambers.locationKind, "trial-jar"), archived ? undefined : isNull(chambers.archivedAt)))
       .orderBy(asc(chambers.name)),
-    db.select({ locationId: objectLocations.locationId, n: count() }).from(objectLocations)
-      .where(and(eq(objectLocations.labId, labId), isNull(objectLocations.toAt))).groupBy(objectLocations.locationId),
+    db.select({ locationId: objectLocations.locationId, specimenId: objectLocations.specimenId }).from(objectLocations)
+      .where(and(eq(objectLocations.labId, labId), isNull(objectLocations.toAt))),
   ]);
-  const n = new Map(counts.map((c) => [c.locationId, c.n]));
+  const n = new Map<string, number>();
+  for (const o of open) if (!hidden.has(o.specimenId)) n.set(o.locationId, (n.get(o.locationId) ?? 0) + 1);
   return buildTree<LocationRow>(rows.map((r) => ({ ...r, objectCount: n.get(r.id) ?? 0 })));
 }
 

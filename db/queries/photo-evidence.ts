@@ -103,9 +103,11 @@ export async function scaleScoreRows({ labId, trialId, protocol = [], rows }: { 
     photoIds.length ? db.select({ photoId: marks.photoId, scorerId: marks.scorerId, role: marks.role, geometry: marks.geometry }).from(marks)
       .where(and(eq(marks.labId, labId), inArray(marks.photoId, photoIds))).orderBy(asc(marks.seq), asc(marks.createdAt)) : [],
   ]);
+  const byPhoto = new Map<string, typeof markRows>();
+  for (const m of markRows) byPhoto.set(m.photoId, [...(byPhoto.get(m.photoId) ?? []), m]);
   return rows.map((r) => {
     const ev = r.photoId ? evidence.get(r.photoId) : undefined;
-    const onPhoto = markRows.filter((m) => m.photoId === r.photoId);
+    const onPhoto = (r.photoId ? byPhoto.get(r.photoId) : undefined) ?? [];
     // The face is the specimen's, whoever outlined it; the spots are the scorer's own.
     const faceRow = onPhoto.find((m) => m.role === "face" && m.scorerId === r.scorerId) ?? onPhoto.find((m) => m.role === "face");
     const face = faceRow && "points" in faceRow.geometry ? (faceRow.geometry.points as Point[]) : null;

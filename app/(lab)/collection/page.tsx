@@ -19,12 +19,12 @@ export default async function CollectionPage({ searchParams }: { searchParams: P
   const ctx = await labPage("/collection");
   const sp = await searchParams;
   const q = (sp.q ?? "").trim().slice(0, 100) || undefined;
-  const [tree, register, { places, hidden, inTrial }, members] = await Promise.all([
-    listLocationTree({ labId: ctx.labId }),
+  const [register, { places, hidden, inTrial }, members] = await Promise.all([
     listSpecimens({ labId: ctx.labId, q, sort: "label", dir: "asc", page: 1, pageSize: PAGE_SIZE }),
     currentPlaces(ctx),
     listMembers({ labId: ctx.labId }),
   ]);
+  const tree = await listLocationTree({ labId: ctx.labId, hidden });
   const flat = flattenTree(tree);
   const locationOptions = flat.map((n) => ({ value: n.id, label: n.path.join(" / ") }));
   return (
