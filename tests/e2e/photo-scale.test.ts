@@ -74,7 +74,7 @@ describe("photo protocol and scale", () => {
     // The recorded list picks the photo up, flagged for the points not ticked.
     const card = page.locator("figure", { hasText: filename });
     await expect.poll(async () => { await page.reload(); return card.count(); }, { timeout: 30_000 }).toBe(1);
-    await expect(card.locator("[data-protocol-flag]").getAttribute("data-protocol-flag")).resolves.toBe(String(trial.photoProtocol.length - 1));
+    await expect(card.locator("[data-protocol-flag]").first().getAttribute("data-protocol-flag")).resolves.toBe(String(trial.photoProtocol.length - 1));
     await card.locator("summary", { hasText: "Protocol and scale" }).click();
     const form = page.getByRole("form", { name: `Protocol and scale of ${specimen.label} (${filename})` });
     for (const line of trial.photoProtocol) await form.getByLabel(line, { exact: true }).check();
