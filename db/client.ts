@@ -58,7 +58,9 @@ export function getPool(): pg.Pool {
       // Named statements keep one generic plan instead of re-planning with each call's values: PostgreSQL's
       // "auto" mode kept re-planning the due list and the lab home (their date bounds make custom plans look
       // cheaper), which cost more than running them. Benchmarked on the large demo (README, Benchmarks).
-      options: "-c plan_cache_mode=force_generic_plan",
+      // JIT is off: the app's reads take milliseconds, but range scans over a year of readings are
+      // estimated high enough to trigger JIT compilation, which cost ~230 ms on the collection overview.
+      options: "-c plan_cache_mode=force_generic_plan -c jit=off",
     });
     // An idle client losing its server (a restart) must not crash the process.
     g.rustlinePool.on("error", (err) => console.error("[db] idle client error:", err.message));

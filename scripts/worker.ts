@@ -4,6 +4,7 @@ import { getBoss, QUEUES, stopBoss } from "@/db/jobs/queue";
 import { claimDueReminders, reclaimStaleReminders, sendReminder, type ReminderJob } from "@/db/jobs/reminders";
 import { runDesiccantScan } from "@/db/jobs/desiccant";
 import { runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
+import { refreshStaleLocationStatuses } from "@/db/queries/location-status";
 import { registerPhotoJobs } from "@/db/jobs/photos";
 import { closeDb } from "@/db/client";
 
@@ -37,7 +38,10 @@ async function main() {
   });
   await boss.schedule(QUEUES.desiccantScan, "17 * * * *", undefined, { retryLimit: 5, retryDelay: 60, retryBackoff: true });
   // Collection alerts: a scan every 10 minutes (claims are kept in the database, so a restart sends nothing twice); digests daily at 07:00 UTC.
+  // The same scan counts again every location status stored more than 5 minutes ago, so the overview reads stored counts.
   await boss.work(QUEUES.locationAlertScan, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
+    const counted = await refreshStaleLocationStatuses();
+    if (counted) console.log(`[worker] collection: ${counted} location status(es) counted`);
     const r = await runLocationAlertScan();
     if (r.claimed || r.sent) console.log(`[worker] collection alerts: ${r.claimed} claimed, ${r.sent} sent`);
   });

@@ -42,7 +42,7 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
                   <td className="text-right tabular-nums">{pct(w.fractionInRule)}</td>
                   <td className="text-right tabular-nums">{hours(w.outOfRuleMinutes)}</td>
                   <td className="text-right tabular-nums">{hours(w.countedMinutes)}</td>
-                  <td className="text-right tabular-nums">{w.exceedances.length}</td>
+                  <td className="text-right tabular-nums">{w.exceedanceCount}</td>
                 </tr>
               ))}
             </tbody>

@@ -96,14 +96,17 @@ async function saveRuleVersion({ actor, trialId, values, summary }: { actor: Act
   });
 }
 
-/** Rules of the lab with who accepted them, current first; rules resting on a trial the viewer scores blind are withheld. */
-export async function listStorageRules({ labId, userId, trialId }: { labId: string; userId: string; trialId?: string }) {
+/**
+ * Rules of the lab with who accepted them, current first; rules resting on a trial the viewer scores
+ * blind are withheld. userId null gives every rule (the stored location counts, which no viewer reads unfiltered).
+ */
+export async function listStorageRules({ labId, userId, trialId }: { labId: string; userId: string | null; trialId?: string }) {
   const [rows, blind] = await Promise.all([
     db.select({ rule: storageRules, acceptedByName: users.name }).from(storageRules)
       .leftJoin(users, eq(users.id, storageRules.acceptedBy))
       .where(and(eq(storageRules.labId, labId), trialId ? sql`${trialId}::uuid = any(${storageRules.sourceTrialIds})` : undefined))
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), desc(storageRules.version)),
-    blindTrialIds({ labId, userId }),
+    userId === null ? new Set<string>() : blindTrialIds({ labId, userId }),
   ]);
   return rows
     .filter((r) => !r.rule.sourceTrialIds.some((id) => blind.has(id)))

@@ -2,7 +2,7 @@
 // An object is in one place at a time: the partial unique index allows one open stay per object and
 // the exclusion constraint of migration 0022 (btree_gist) refuses any two overlapping stays.
 import { sql } from "drizzle-orm";
-import { check, doublePrecision, index, integer, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { check, doublePrecision, index, integer, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chambers } from "./chambers";
 import { specimens } from "./specimens";
@@ -46,3 +46,23 @@ export const locationAlerts = pgTable("location_alerts", {
   index("location_alerts_unsent_idx").on(t.sentAt, t.queuedAt),
   check("location_alerts_delivery", sql`${t.delivery} in ('each', 'digest')`),
 ]);
+
+// How each storage location kept its rule, as the last computation found it (db/queries/location-status):
+// the overview and a location's page read this instead of counting a year of readings on every request.
+// Computed for a viewer who sees every object and rule; viewers who score a trial blind get the
+// locations that hold its objects or rest on its rules computed for them. Triggers of migration 0025
+// delete a row when its past changes (readings at or before computed_at, checks, upkeep, moves, the
+// objects' register entries, rules, the location itself); readings appended later are looked at on read.
+export const locationStatus = pgTable("location_status", {
+  locationId: uuid("location_id").primaryKey().references(() => chambers.id, { onDelete: "cascade" }),
+  labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
+  computedAt: timestamp("computed_at", { withTimezone: true }).notNull(),
+  ruleId: uuid("rule_id"),
+  thresholdRhPercent: doublePrecision("threshold_rh_percent"),
+  /** Every rule that held for an object here, the strictest or not. */
+  ruleIds: uuid("rule_ids").array().notNull().default(sql`'{}'::uuid[]`),
+  /** What the overview shows (time in rule, last reading then, desiccant forecast, trace). */
+  summary: jsonb("summary").notNull(),
+  /** What a location's page and the report add (exceedances, objects at risk). */
+  detail: jsonb("detail").notNull(),
+}, (t) => [index("location_status_lab_idx").on(t.labId)]);

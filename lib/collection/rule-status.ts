@@ -147,3 +147,20 @@ export function locationRule<O extends { materialClass: string; treatmentsApplie
   const perObject = objects.map((object) => ({ object, rule: strictestRule(rulesForObject(object, rules)) }));
   return { perObject, rule: strictestRule(perObject.flatMap((x) => (x.rule ? [x.rule] : []))) };
 }
+
+/**
+ * Whether a location's stored count (time in rule, exceedances, objects at risk) still stands at
+ * `now`: counted at most maxAgeMs before it, and nothing logged since that could start or lengthen an
+ * exceedance — no reading since above the rule (sinceMaxRh: the highest logged RH since the count,
+ * null when none), and the location was not out of rule when counted. Readings in rule appended since
+ * only lengthen the time in rule until the next count. Changes to the past are the database's to
+ * catch (the stored row is deleted).
+ */
+export function storedCountStands(
+  stored: { computedAt: Date; thresholdRhPercent: number | null; lastAtCountRh: number | null }, sinceMaxRh: number | null, now: Date, maxAgeMs: number,
+): boolean {
+  const age = now.getTime() - stored.computedAt.getTime();
+  if (age < 0 || age > maxAgeMs) return false;
+  if (sinceMaxRh === null || stored.thresholdRhPercent === null) return true;
+  return sinceMaxRh <= stored.thresholdRhPercent && !(stored.lastAtCountRh !== null && stored.lastAtCountRh > stored.thresholdRhPercent);
+}

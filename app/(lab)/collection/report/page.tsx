@@ -16,7 +16,7 @@ export default async function CollectionReportPage({ searchParams }: { searchPar
   const ctx = await labPage("/collection/report");
   const { share } = overviewShare((await searchParams).share, DEFAULT_OUT_OF_RULE_SHARE);
   const now = new Date();
-  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share, now });
+  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share, now, detail: true });
   const rules = [...new Map(rows.flatMap((r) => (r.rule ? [[r.rule.id, r.rule] as const] : []))).values()];
   return (
     <article className="space-y-5 max-w-5xl">
@@ -54,7 +54,7 @@ export default async function CollectionReportPage({ searchParams }: { searchPar
             </thead>
             <tbody>
               {rows.map((r) => {
-                const longest = r.exceedances.reduce<(typeof r.exceedances)[number] | null>((a, e) => (!a || e.durationMinutes > a.durationMinutes ? e : a), null);
+                const longest = r.longestExceedance;
                 return (
                   <tr key={r.location.id}>
                     <th scope="row" className="text-left font-medium!">{r.path}</th>

@@ -13,7 +13,7 @@ export const GET = labRoute("export.read", async (ctx, req) => {
     path: r.path, objects: r.objectCount, thresholdRhPercent: r.rule?.thresholdRhPercent ?? null,
     ruleSource: r.rule ? (r.rule.origin === "entered" ? `${r.rule.source} (${r.rule.sourceDate})` : `accepted from trial(s), version ${r.rule.version}`) : "",
     needs: r.needs, inRule7d: r.windows[0]?.fractionInRule ?? null, inRule30d: r.windows[1]?.fractionInRule ?? null, inRule365d: r.windows[2]?.fractionInRule ?? null,
-    exceedances365d: r.exceedances.length, lastReadingAt: r.lastReading?.takenAt ?? null, lastRhPercent: r.lastReading?.rhPercent ?? null,
+    exceedances365d: r.windows[2]?.exceedanceCount ?? 0, lastReadingAt: r.lastReading?.takenAt ?? null, lastRhPercent: r.lastReading?.rhPercent ?? null,
     desiccantDueAt: r.desiccantDueAt, keeper: r.keeperName,
   })));
   return new Response(csv, {
