@@ -7,7 +7,7 @@ import type { VisualizationSpec } from "vega-embed";
 import { categoryScale } from "@/components/ui/chart-palette";
 import { EMBED_OPTIONS } from "./vega-embed-options";
 
-export type ChartPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; dewOver: "water" | "ice" | "logged" | null; instrument: string };
+import { unpackChart, type PackedChart } from "@/lib/climate/chart-pack";
 
 /** Series names: a computed value says which saturation it is over; a logged one is the logger's. */
 export const DEW_SERIES = { water: "Dew point (over water)", ice: "Frost point (over ice, below 0 °C)", logged: "Dew point (as logged)" } as const;
@@ -16,7 +16,8 @@ const TEMP_RANGE = ["#c95b1f", "#4a6fa5", "#6b4aa5", "#5f6873"];
 
 const AXIS = { labelColor: "#5f6873", titleColor: "#5f6873", gridColor: "#cfd3d744" };
 
-export default function ClimateChart({ points, band, corrected }: { points: ChartPoint[]; band: { minRh: number; maxRh: number }; corrected: boolean }) {
+export default function ClimateChart({ packed, band, corrected }: { packed: PackedChart; band: { minRh: number; maxRh: number }; corrected: boolean }) {
+  const points = useMemo(() => unpackChart(packed), [packed]);
   // Concatenated views cannot size to their container, so measure it (leaving room for the y axis).
   const box = useRef<HTMLDivElement>(null);
   const [boxWidth, setBoxWidth] = useState(0);

@@ -50,6 +50,8 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
           <p className="text-xs muted">
             Each reading holds until the next; gaps longer than the logger&apos;s usual interval allows are not counted, as on a chamber&apos;s
             climate record, with the same hygrometer corrections (drift between checks, the nearest check held before the first and after the last).
+            Counted at {formatDateTime(status.computedAt)}: again every 10 minutes, and at once when a reading above the rule arrives or past
+            readings, checks, upkeep, objects or rules change.
           </p>
           {exceedances.length > 0 ? (
             <details>

@@ -26,7 +26,8 @@ export const STATUS_MAX_AGE_MS = 15 * 60_000;
 export type ObjectAtRisk = { id: string; label: string; accessionNumber: string | null; thresholdRhPercent: number; ruleStatement: string };
 /** Time in rule over one window, as the overview shows it (the exceedances themselves are in the detail). */
 export type WindowSummary = Omit<TimeInRule, "exceedances"> & { exceedanceCount: number };
-export type RhTracePoint = { day: Date; maxRhPercent: number };
+/** A day (its start, ms since 1970 UTC) and its highest logged RH. */
+export type RhTracePoint = { dayMs: number; maxRhPercent: number };
 
 /** How one storage location keeps its rule, for the overview, the CSV and the report. */
 export type LocationSummary = {
@@ -133,7 +134,7 @@ async function dailyMaxima({ labId, locationIds, from }: { labId: string; locati
   const rows = await db.select({ chamberId: readingBlocks.chamberId, day, maxRh: sql<number>`max(${readingBlocks.maxRhPercent})` }).from(readingBlocks)
     .where(and(eq(readingBlocks.labId, labId), inArray(readingBlocks.chamberId, [...locationIds]), eq(readingBlocks.widthHours, 1), gte(readingBlocks.blockStart, from)))
     .groupBy(readingBlocks.chamberId, day).orderBy(readingBlocks.chamberId, day);
-  for (const r of rows) out.set(r.chamberId, [...(out.get(r.chamberId) ?? []), { day: new Date(r.day), maxRhPercent: Number(r.maxRh) }]);
+  for (const r of rows) out.set(r.chamberId, [...(out.get(r.chamberId) ?? []), { dayMs: new Date(r.day).getTime(), maxRhPercent: Number(r.maxRh) }]);
   return out;
 }
 
@@ -205,7 +206,7 @@ const longest = (list: readonly Excursion[]) => list.reduce<Excursion | null>((a
 type StoredExcursion = Omit<Excursion, "start" | "end"> & { start: string; end: string };
 type StoredSummary = {
   objectCount: number; windows: WindowSummary[]; longestExceedance: StoredExcursion | null; max30dRhPercent: number | null; atRiskCount: number;
-  lastAtCount: { takenAt: string; rhPercent: number } | null; desiccantDueAt: string | null; trace: [string, number][];
+  lastAtCount: { takenAt: string; rhPercent: number } | null; desiccantDueAt: string | null; trace: [number, number][];
 };
 type StoredDetail = { windowExceedances: StoredExcursion[][]; atRisk: ObjectAtRisk[] };
 
@@ -217,7 +218,7 @@ function toStored(c: Counted) {
     objectCount: c.objectCount, windows: c.windows, longestExceedance: c.longestExceedance ? storeExcursion(c.longestExceedance) : null,
     max30dRhPercent: c.max30dRhPercent, atRiskCount: c.atRiskCount,
     lastAtCount: c.lastAtCount ? { takenAt: c.lastAtCount.takenAt.toISOString(), rhPercent: c.lastAtCount.rhPercent } : null,
-    desiccantDueAt: c.desiccantDueAt?.toISOString() ?? null, trace: c.trace.map((p) => [p.day.toISOString(), p.maxRhPercent]),
+    desiccantDueAt: c.desiccantDueAt?.toISOString() ?? null, trace: c.trace.map((p) => [p.dayMs, p.maxRhPercent]),
   };
   const detail: StoredDetail = { windowExceedances: c.detail!.windowExceedances.map((l) => l.map(storeExcursion)), atRisk: c.detail!.atRisk };
   return { summary, detail };
@@ -234,7 +235,7 @@ function fromStored(row: StoredRow): Counted {
     max30dRhPercent: s.max30dRhPercent, atRiskCount: s.atRiskCount,
     detail: d ? { windowExceedances: d.windowExceedances.map((l) => l.map(readExcursion)), atRisk: d.atRisk } : null,
     lastAtCount: s.lastAtCount ? { takenAt: new Date(s.lastAtCount.takenAt), rhPercent: s.lastAtCount.rhPercent } : null,
-    desiccantDueAt: s.desiccantDueAt ? new Date(s.desiccantDueAt) : null, trace: s.trace.map(([day, maxRhPercent]) => ({ day: new Date(day), maxRhPercent })),
+    desiccantDueAt: s.desiccantDueAt ? new Date(s.desiccantDueAt) : null, trace: s.trace.map(([dayMs, maxRhPercent]) => ({ dayMs, maxRhPercent })),
   };
 }
 

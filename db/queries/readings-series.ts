@@ -3,6 +3,7 @@ import type { ClimateReading, RhBand } from "@/lib/climate/band-stats";
 import { bandStats, chamberBand, downsample, settleTimeMinutes } from "@/lib/climate/band-stats";
 import { condensationPointC } from "@/lib/humidity/psychrometrics";
 import type { Period } from "@/lib/validation/chambers";
+import type { ChartPoint } from "@/lib/climate/chart-pack";
 import type { Chamber } from "./chambers";
 import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, type Snapshot } from "./climate-sql";
 import {
@@ -15,8 +16,8 @@ import { applyOffsets, OffsetsUsed, OffsetTimeline, type OffsetInUse } from "@/l
  * dewC is the dew point over water when computed at or above 0.01 °C, the frost point over ice when
  * computed below it, or the logger's own dew point column ("logged": its convention is the logger's).
  */
-export type SeriesPoint = { t: number; rh: number; rhRaw: number; tempC: number | null; dewC: number | null; dewOver: DewOver | null; instrument: string };
-export type DewOver = "water" | "ice" | "logged";
+export type SeriesPoint = ChartPoint;
+export type DewOver = NonNullable<ChartPoint["dewOver"]>;
 
 const DAY_MS = 86_400_000;
 /** Up to this many readings in the period, every reading is loaded (a finer chart for short periods). */

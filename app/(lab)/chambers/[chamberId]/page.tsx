@@ -14,6 +14,7 @@ import { WATER_CHAMBER_NOTE } from "@/lib/humidity/hazards";
 import { isSaltId, SALTS } from "@/lib/humidity/salts";
 import { CHAMBER_KIND_LABELS, parsePeriod, PERIODS, saltAt } from "@/lib/validation/chambers";
 import { ClimateChartLoader } from "@/components/chambers/chart-loaders";
+import { packChart } from "@/lib/climate/chart-pack";
 import { ClimateSummary } from "@/components/chambers/climate-summary";
 import { DesiccantSection, HygrometerSection, ReadingsSection } from "@/components/chambers/chamber-sections";
 import { HazardPanel } from "@/components/chambers/hazard-panel";
@@ -99,7 +100,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
         ) : (
           <div className="grid gap-4 lg:grid-cols-[minmax(0,2fr)_minmax(0,1fr)]">
             <figure className="space-y-1" data-testid="climate-chart">
-              <ClimateChartLoader points={series.points} band={series.band} corrected={series.offsets.length > 0} />
+              <ClimateChartLoader packed={packChart(series.points)} band={series.band} corrected={series.offsets.length > 0} />
               <figcaption className="text-xs muted">
                 RH (top) against the target band {series.band.minRh.toFixed(1)}–{series.band.maxRh.toFixed(1)} %RH (shaded), temperature and dew point (bottom),
                 {series.firstAt && series.lastAt ? ` ${formatDateTime(series.firstAt)} to ${formatDateTime(series.lastAt)}.` : ""}
