@@ -143,7 +143,7 @@ async function lastReadings(labId: string, locationIds: readonly string[]) {
   const out = new Map<string, { takenAt: Date; rhPercent: number }>();
   if (locationIds.length === 0) return out;
   const res = await db.execute<{ id: string; taken_at: string; rh_percent: number }>(sql`
-    select c.id, l.taken_at, l.rh_percent from unnest(${sql.raw(`'{${locationIds.join(",")}}'::uuid[]`)}) as c(id)
+    select c.id, l.taken_at, l.rh_percent from unnest(${sql.param([...locationIds])}::uuid[]) as c(id)
     cross join lateral (select taken_at, rh_percent from ${readings} r where r.lab_id = ${labId} and r.chamber_id = c.id order by taken_at desc limit 1) l`);
   for (const r of res.rows) out.set(r.id, { takenAt: new Date(r.taken_at), rhPercent: Number(r.rh_percent) });
   return out;
@@ -307,7 +307,7 @@ type Live = {
 
 /** The locations with their stored status and what was logged since it was counted. */
 async function loadLive({ labId, locationIds, withDetail }: { labId: string; locationIds: readonly string[] | null; withDetail: boolean }): Promise<Live[]> {
-  const ids = locationIds ? sql`and c.id = any(${sql.raw(`'{${locationIds.join(",")}}'::uuid[]`)})` : sql`and c.archived_at is null`;
+  const ids = locationIds ? sql`and c.id = any(${sql.param([...locationIds])}::uuid[])` : sql`and c.archived_at is null`;
   const res = await db.execute<{
     id: string; name: string; location_kind: string; keeper_name: string | null; computed_at: string | null; rule_id: string | null;
     threshold_rh_percent: number | null; rule_ids: string[] | null; summary: unknown; detail: unknown; last_at: string | null; last_rh: number | null; since_max_rh: number | null;
