@@ -95,13 +95,3 @@ export async function currentPlaces({ labId, userId }: { labId: string; userId: 
   return { places: out, hidden, inTrial };
 }
 
-/** The objects in one location now (for the tree's detail), hidden ones left out. */
-export async function listObjectsIn({ labId, userId, locationId }: { labId: string; userId: string; locationId: string }) {
-  const [rows, hidden] = await Promise.all([
-    db.select({ id: specimens.id, label: specimens.label, accessionNumber: specimens.accessionNumber, fromAt: objectLocations.fromAt }).from(objectLocations)
-      .innerJoin(specimens, eq(specimens.id, objectLocations.specimenId))
-      .where(and(eq(objectLocations.labId, labId), eq(objectLocations.locationId, locationId), isNull(objectLocations.toAt))).orderBy(asc(specimens.label)),
-    hiddenObjectIds({ labId, userId }),
-  ]);
-  return rows.filter((r) => !hidden.has(r.id));
-}

@@ -127,11 +127,6 @@ export function normaliseImage(image: RgbaImage, gains: readonly [number, number
   return { width: image.width, height: image.height, data: out };
 }
 
-/** The 8-bit sRGB colour of a linear-light mean (for showing and storing the patch reading). */
-export function meanSrgb8(stats: PatchStats): [number, number, number] {
-  return [linearToSrgb8(stats.meanLinear[0]), linearToSrgb8(stats.meanLinear[1]), linearToSrgb8(stats.meanLinear[2])];
-}
-
 /** The basis a recorded estimate keeps when it was read through a grey patch (gains recomputed from the reading). */
 export function normalisedBasis(patch: PatchRect & { patchLightness: number } & PatchStats): EstimateColourBasis {
   return {

@@ -62,7 +62,6 @@ export const PALE_DROPLET_THRESHOLDS = {
 
 /** What a pixel's colour reads as: 0 not rust, 1 rust, 2 dark rust, 3 pale weeping droplet. */
 export type RustClass = 0 | 1 | 2 | 3;
-export const RUST_CLASS_NAMES = ["not rust", "rust", "dark rust", "pale droplet"] as const;
 
 type Window = { hueMinDeg: number; hueMaxDeg: number; chromaMin: number; lightnessMin: number; lightnessMax: number };
 
