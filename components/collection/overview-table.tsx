@@ -15,9 +15,9 @@ export function OverviewTable({ rows }: { rows: readonly OverviewRow[] }) {
     <table className="data" aria-label="Storage locations by need">
       <thead>
         <tr>
-          <th scope="col">Location</th><th scope="col">Needs</th><th scope="col" className="text-right!">keep below</th>
-          <th scope="col" className="text-right!">in rule 7 d</th><th scope="col" className="text-right!">30 d</th><th scope="col" className="text-right!">365 d</th>
-          <th scope="col">last reading</th><th scope="col">last 30 days</th><th scope="col" className="text-right!">objects</th><th scope="col">keeper</th>
+          <th scope="col">Location</th><th scope="col">Needs</th><th scope="col" className="text-right! whitespace-nowrap">keep below</th>
+          <th scope="col" className="text-right! whitespace-nowrap">in rule 7 d</th><th scope="col" className="text-right! whitespace-nowrap">30 d</th><th scope="col" className="text-right! whitespace-nowrap">365 d</th>
+          <th scope="col">last reading</th><th scope="col">last 30 days</th><th scope="col" className="text-right! whitespace-nowrap">objects</th><th scope="col">keeper</th>
         </tr>
       </thead>
       <tbody>
@@ -25,13 +25,13 @@ export function OverviewTable({ rows }: { rows: readonly OverviewRow[] }) {
           <tr key={r.id}>
             <th scope="row" className="text-left font-medium!"><Link className="link" href={`/chambers/${r.id}`} prefetch={false}>{r.path}</Link></th>
             <td>{r.needs}</td>
-            <td className="text-right tabular-nums">{r.keepBelow}</td>
-            <td className="text-right tabular-nums">{r.inRule[0]}</td>
-            <td className="text-right tabular-nums">{r.inRule[1]}</td>
-            <td className="text-right tabular-nums">{r.inRule[2]}</td>
+            <td className="text-right tabular-nums whitespace-nowrap">{r.keepBelow}</td>
+            <td className="text-right tabular-nums whitespace-nowrap">{r.inRule[0]}</td>
+            <td className="text-right tabular-nums whitespace-nowrap">{r.inRule[1]}</td>
+            <td className="text-right tabular-nums whitespace-nowrap">{r.inRule[2]}</td>
             <td className="tabular-nums">{r.lastReading}</td>
             <td><RhTrace trace={r.trace} /></td>
-            <td className="text-right tabular-nums">{r.objects}</td>
+            <td className="text-right tabular-nums whitespace-nowrap">{r.objects}</td>
             <td>{r.keeper}</td>
           </tr>
         ))}

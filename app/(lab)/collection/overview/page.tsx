@@ -40,7 +40,7 @@ export default async function CollectionOverviewPage({ searchParams }: { searchP
       </p>
       <form method="get" className="flex flex-wrap items-end gap-2 text-sm" aria-label="Overview choices">
         <label htmlFor="share" className="block">Flag locations out of rule for more than (% of the last 30 days)</label>
-        <input id="share" name="share" type="number" min={0} max={100} step="0.5" defaultValue={+(share * 100).toFixed(2)} className="field w-24"
+        <input id="share" name="share" type="number" min={0} max={100} step="0.5" defaultValue={+(share * 100).toFixed(2)} className="field w-24!"
           aria-invalid={problem ? true : undefined} aria-describedby={problem ? "share-err" : undefined} />
         <button className="btn-quiet" type="submit">Apply</button>
         {problem && <p id="share-err" role="alert" className="text-sm text-rust-600 w-full">{problem}</p>}
