@@ -8,7 +8,9 @@
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
-import { getLocationRuleStatus, listLocationStatuses, refreshLocationStatuses, refreshStaleLocationStatuses, STATUS_MAX_AGE_MS } from "@/db/queries/location-status";
+import {
+  getLocationRuleStatus, listLocationStatuses, refreshLocationStatuses, refreshStaleLocationStatuses, STATUS_MAX_AGE_MS, storedTraces,
+} from "@/db/queries/location-status";
 import { insertReadings, type NewReading } from "@/db/queries/readings";
 import * as s from "@/db/schema";
 import { storedCountStands } from "@/lib/collection/rule-status";
@@ -85,6 +87,11 @@ describe("stored location statuses", () => {
     expect(mine.windows[2].exceedanceCount).toBe(1);
     expect(mine.longestExceedance?.worstRhPercent).toBe(24);
     expect(mine.atRiskCount).toBe(first.atRisk.length);
+    expect(mine.trace.length).toBeGreaterThanOrEqual(2); // days with readings
+    // Read without the traces (as the overview does), then the shown rows' traces alone: the same.
+    const light = (await listLocationStatuses({ labId: lab.labId, userId: lab.users.lead.id, now: later, trace: false })).find((x) => x.location.id === box.id)!;
+    expect(light.trace).toEqual([]);
+    expect((await storedTraces({ labId: lab.labId, locationIds: [box.id] })).get(box.id)).toEqual(mine.trace);
     // A fresh count at the same time gives the same figures.
     const fresh = (await refreshLocationStatuses({ labId: lab.labId, locationIds: [box.id], now: new Date(now.getTime() + 2 * MIN) })).get(box.id)!;
     expect(fresh.windows.map((w) => w.fractionInRule)).toEqual(first.windows.map((w) => w.fractionInRule));

@@ -1,7 +1,7 @@
 import Link from "next/link";
 import { OverviewTable } from "@/components/collection/overview-table";
 import { EmptyState } from "@/components/ui/empty-state";
-import { DEFAULT_OUT_OF_RULE_SHARE, listLocationStatuses } from "@/db/queries/location-status";
+import { DEFAULT_OUT_OF_RULE_SHARE, listLocationStatuses, storedTraces } from "@/db/queries/location-status";
 import { labPage } from "@/lib/auth/page";
 import { traceGeometry } from "@/lib/collection/rh-trace";
 import { NEED_LABELS, NEED_ORDER } from "@/lib/collection/rule-status";
@@ -18,13 +18,14 @@ export default async function CollectionOverviewPage({ searchParams }: { searchP
   const sp = await searchParams;
   const { share, problem } = overviewShare(sp.share, DEFAULT_OUT_OF_RULE_SHARE);
   const now = new Date();
-  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share, now });
+  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share, now, trace: false });
   const q = `share=${+(share * 100).toFixed(2)}`;
   // Most in need first, PAGE_SIZE at a time unless all are asked for (the CSV export always has all).
   const all = sp.all === "1";
   const pages = Math.max(1, Math.ceil(rows.length / PAGE_SIZE));
   const page = Math.min(pages, Math.max(1, Number.parseInt(sp.page ?? "1", 10) || 1));
   const shown = all ? rows : rows.slice((page - 1) * PAGE_SIZE, page * PAGE_SIZE);
+  const traces = await storedTraces({ labId: ctx.labId, locationIds: shown.map((r) => r.location.id) });
   const needCounts = NEED_ORDER.filter((n) => n !== "no-rule").map((n) => [n, rows.filter((r) => r.needs.includes(n)).length] as const);
   return (
     <div className="space-y-5">
@@ -58,7 +59,7 @@ export default async function CollectionOverviewPage({ searchParams }: { searchP
             keepBelow: r.rule ? `${r.rule.thresholdRhPercent.toFixed(1)} %RH` : "—",
             inRule: [pct(r.windows[0]?.fractionInRule), pct(r.windows[1]?.fractionInRule), pct(r.windows[2]?.fractionInRule)],
             lastReading: r.lastReading ? `${r.lastReading.rhPercent.toFixed(1)} %RH, ${formatDateTime(r.lastReading.takenAt)}` : "none",
-            trace: traceGeometry(r.trace, r.rule?.thresholdRhPercent ?? null, { now }), objects: r.objectCount, keeper: r.keeperName ?? "—",
+            trace: traceGeometry(traces.get(r.location.id) ?? r.trace, r.rule?.thresholdRhPercent ?? null, { now }), objects: r.objectCount, keeper: r.keeperName ?? "—",
           }))} />
           <nav className="flex flex-wrap items-center gap-3 text-sm mt-3" aria-label="Overview pages">
             <span>{all || pages === 1 ? `All ${rows.length} locations` : `Locations ${(page - 1) * PAGE_SIZE + 1}–${(page - 1) * PAGE_SIZE + shown.length} of ${rows.length}`}, most in need first.</span>
