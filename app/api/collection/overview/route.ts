@@ -8,7 +8,7 @@ import { overviewShare } from "@/lib/validation/collection";
 export const GET = labRoute("export.read", async (ctx, req) => {
   const { share, problem } = overviewShare(new URL(req.url).searchParams.get("share") ?? undefined, DEFAULT_OUT_OF_RULE_SHARE);
   if (problem) throw new AppError("invalid", problem, { share: [problem] });
-  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share });
+  const rows = await listLocationStatuses({ labId: ctx.labId, userId: ctx.userId, outOfRuleShare: share, trace: false });
   const csv = overviewToCsv(rows.map((r) => ({
     path: r.path, objects: r.objectCount, thresholdRhPercent: r.rule?.thresholdRhPercent ?? null,
     ruleSource: r.rule ? (r.rule.origin === "entered" ? `${r.rule.source} (${r.rule.sourceDate})` : `accepted from trial(s), version ${r.rule.version}`) : "",
