@@ -99,13 +99,13 @@ describe("collection care walk", () => {
   it("changes the room's keeper on its page and sees it saved", async () => {
     await page.goto(`${APP_URL}/chambers/${roomId}`);
     const form = page.getByRole("form", { name: "Location settings" });
-    await expect(form.getByLabel("Keeper").inputValue()).resolves.toBe(lab.users.technician.id);
+    await expect(form.getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.technician.id);
     await expect(form.getByLabel("E-mail the keeper after out of rule for (hours)").inputValue()).resolves.toBe("6");
-    await form.getByLabel("Keeper").selectOption(lab.users.researcher.id);
+    await form.getByLabel("Keeper", { exact: true }).selectOption(lab.users.researcher.id);
     await form.getByRole("button", { name: "Save location" }).click();
     await expect(form.getByRole("status").textContent()).resolves.toBe('Location "Walk room" saved.');
     await page.reload();
     await expect(page.getByTestId("location-settings").textContent()).resolves.toContain(`keeper researcher `);
-    await expect(page.getByRole("form", { name: "Location settings" }).getByLabel("Keeper").inputValue()).resolves.toBe(lab.users.researcher.id);
+    await expect(page.getByRole("form", { name: "Location settings" }).getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.researcher.id);
   }, 60_000);
 });
