@@ -4,7 +4,7 @@
 import { moveObject } from "@/db/queries/object-locations";
 import { createLocation, updateLocation } from "@/db/queries/locations";
 import { labAction, revalidate } from "@/lib/auth/action";
-import { locationSchema, moveObjectSchema, reparentSchema } from "@/lib/validation/collection";
+import { locationSchema, locationSettingsSchema, moveObjectSchema, reparentSchema } from "@/lib/validation/collection";
 
 export const createLocationAction = labAction("chambers.write", locationSchema, async (ctx, data) => {
   const row = await createLocation({ labId: ctx.labId, userId: ctx.userId, values: data });
@@ -16,6 +16,15 @@ export const reparentLocationAction = labAction("chambers.write", reparentSchema
   const row = await updateLocation({ labId: ctx.labId, userId: ctx.userId, locationId: data.locationId, values: { parentId: data.parentId } });
   revalidate("/collection");
   return { message: `Location "${row.name}" moved.`, data: { id: row.id } };
+});
+
+/** Name, kind of place, keeper and alert delay of a storage location; its place in the tree stays. */
+export const updateLocationAction = labAction("chambers.write", locationSettingsSchema, async (ctx, data) => {
+  const { locationId, ...values } = data;
+  const row = await updateLocation({ labId: ctx.labId, userId: ctx.userId, locationId, values });
+  revalidate("/collection");
+  revalidate(`/chambers/${locationId}`);
+  return { message: `Location "${row.name}" saved.`, data: { id: row.id } };
 });
 
 export const moveObjectAction = labAction("collection.move", moveObjectSchema, async (ctx, data) => {

@@ -1,6 +1,6 @@
 "use client";
 import { useActionState } from "react";
-import { createLocationAction, moveObjectAction, reparentLocationAction } from "@/app/_actions/collection";
+import { createLocationAction, moveObjectAction, reparentLocationAction, updateLocationAction } from "@/app/_actions/collection";
 import { Field, FormMessage, SelectField, SubmitButton, TextArea } from "@/components/ui/form";
 import { LOCATION_KIND_LABELS, STORAGE_KINDS } from "@/lib/collection/locations";
 import { DESICCANTS } from "@/lib/humidity/desiccant";
@@ -65,6 +65,24 @@ export function ReparentLocationForm({ locations }: { locations: Option[] }) {
       <SelectField idPrefix="tree" name="locationId" label="Location" state={state} options={[{ value: "", label: "— choose —" }, ...locations]} defaultValue="" />
       <SelectField idPrefix="tree" name="parentId" label="Now inside" state={state} options={[{ value: "", label: "— top level —" }, ...locations]} defaultValue="" />
       <div className="sm:col-span-2 flex items-center gap-3"><SubmitButton pendingText="Moving…">Move location</SubmitButton><FormMessage state={state} /></div>
+    </form>
+  );
+}
+
+export type LocationSettings = { id: string; name: string; locationKind: string; keeperId: string | null; alertAfterHours: number };
+
+/** A storage location's name, kind of place, keeper and alert delay, prefilled with the current values. */
+export function LocationSettingsForm({ location, members }: { location: LocationSettings; members: Option[] }) {
+  const [state, action] = useActionState(updateLocationAction, undefined);
+  return (
+    <form action={action} className="grid gap-3 sm:grid-cols-2" noValidate aria-label="Location settings">
+      <input type="hidden" name="locationId" value={location.id} />
+      <Field idPrefix="loc" name="name" label="Name" state={state} defaultValue={location.name} />
+      <SelectField idPrefix="loc" name="locationKind" label="Kind" state={state} options={KIND_OPTIONS} defaultValue={location.locationKind} />
+      <SelectField idPrefix="loc" name="keeperId" label="Keeper" state={state} options={[{ value: "", label: "— none —" }, ...members]} defaultValue={location.keeperId ?? ""} />
+      <Field idPrefix="loc" name="alertAfterHours" label="E-mail the keeper after out of rule for (hours)" type="number" step="0.5" min={0.5} max={720} state={state}
+        defaultValue={location.alertAfterHours} hint="With no keeper here, the keeper of the place it sits in gets the e-mail." />
+      <div className="sm:col-span-2 flex items-center gap-3"><SubmitButton pendingText="Saving…">Save location</SubmitButton><FormMessage state={state} /></div>
     </form>
   );
 }

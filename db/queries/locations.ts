@@ -66,12 +66,15 @@ export async function createLocation({ labId, userId, values }: { labId: string;
   });
 }
 
-export async function updateLocation({ labId, userId, locationId, values }: { labId: string; userId: string; locationId: string; values: Partial<LocationInput> & Pick<LocationInput, "parentId"> }) {
+/** Fields of a location to change; a key left out stays as it is (`parentId` or `keeperId` given as none clears it). */
+export type LocationPatch = Partial<Omit<LocationInput, "keeperId">> & { keeperId?: string | null };
+
+export async function updateLocation({ labId, userId, locationId, values }: { labId: string; userId: string; locationId: string; values: LocationPatch }) {
   return db.transaction(async (tx) => {
     const before = await getChamber({ labId, chamberId: locationId }, tx);
-    if (!isStorageKind(before.locationKind)) throw new AppError("invalid", "A trial jar has no place in the storage tree; edit it as a chamber.");
-    await checkPlace(tx, labId, locationId, { parentId: values.parentId, keeperId: values.keeperId });
-    const patch = { ...values, parentId: values.parentId ?? null, ...(values.keeperId !== undefined || "keeperId" in values ? { keeperId: values.keeperId ?? null } : {}) };
+    if (!isStorageKind(before.locationKind)) throw new AppError("invalid", "A trial jar has no place in the storage tree; edit it as a chamber.", { locationId: ["Choose a storage location, not a trial jar."] });
+    await checkPlace(tx, labId, locationId, { parentId: values.parentId, keeperId: values.keeperId ?? undefined });
+    const patch = { ...values, ...("parentId" in values ? { parentId: values.parentId ?? null } : {}), ...("keeperId" in values ? { keeperId: values.keeperId ?? null } : {}) };
     const [after] = await tx.update(chambers).set({ ...patch, updatedAt: new Date() }).where(and(eq(chambers.id, locationId), eq(chambers.labId, labId))).returning();
     await recordAudit(tx, { labId, userId, entity: "chamber", entityId: locationId, action: "update", summary: `Storage location "${after.name}" edited`, before, after });
     return after;

@@ -59,8 +59,11 @@ export function saltAt(saltId: SaltId, tempC: number): { ok: true; rhPercent: nu
 
 export const roundTo = (x: number, digits = 1) => Math.round(x * 10 ** digits) / 10 ** digits;
 
+/** The name of a chamber or storage location (both are chamber rows). */
+export const chamberNameField = z.string().trim().min(1, "Name the chamber.").max(120, "Use at most 120 characters.");
+
 const chamberFields = z.object({
-  name: z.string().trim().min(1, "Name the chamber.").max(120, "Use at most 120 characters."),
+  name: chamberNameField,
   kind: z.enum(CHAMBER_KINDS as [ChamberKind, ...ChamberKind[]], "Choose how the humidity is held."),
   saltId: optionalText(20),
   desiccantKind: z.preprocess((v) => (v === "" ? undefined : v), z.enum(DESICCANT_KINDS as [DesiccantKind, ...DesiccantKind[]], "Choose a desiccant.").optional()),

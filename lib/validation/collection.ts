@@ -1,22 +1,39 @@
 // zod schemas for storage locations (a chamber with a place in the collection tree) and object moves.
 import { z } from "zod";
 import { STORAGE_KINDS } from "@/lib/collection/locations";
-import { chamberSchema, localToInstant } from "./chambers";
+import { chamberNameField, chamberSchema, localToInstant } from "./chambers";
 
 const optionalId = (message: string) => z.preprocess((v) => (v === "" || v === null ? undefined : v), z.uuid(message).optional());
+
+const emptyToUndefined = (v: unknown) => (v === "" || v == null ? undefined : v);
+const alertAfterHours = z.coerce.number({ error: "Enter the alert delay in hours." })
+  .min(0.5, "The alert delay must be at least 0.5 h.").max(720, "The alert delay must be at most 720 h (30 days).");
 
 const placeFields = z.object({
   locationKind: z.enum(STORAGE_KINDS, "Choose what kind of place this is."),
   parentId: optionalId("Choose the location this one sits in, or none."),
   keeperId: optionalId("Choose the keeper from the lab's members."),
-  alertAfterHours: z.preprocess((v) => (v === "" || v == null ? undefined : v), z.coerce.number({ error: "Enter the alert delay in hours." })
-    .min(0.5, "The alert delay must be at least 0.5 h.").max(720, "The alert delay must be at most 720 h (30 days).").default(6)),
+  // Left empty on a new location: the default 6 h.
+  alertAfterHours: z.preprocess(emptyToUndefined, alertAfterHours.default(6)),
 });
 
 /** A storage location: the chamber fields (how its humidity is held = its microclimate) and its place. */
 export const locationSchema = z.intersection(placeFields, chamberSchema);
 export type LocationInput = z.output<typeof locationSchema>;
-export const locationUpdateSchema = z.intersection(z.object({ locationId: z.uuid() }), locationSchema);
+
+/**
+ * A storage location's settings edited after creation: name, kind of place, keeper (none when empty) and
+ * alert delay, with the same field rules as a new location; the delay is required here (no silent default).
+ * The place in the tree is reparentSchema's; the microclimate and target are the chamber edit form's.
+ */
+export const locationSettingsSchema = z.object({
+  locationId: z.uuid("Choose the location."),
+  name: chamberNameField,
+  locationKind: placeFields.shape.locationKind,
+  keeperId: placeFields.shape.keeperId,
+  alertAfterHours: z.preprocess(emptyToUndefined, alertAfterHours),
+}).transform((v) => ({ ...v, keeperId: v.keeperId ?? null }));
+export type LocationSettingsInput = z.output<typeof locationSettingsSchema>;
 
 /** Only the place in the tree (parent), as the tree's "move into" form sends it. */
 export const reparentSchema = z.object({ locationId: z.uuid(), parentId: optionalId("Choose the location this one sits in, or none.") });

@@ -1,6 +1,6 @@
 // Collection care in a browser, in a lab of its own: the location tree, an object moved into a room
 // with a logger, a storage rule entered with its source, then the room's time in rule and exceedance
-// on its page, the overview listing it by need, and the printable condition report.
+// on its page, the overview listing it by need, the printable condition report, and the room's keeper changed on its page.
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
@@ -95,4 +95,17 @@ describe("collection care walk", () => {
     await expect(page.getByRole("table", { name: "Locations and their time in rule" }).textContent()).resolves.toContain("WALK-1");
     await screenshot(page, "collection-report");
   }, 120_000);
+
+  it("changes the room's keeper on its page and sees it saved", async () => {
+    await page.goto(`${APP_URL}/chambers/${roomId}`);
+    const form = page.getByRole("form", { name: "Location settings" });
+    await expect(form.getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.technician.id);
+    await expect(form.getByLabel("E-mail the keeper after out of rule for (hours)").inputValue()).resolves.toBe("6");
+    await form.getByLabel("Keeper", { exact: true }).selectOption(lab.users.researcher.id);
+    await form.getByRole("button", { name: "Save location" }).click();
+    await expect(form.getByRole("status").textContent()).resolves.toBe('Location "Walk room" saved.');
+    await page.reload();
+    await expect(page.getByTestId("location-settings").textContent()).resolves.toContain(`keeper researcher `);
+    await expect(page.getByRole("form", { name: "Location settings" }).getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.researcher.id);
+  }, 60_000);
 });

@@ -62,9 +62,10 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${CHAMBER}#setCheckAppliedAction`]: { permission: "readings.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, checkId: f.checkId, applied: "1" }) },
   [`${CHAMBER}#createTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, label: "outsider's logger" }) },
   [`${CHAMBER}#revokeTokenAction`]: { permission: "chambers.tokens", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, tokenId: f.tokenId }) },
-  // Another lab's location as the parent, as the new place of one's own object, or moved in the tree: not found.
+  // Another lab's location as the parent, as the new place of one's own object, moved in the tree or edited: not found.
   [`${COLLECTION}#createLocationAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ name: "Outsider box", locationKind: "sealed-box", parentId: f.chamberId, kind: "open-shelf", nominalTempC: "20", setpointRhPercent: "45" }) },
   [`${COLLECTION}#reparentLocationAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ locationId: f.chamberId }) },
+  [`${COLLECTION}#updateLocationAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ locationId: f.chamberId, name: "Outsider's cabinet", locationKind: "cabinet", keeperId: "", alertAfterHours: "6" }) },
   [`${COLLECTION}#moveObjectAction`]: { permission: "collection.move", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, locationId: f.chamberId, at: "2026-01-05T10:00", ...at }) },
   [`${CHAMBERS}#createChamberAction`]: { permission: "chambers.write", empty: "invalid" },
   [`${CHAMBERS}#updateChamberAction`]: { permission: "chambers.write", empty: "invalid", foreign: (f) => ({ chamberId: f.chamberId, name: "Taken over", kind: "water", nominalTempC: "20" }) },

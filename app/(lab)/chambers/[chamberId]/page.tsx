@@ -5,7 +5,9 @@ import { getChamber, lastInspectionOpening, listChamberInstruments, listDesiccan
 import { listReadingImports, listRecentReadings } from "@/db/queries/readings";
 import { getChamberSeries } from "@/db/queries/readings-series";
 import { getLocationRuleStatus } from "@/db/queries/location-status";
+import { listMembers } from "@/db/queries/memberships";
 import { RuleStatusSection } from "@/components/collection/rule-status-section";
+import { LocationSettingsForm } from "@/components/collection/collection-forms";
 import { labPage } from "@/lib/auth/page";
 import { can } from "@/lib/auth/permissions";
 import { formatDateTime } from "@/lib/format";
@@ -39,7 +41,11 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
     listReadingImports({ labId: ctx.labId, chamberId, limit: 5 }),
   ]);
   const status = isDesiccant ? desiccantStatus(chamber, events) : null;
-  const ruleStatus = isStorageKind(chamber.locationKind) ? await getLocationRuleStatus({ labId: ctx.labId, userId: ctx.userId, locationId: chamber.id }) : null;
+  const storage = isStorageKind(chamber.locationKind);
+  const [ruleStatus, members] = storage
+    ? await Promise.all([getLocationRuleStatus({ labId: ctx.labId, userId: ctx.userId, locationId: chamber.id }), listMembers({ labId: ctx.labId })])
+    : [null, []];
+  const keeperName = chamber.keeperId ? (members.find((m) => m.userId === chamber.keeperId)?.name ?? "a former member (no e-mail)") : null;
   const settleFrom = [
     ...(status?.lastCharge ? [{ label: `the last desiccant ${status.lastCharge.kind === "charged" ? "charge" : status.lastCharge.kind === "regenerated" ? "regeneration" : "replacement"}`, at: status.lastCharge.at }] : []),
     ...(opening ? [{ label: "the last inspection opening", at: opening }] : []),
@@ -112,6 +118,18 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
       </section>
 
       {ruleStatus && <RuleStatusSection status={ruleStatus} />}
+      {storage && (
+        <section className="panel p-4 space-y-3" aria-labelledby="location-h">
+          <h2 id="location-h" className="font-semibold">Location</h2>
+          <p className="text-sm" data-testid="location-settings">
+            {LOCATION_KIND_LABELS[chamber.locationKind]} · keeper {keeperName ?? "none (the keeper of the place it sits in gets the e-mail)"} · e-mail after {chamber.alertAfterHours} h out of rule
+          </p>
+          {can(ctx.role, "chambers.write") && (
+            <LocationSettingsForm members={members.map((m) => ({ value: m.userId, label: m.name }))}
+              location={{ id: chamber.id, name: chamber.name, locationKind: chamber.locationKind, keeperId: chamber.keeperId, alertAfterHours: chamber.alertAfterHours }} />
+          )}
+        </section>
+      )}
       {isDesiccant && status && <DesiccantSection chamber={chamber} status={status} events={events} canWrite={can(ctx.role, "desiccant.write")} />}
       <ReadingsSection chamber={chamber} recent={recent} imports={imports} instruments={instruments} canWrite={can(ctx.role, "readings.write")} />
       <HygrometerSection chamber={chamber} checks={checks} instruments={instruments} canWrite={can(ctx.role, "readings.write")} />
