@@ -108,16 +108,23 @@ async function readStatuses({ labId, userId, locationIds, now, outOfRuleShare, w
       .where(and(eq(objectLocations.labId, labId), isNull(objectLocations.toAt), inArray(objectLocations.specimenId, [...hidden])));
     for (const r of rows) affected.add(r.locationId);
   }
+  // A full-view count (stored or just made) that gives an object a rule the viewer may not see is not theirs.
+  const hidesRule = (c: Counted) => c.ruleIds.some((id) => !ruleById.has(id));
   const counted = new Map<string, Counted>();
   const stale: string[] = [];
   for (const l of live) {
     const stored = l.stored ? fromStored(l.stored) : null;
-    if (stored && stored.ruleIds.some((id) => !ruleById.has(id))) affected.add(l.id);
+    if (stored && hidesRule(stored)) affected.add(l.id);
     if (affected.has(l.id)) continue;
     if (stored && (!withDetail || stored.detail) && storedCountStands({ ...stored, lastAtCountRh: stored.lastAtCount?.rhPercent ?? null }, l.sinceMaxRh, now, STATUS_MAX_AGE_MS)) counted.set(l.id, stored);
     else stale.push(l.id);
   }
-  if (stale.length) for (const [id, c] of await refreshLocationStatuses({ labId, locationIds: stale, now })) counted.set(id, c);
+  if (stale.length) {
+    for (const [id, c] of await refreshLocationStatuses({ labId, locationIds: stale, now })) {
+      if (hidesRule(c)) affected.add(id);
+      else counted.set(id, c);
+    }
+  }
   const mine = live.filter((l) => affected.has(l.id)).map((l) => l.id);
   if (mine.length) {
     const [locations, held] = await Promise.all([

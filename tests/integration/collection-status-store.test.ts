@@ -166,6 +166,28 @@ describe("stored location statuses", () => {
     expect((await getLocationRuleStatus({ labId: lab.labId, userId: lab.users.lead.id, locationId: box.id, now: new Date(now.getTime() + 1000) })).objectCount).toBe(1);
   });
 
+  it("counts for a blind scorer a location whose object takes a rule resting on their trial, also when no count was stored", async () => {
+    const [trial] = await db.select().from(s.trials).where(and(eq(s.trials.labId, lab.labId), eq(s.trials.title, "Blind jar trial")));
+    const [shelf] = await db.insert(s.chambers).values({ labId: lab.labId, name: "Shelf box", kind: "open-shelf", locationKind: "sealed-box", parentId: room.id, nominalTempC: 18, setpointRhPercent: 30, toleranceRhPercent: 5 }).returning();
+    const [meteorite] = await db.insert(s.specimens).values({ labId: lab.labId, label: "SS-2", materialClass: "iron-meteorite", findName: "Test find" }).returning();
+    await db.insert(s.objectLocations).values({ labId: lab.labId, specimenId: meteorite.id, locationId: shelf.id, fromAt: new Date(start.getTime() - 24 * HOUR) });
+    await db.insert(s.storageRules).values([
+      { labId: lab.labId, materialClass: "iron-meteorite", treatmentName: "Any treatment", version: 1, thresholdRhPercent: 30, origin: "entered", source: "Test rule", sourceDate: "2020-01-01", method: "Entered by hand.", statement: "Keep iron meteorites below 30 %RH." },
+      { labId: lab.labId, materialClass: "iron-meteorite", treatmentName: "Wax coat", version: 1, thresholdRhPercent: 12, origin: "trial", shareRusted: 0.1, horizonDays: 90, method: "From the blind trial.", statement: "Keep waxed iron meteorites below 12 %RH.", sourceTrialIds: [trial.id] },
+    ]);
+    await db.update(s.specimens).set({ treatmentsApplied: "Wax coat" }).where(eq(s.specimens.id, meteorite.id));
+    const at = new Date(Date.now() + 20_000);
+    expect(await stored(shelf.id)).toBeNull();
+    // The scorer reads first: the full-view count made for them names the trial's rule, so theirs is counted apart.
+    const blind = await getLocationRuleStatus({ labId: lab.labId, userId: lab.users.technician.id, locationId: shelf.id, now: at });
+    expect(blind.rule?.thresholdRhPercent).toBe(30);
+    const listed = (await listLocationStatuses({ labId: lab.labId, userId: lab.users.technician.id, now: at })).find((r) => r.location.id === shelf.id);
+    expect(listed?.rule?.thresholdRhPercent).toBe(30);
+    expect((await stored(shelf.id))?.thresholdRhPercent).toBe(12);
+    expect((await getLocationRuleStatus({ labId: lab.labId, userId: lab.users.lead.id, locationId: shelf.id, now: at })).rule?.thresholdRhPercent).toBe(12);
+    await db.update(s.chambers).set({ archivedAt: new Date() }).where(eq(s.chambers.id, shelf.id)); // out of the scan below
+  });
+
   it("the scan's refresh counts every storage location not counted in the last minutes, and nothing when all are recent", async () => {
     const now = new Date(Date.now() + 10_000);
     const n = await refreshStaleLocationStatuses({ labId: lab.labId, now, maxAgeMs: 0 });
