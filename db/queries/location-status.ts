@@ -4,7 +4,7 @@ import { isStorageKind } from "@/lib/collection/locations";
 import { locationNeeds, needRank, storedCountStands, type LocationNeed } from "@/lib/collection/rule-status";
 import type { Excursion } from "@/lib/climate/band-stats";
 import { db } from "../client";
-import { chambers, locationStatus, objectLocations, readings } from "../schema";
+import { chambers, locationStatus, memberships, objectLocations, readings } from "../schema";
 import {
   countStatuses, fromStored, heldObjects, refreshLocationStatuses, type Counted, type ObjectAtRisk, type RhTracePoint, type StoredRow, type WindowSummary,
 } from "./location-counts";
@@ -27,6 +27,7 @@ export const STATUS_MAX_AGE_MS = 15 * 60_000;
 /** How one storage location keeps its rule, for the overview, the CSV and the report. */
 export type LocationSummary = {
   location: { id: string; name: string };
+  /** The keeper's name; FORMER_KEEPER when they are no longer a member; null when the location has none. */
   keeperName: string | null;
   objectCount: number;
   /** The strictest rule of the objects held now; null when none of them has one. */
@@ -56,6 +57,9 @@ export type LocationRuleStatus = Omit<LocationSummary, "windows"> & {
   atRisk: ObjectAtRisk[];
 };
 
+/** A keeper who has left the lab: named nowhere, and no alert goes to them (db/jobs/location-alerts.ts). */
+export const FORMER_KEEPER = "a former member (no e-mail)";
+
 type Live = {
   id: string; name: string; locationKind: string; keeperName: string | null; lastAt: Date | null; lastRh: number | null; sinceMaxRh: number | null;
   stored: StoredRow | null;
@@ -65,19 +69,20 @@ type Live = {
 async function loadLive({ labId, locationIds, withDetail, withTrace }: { labId: string; locationIds: readonly string[] | null; withDetail: boolean; withTrace: boolean }): Promise<Live[]> {
   const ids = locationIds ? sql`and c.id = any(${sql.param([...locationIds])}::uuid[])` : sql`and c.archived_at is null`;
   const res = await db.execute<{
-    id: string; name: string; location_kind: string; keeper_name: string | null; computed_at: string | null; rule_id: string | null;
+    id: string; name: string; location_kind: string; keeper_id: string | null; keeper_name: string | null; keeper_member: boolean; computed_at: string | null; rule_id: string | null;
     threshold_rh_percent: number | null; rule_ids: string[] | null; summary: unknown; detail: unknown; last_at: string | null; last_rh: number | null; since_max_rh: number | null;
   }>(sql`
-    select c.id, c.name, c.location_kind, u.name as keeper_name, s.computed_at, s.rule_id, s.threshold_rh_percent, s.rule_ids, ${withTrace ? sql`s.summary` : sql`s.summary - 'trace'`} as summary,
+    select c.id, c.name, c.location_kind, c.keeper_id, u.name as keeper_name, km.user_id is not null as keeper_member, s.computed_at, s.rule_id, s.threshold_rh_percent, s.rule_ids, ${withTrace ? sql`s.summary` : sql`s.summary - 'trace'`} as summary,
            ${withDetail ? sql`s.detail` : sql`null::jsonb`} as detail, l.taken_at as last_at, l.rh_percent as last_rh, n.max_rh as since_max_rh
     from ${chambers} c
     left join users u on u.id = c.keeper_id
+    left join ${memberships} km on km.user_id = c.keeper_id and km.lab_id = c.lab_id
     left join ${locationStatus} s on s.location_id = c.id
     left join lateral (select taken_at, rh_percent from ${readings} r where r.lab_id = c.lab_id and r.chamber_id = c.id order by taken_at desc limit 1) l on true
     left join lateral (select max(rh_percent) as max_rh from ${readings} r where r.lab_id = c.lab_id and r.chamber_id = c.id and r.taken_at > s.computed_at) n on s.computed_at is not null
     where c.lab_id = ${labId} ${ids}`);
   return res.rows.filter((r) => isStorageKind(r.location_kind)).map((r) => ({
-    id: r.id, name: r.name, locationKind: r.location_kind, keeperName: r.keeper_name,
+    id: r.id, name: r.name, locationKind: r.location_kind, keeperName: r.keeper_id === null ? null : r.keeper_member ? r.keeper_name : FORMER_KEEPER,
     lastAt: r.last_at ? new Date(r.last_at) : null, lastRh: r.last_rh === null ? null : Number(r.last_rh), sinceMaxRh: r.since_max_rh === null ? null : Number(r.since_max_rh),
     stored: r.computed_at ? {
       computedAt: new Date(r.computed_at), ruleId: r.rule_id, thresholdRhPercent: r.threshold_rh_percent === null ? null : Number(r.threshold_rh_percent),

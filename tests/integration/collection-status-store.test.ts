@@ -9,7 +9,7 @@ import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
 import {
-  getLocationRuleStatus, listLocationStatuses, refreshLocationStatuses, refreshStaleLocationStatuses, STATUS_MAX_AGE_MS, storedTraces,
+  FORMER_KEEPER, getLocationRuleStatus, listLocationStatuses, refreshLocationStatuses, refreshStaleLocationStatuses, STATUS_MAX_AGE_MS, storedTraces,
 } from "@/db/queries/location-status";
 import { insertReadings, type NewReading } from "@/db/queries/readings";
 import * as s from "@/db/schema";
@@ -193,5 +193,14 @@ describe("stored location statuses", () => {
     const n = await refreshStaleLocationStatuses({ labId: lab.labId, now, maxAgeMs: 0 });
     expect(n).toBe(2); // the room and the box; the trial jar is not a storage location
     expect(await refreshStaleLocationStatuses({ labId: lab.labId, now: new Date(now.getTime() + MIN) })).toBe(0);
+  });
+
+  it("names a keeper who has left the lab as a former member, as the alerts (which skip them) treat them", async () => {
+    const now = new Date(Date.now() + 30_000);
+    expect((await getLocationRuleStatus({ labId: lab.labId, userId: lab.users.lead.id, locationId: box.id, now })).keeperName).toBe(`lead ${lab.users.lead.email.split("-")[1].split("@")[0]}`);
+    await db.delete(s.memberships).where(and(eq(s.memberships.labId, lab.labId), eq(s.memberships.userId, lab.users.observer.id)));
+    await db.update(s.chambers).set({ keeperId: lab.users.observer.id }).where(eq(s.chambers.id, box.id));
+    expect((await getLocationRuleStatus({ labId: lab.labId, userId: lab.users.lead.id, locationId: box.id, now })).keeperName).toBe(FORMER_KEEPER);
+    expect((await listLocationStatuses({ labId: lab.labId, userId: lab.users.lead.id, now })).find((r) => r.location.id === box.id)?.keeperName).toBe(FORMER_KEEPER);
   });
 });

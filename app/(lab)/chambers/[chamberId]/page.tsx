@@ -45,7 +45,6 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
   const [ruleStatus, members] = storage
     ? await Promise.all([getLocationRuleStatus({ labId: ctx.labId, userId: ctx.userId, locationId: chamber.id }), listMembers({ labId: ctx.labId })])
     : [null, []];
-  const keeperName = chamber.keeperId ? (members.find((m) => m.userId === chamber.keeperId)?.name ?? "a former member (no e-mail)") : null;
   const settleFrom = [
     ...(status?.lastCharge ? [{ label: `the last desiccant ${status.lastCharge.kind === "charged" ? "charge" : status.lastCharge.kind === "regenerated" ? "regeneration" : "replacement"}`, at: status.lastCharge.at }] : []),
     ...(opening ? [{ label: "the last inspection opening", at: opening }] : []),
@@ -122,7 +121,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
         <section className="panel p-4 space-y-3" aria-labelledby="location-h">
           <h2 id="location-h" className="font-semibold">Location</h2>
           <p className="text-sm" data-testid="location-settings">
-            {LOCATION_KIND_LABELS[chamber.locationKind]} · keeper {keeperName ?? "none (the keeper of the place it sits in gets the e-mail)"} · e-mail after {chamber.alertAfterHours} h out of rule
+            {LOCATION_KIND_LABELS[chamber.locationKind]} · keeper {ruleStatus?.keeperName ?? "none (the keeper of the place it sits in gets the e-mail)"} · e-mail after {chamber.alertAfterHours} h out of rule
           </p>
           {can(ctx.role, "chambers.write") && (
             <LocationSettingsForm members={members.map((m) => ({ value: m.userId, label: m.name }))}
