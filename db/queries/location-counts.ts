@@ -13,6 +13,10 @@ import { listStorageRules, type StorageRuleView } from "./storage-rules";
 // Counting how storage locations keep their rules, and storing the counts (table location_status) for
 // the pages to read (db/queries/location-status.ts).
 const DAY_MS = 86_400_000;
+/** A stored count older than this is counted again when a page reads it. */
+export const STATUS_MAX_AGE_MS = 15 * 60_000;
+/** The worker's 10-minute scan counts again what is older than this, so pages seldom find a count too old. */
+export const SCAN_RECOUNT_AFTER_MS = STATUS_MAX_AGE_MS / 3;
 
 export type ObjectAtRisk = { id: string; label: string; accessionNumber: string | null; thresholdRhPercent: number; ruleStatement: string };
 /** Time in rule over one window, as the overview shows it (the exceedances themselves are in the detail). */
@@ -248,7 +252,7 @@ export async function refreshLocationStatuses({ labId, locationIds, now = new Da
 }
 
 /** Storage locations (not archived) whose stored status is missing or older than maxAgeMs, in every lab or one. */
-export async function refreshStaleLocationStatuses({ now = new Date(), labId, maxAgeMs = 5 * 60_000 }: { now?: Date; labId?: string; maxAgeMs?: number } = {}) {
+export async function refreshStaleLocationStatuses({ now = new Date(), labId, maxAgeMs = SCAN_RECOUNT_AFTER_MS }: { now?: Date; labId?: string; maxAgeMs?: number } = {}) {
   const rows = await db.select({ id: chambers.id, labId: chambers.labId, locationKind: chambers.locationKind, computedAt: locationStatus.computedAt })
     .from(chambers).leftJoin(locationStatus, eq(locationStatus.locationId, chambers.id))
     .where(and(isNull(chambers.archivedAt), labId ? eq(chambers.labId, labId) : undefined));

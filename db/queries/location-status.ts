@@ -6,23 +6,18 @@ import type { Excursion } from "@/lib/climate/band-stats";
 import { db } from "../client";
 import { chambers, locationStatus, memberships, objectLocations, readings } from "../schema";
 import {
-  countStatuses, fromStored, heldObjects, refreshLocationStatuses, type Counted, type ObjectAtRisk, type RhTracePoint, type StoredRow, type WindowSummary,
+  countStatuses, fromStored, heldObjects, refreshLocationStatuses, STATUS_MAX_AGE_MS, type Counted, type ObjectAtRisk, type RhTracePoint, type StoredRow, type WindowSummary,
 } from "./location-counts";
 import { locationPaths } from "./locations";
 import { hiddenObjectIds } from "./object-locations";
 import { listStorageRules, type StorageRuleView } from "./storage-rules";
 
-export { refreshLocationStatuses, refreshStaleLocationStatuses, rulesOfLocations, storedTraces } from "./location-counts";
+export { refreshLocationStatuses, refreshStaleLocationStatuses, rulesOfLocations, STATUS_MAX_AGE_MS, storedTraces } from "./location-counts";
 export type { ObjectAtRisk, RhTracePoint, WindowSummary } from "./location-counts";
 
 
 /** The overview flags a location out of rule for more than this share of the last 30 days (default). */
 export const DEFAULT_OUT_OF_RULE_SHARE = 0.05;
-/**
- * A stored status older than this is counted again when read. The alert scan stores every location's
- * status every 10 minutes, so pages seldom count; readings appended since are looked at on read.
- */
-export const STATUS_MAX_AGE_MS = 15 * 60_000;
 
 /** How one storage location keeps its rule, for the overview, the CSV and the report. */
 export type LocationSummary = {
