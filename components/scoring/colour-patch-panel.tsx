@@ -3,7 +3,7 @@
 // why it cannot be used. The colour estimate then reads the face through the patch's white balance
 // and exposure.
 import type { PatchRect } from "@/lib/scoring/colour-normalise";
-import { PATCH_LIMITS } from "@/lib/scoring/colour-normalise";
+import { PATCH_LIGHTNESS_RANGE, PATCH_LIMITS } from "@/lib/scoring/colour-normalise";
 
 export type PatchFrom = "this-photo" | "previous-photo" | "marked";
 
@@ -50,7 +50,7 @@ export function ColourPatchPanel(p: Props) {
           {p.patch && <button type="button" className="btn-quiet text-sm" onClick={p.onClear}>Do without a patch</button>}
           <div className="space-y-1">
             <label htmlFor="cp-lightness" className="block text-xs font-medium">Patch lightness L* (from the card maker)</label>
-            <input id="cp-lightness" type="number" min={20} max={95} step="any" inputMode="decimal" className="field w-24" value={p.lightnessText}
+            <input id="cp-lightness" type="number" min={PATCH_LIGHTNESS_RANGE.min} max={PATCH_LIGHTNESS_RANGE.max} step="any" inputMode="decimal" className="field w-24" value={p.lightnessText}
               onChange={(e) => p.setLightnessText(e.target.value)} aria-invalid={!!p.lightnessError || undefined}
               aria-describedby={p.lightnessError ? "cp-lightness-err" : undefined} />
             {p.lightnessError && <p id="cp-lightness-err" role="alert" className="text-xs text-rust-600">{p.lightnessError}</p>}

@@ -5,7 +5,7 @@
 import { useCallback, useDeferredValue, useEffect, useMemo, useState } from "react";
 import type { ActionState } from "@/lib/auth/action";
 import { rustedAreaDetail, type Mark, type Point } from "@/lib/scoring/geometry";
-import { DEFAULT_PATCH_LIGHTNESS, type EstimateColourBasis, type PatchRect } from "@/lib/scoring/colour-normalise";
+import { DEFAULT_PATCH_LIGHTNESS, PATCH_LIGHTNESS_RANGE, type EstimateColourBasis, type PatchRect } from "@/lib/scoring/colour-normalise";
 import type { AreaSource, ColourPatchInput } from "@/lib/validation/scores";
 import { AnnotatorCanvas, type Ghost, type Tool } from "./annotator-canvas";
 import { AnnotatorToolbar } from "./annotator-toolbar";
@@ -82,8 +82,8 @@ export function ScoreWorkbench(p: Props) {
   const [patchFrom, setPatchFrom] = useState<PatchFrom | null>(ip?.from ?? null);
   const [lightnessText, setLightnessText] = useState(String(ip?.patchLightness ?? DEFAULT_PATCH_LIGHTNESS));
   const lightness = Number(lightnessText);
-  const lightnessError = lightnessText.trim() === "" || !Number.isFinite(lightness) || lightness < 20 || lightness > 95
-    ? "Enter the patch's L* between 20 and 95." : null;
+  const lightnessError = lightnessText.trim() === "" || !Number.isFinite(lightness) || lightness < PATCH_LIGHTNESS_RANGE.min || lightness > PATCH_LIGHTNESS_RANGE.max
+    ? `Enter the patch's L* between ${PATCH_LIGHTNESS_RANGE.min} and ${PATCH_LIGHTNESS_RANGE.max}.` : null;
   const patchChoice = useMemo(() => (patch && !lightnessError ? { ...patch, patchLightness: lightness } : null), [patch, lightness, lightnessError]);
   // The patch reading behind the recorded estimate (kept with Accept / Correct, dropped with Reject).
   const [autoPatch, setAutoPatch] = useState<ColourPatchInput | null>(() => readingOf(p.initialScore?.autoEstimateColour));

@@ -12,7 +12,8 @@ import { loadHistoryRows } from "./specimen-history";
 import { loadTrialExposure, type PlacementExposureRow } from "./exposure";
 import { db } from "../client";
 import { getTrial, type Trial } from "./trial-access";
-import { loadOutcomeAreas, scaleScoreRows } from "./photo-evidence";
+import { scaleScoreRows } from "./photo-evidence";
+import { areaKey, outcomeAreasMm2 } from "@/lib/scoring/scaled-areas";
 import { chambers, inspections, photos, placements, readings, scores, specimens, storageRules, treatments, trialArms, trials } from "../schema";
 
 const DAY_MS = 86_400_000;
@@ -215,7 +216,9 @@ export async function loadExportRows({ labId, trial }: { labId: string; trial: A
       .orderBy(asc(storageRules.materialClass), asc(storageRules.treatmentName), asc(storageRules.version)),
     loadHistoryRows({ labId, specimenIds, untilDay: until.toISOString().slice(0, 10) }),
   ]);
-  const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.specimenId })) });
+  // A photo's series scale is its own specimen's (as loadScaledRecords reads it).
+  const photoSpecimen = new Map(photoRows.map((p) => [p.id, p.specimenId]));
+  const scaled = await scaleScoreRows({ labId, trialId, rows: scoreRows.map((r) => ({ ...r, photoSpecimenId: r.photoId ? photoSpecimen.get(r.photoId) ?? null : null })) });
   const scoreRowsMm2 = scoreRows.map((r, i) => ({ ...r, areaMm2: scaled[i].areaMm2 }));
   return { placementRows, specimenRows, chamberRows, treatmentRows, inspectionRows, scoreRows: scoreRowsMm2, photoRows, readingRows, storageRuleRows, ...historyRows };
 }
@@ -226,6 +229,7 @@ export async function buildTrialDataPackage({ labId, trial, now = new Date() }: 
   const [rows, loaded, exposure] = await Promise.all([
     loadExportRows({ labId, trial }), loadSpecimenOutcomes({ labId, trial }), loadTrialExposure({ labId, trial, thresholdsRhPercent: DEFAULT_THRESHOLDS_RH_PERCENT, now }),
   ]);
-  const areas = await loadOutcomeAreas({ labId, trialId: trial.id, outcomes: loaded.outcomes });
+  // The scores of record already carry their mm² (loadExportRows): the outcomes' areas come from those.
+  const areas = outcomeAreasMm2(loaded.outcomes, new Map(rows.scoreRows.filter((r) => r.isRecord).map((r) => [areaKey(r.inspectionId, r.specimenId), r.areaMm2])));
   return trialDataPackage({ trial, rows, outcomes: loaded.outcomes, exposure, areas, now });
 }

@@ -70,9 +70,12 @@ export async function loadPhotoEvidence({ labId, trialId, protocol, photoRows }:
   labId: string; trialId: string; protocol: string[]; photoRows: { id: string; specimenId: string }[];
 }): Promise<Map<string, PhotoEvidenceView>> {
   const ids = photoRows.map((p) => p.id);
+  const specimenIds = [...new Set(photoRows.map((p) => p.specimenId))];
   const [ev, series] = await Promise.all([
     ids.length ? db.select().from(photoEvidence).where(and(eq(photoEvidence.labId, labId), eq(photoEvidence.trialId, trialId), inArray(photoEvidence.photoId, ids))) : [],
-    db.select().from(seriesScales).where(and(eq(seriesScales.labId, labId), eq(seriesScales.trialId, trialId))),
+    specimenIds.length
+      ? db.select().from(seriesScales).where(and(eq(seriesScales.labId, labId), eq(seriesScales.trialId, trialId), inArray(seriesScales.specimenId, specimenIds)))
+      : [],
   ]);
   const evBy = new Map(ev.map((e) => [e.photoId, e]));
   const seriesBy = new Map(series.map((s) => [s.specimenId, s.pxPerMm]));
@@ -87,7 +90,9 @@ export async function loadPhotoEvidence({ labId, trialId, protocol, photoRows }:
 
 export type ScaledRecord = ScaledScore & {
   specimenId: string; inspectionId: string; dayNumber: number; areaPercent: number; spotCount: number; photoId: string | null;
-  pxPerMm: number | null; protocolMissing: string[] | null;
+  pxPerMm: number | null;
+  /** Protocol points not followed; null when nothing was recorded for the photo (as the photo's own flag says). */
+  protocolMissing: string[] | null;
 };
 
 type ScoreRowIn = { photoId: string | null; scorerId: string | null; areaPercent: number; photoSpecimenId: string | null };
@@ -113,7 +118,7 @@ export async function scaleScoreRows({ labId, trialId, protocol = [], rows }: { 
     const face = faceRow && "points" in faceRow.geometry ? (faceRow.geometry.points as Point[]) : null;
     const spots = onPhoto.filter((m) => m.role === "spot" && m.scorerId === (r.scorerId ?? faceRow?.scorerId)).map((m) => m.geometry as Mark);
     const pxPerMm = ev?.scale?.pxPerMm ?? null;
-    return { pxPerMm, protocolMissing: ev ? ev.missing : null, ...scaleScore({ areaPercent: r.areaPercent, face, spots, pxPerMm }) };
+    return { pxPerMm, protocolMissing: ev?.recorded ? ev.missing : null, ...scaleScore({ areaPercent: r.areaPercent, face, spots, pxPerMm }) };
   });
 }
 

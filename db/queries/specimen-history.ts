@@ -6,7 +6,7 @@ import { and, asc, eq, inArray, lte } from "drizzle-orm";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
-import { akaganeiteSeenOf, chlorideStateOf, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, type ChlorideState } from "@/lib/specimens/history";
+import { akaganeiteSeenOf, chlorideStateOf, datedBeforeStart, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, weighedByStart, type ChlorideState } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
 import type { HistoryEntryInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
@@ -88,7 +88,8 @@ export type HistoryFactors = { chlorideState: ChlorideState; akaganeiteSeen: boo
 
 /**
  * Per specimen, what its history says before a given day (a trial's allocation or start): the
- * chloride state of the latest test, whether akaganeite was ever seen, and the first weighing.
+ * chloride state of the latest test, whether akaganeite was ever seen (both dated before the day), and
+ * the first weighing (made on or before the day, as the report's baseline).
  * Used as blocking factors in allocation and as covariates in the humidity-response models.
  */
 export async function loadHistoryFactors({ labId, specimenIds, before }: { labId: string; specimenIds: readonly string[]; before?: string }): Promise<Map<string, HistoryFactors>> {
@@ -103,7 +104,9 @@ export async function loadHistoryFactors({ labId, specimenIds, before }: { labId
     db.select({ specimenId: massMeasurements.specimenId, measuredOn: massMeasurements.measuredOn, massG: massMeasurements.massG }).from(massMeasurements)
       .where(and(eq(massMeasurements.labId, labId), inArray(massMeasurements.specimenId, ids))).orderBy(asc(massMeasurements.measuredOn), asc(massMeasurements.createdAt)),
   ]);
-  const inTime = (on: string) => before === undefined || on < before;
+  // As the trial report reads the history (historyBeforeTrial): states dated before the start, weighings up to it.
+  const inTime = (on: string) => before === undefined || datedBeforeStart(on, before);
+  const weighedInTime = (on: string) => before === undefined || weighedByStart(on, before);
   const group = <T extends { specimenId: string }>(rows: T[]) => {
     const m = new Map<string, T[]>();
     for (const r of rows) m.set(r.specimenId, [...(m.get(r.specimenId) ?? []), r]);
@@ -111,7 +114,7 @@ export async function loadHistoryFactors({ labId, specimenIds, before }: { labId
   };
   const cBy = group(chloride.filter((r) => inTime(r.testedOn)));
   const aBy = group(akaganeite.filter((r) => inTime(r.checkedOn)));
-  const wBy = group(weighings.filter((r) => inTime(r.measuredOn)));
+  const wBy = group(weighings.filter((r) => weighedInTime(r.measuredOn)));
   for (const id of ids) {
     const first = wBy.get(id)?.[0];
     out.set(id, {
@@ -152,14 +155,15 @@ export async function loadTrialHistory({ labId, trial }: { labId: string; trial:
     .where(and(eq(placements.labId, labId), eq(placements.trialId, trial.id)));
   const ids = placed.map((p) => p.specimenId);
   if (ids.length === 0) return [];
-  const [rows, history] = await Promise.all([
-    db.select({ id: specimens.id, label: specimens.label, parentPiece: specimens.parentPiece, slice: specimens.slice, provenance: specimens.provenance })
-      .from(specimens).where(and(eq(specimens.labId, labId), inArray(specimens.id, ids))).orderBy(asc(specimens.label)),
-    loadHistoryRows({ labId, specimenIds: ids }),
-  ]);
   const day = (d: Date) => d.toISOString().slice(0, 10);
   const startOn = trial.startedAt ? day(trial.startedAt) : null;
   const endOn = day(trial.concludedAt ?? new Date());
+  const [rows, history] = await Promise.all([
+    db.select({ id: specimens.id, label: specimens.label, parentPiece: specimens.parentPiece, slice: specimens.slice, provenance: specimens.provenance })
+      .from(specimens).where(and(eq(specimens.labId, labId), inArray(specimens.id, ids))).orderBy(asc(specimens.label)),
+    // Entries made after the trial (perhaps during a later, blind one) stay out, as in the data package.
+    loadHistoryRows({ labId, specimenIds: ids, untilDay: endOn }),
+  ]);
   const of = <T extends { specimenId: string }>(list: readonly T[], id: string) => list.filter((r) => r.specimenId === id);
   return rows.map((sp) => ({
     ...sp,

@@ -9,6 +9,7 @@
 // the first photo's frame, h: sample spacing), reported as errorBoundPx2.
 import { applyAffine, determinant, invertAffine, type Affine } from "./align";
 import { pointInPolygon, type Mark, type Point, type SpotMark } from "@/lib/scoring/geometry";
+import { areaMm2FromPx2 } from "@/lib/scoring/scale";
 
 export type AlignedMarks = { marks: readonly Mark[]; face?: readonly Point[] | null; toReference: Affine };
 
@@ -114,7 +115,7 @@ export function newSinceLast(current: AlignedMarks, previous: AlignedMarks | nul
   return {
     newAreaPx2,
     currentAreaPx2: currentSamples * area,
-    newAreaMm2: opts.pxPerMm ? newAreaPx2 / (opts.pxPerMm * opts.pxPerMm) : null,
+    newAreaMm2: opts.pxPerMm ? areaMm2FromPx2(newAreaPx2, opts.pxPerMm) : null,
     sampleSpacingPx: h,
     errorBoundPx2: (lengthIn(current) + lengthIn(previous) + (face ? Math.sqrt(Math.abs(determinant(current.toReference))) * shapeExtent({ kind: "polygon", points: [...face] }).perimeter : 0)) * h,
   };

@@ -37,6 +37,8 @@ export const PATCH_LIMITS = { clippedFractionMax: 0.01, chromaMax: 20, lightness
 
 /** The usual neutral of a colour card's mid-grey patch (an "18 %" grey reads L* ≈ 50). */
 export const DEFAULT_PATCH_LIGHTNESS = 50;
+/** The grey patch's known L* the product accepts (a patch darker or lighter reads too noisily or clips). */
+export const PATCH_LIGHTNESS_RANGE = { min: 20, max: 95 } as const;
 
 /** Patch statistics over the pixels whose centres lie in the rectangle (clipped to the image). */
 export function measurePatch(image: RgbaImage, rect: PatchRect): PatchStats {

@@ -99,6 +99,11 @@ export type HistoryBeforeTrial = {
   trialChange: TrialMassChange | null;
 };
 
+/** A state entry (chloride test, akaganeite check, treatment) counts for a trial when dated before its start day. */
+export const datedBeforeStart = (on: string, startOn: string) => on < startOn;
+/** A weighing counts as the trial's baseline when made on or before its start day. */
+export const weighedByStart = (on: string, startOn: string) => on <= startOn;
+
 /**
  * What a specimen's history says about it at a trial: chloride state, akaganeite and treatments
  * from entries dated before the start day (as loadHistoryFactors), its first weighing, and its
@@ -110,9 +115,9 @@ export function historyBeforeTrial(h: {
   priorTreatments: readonly { treatedOn: string; treatment: string }[];
   weighings: readonly Weighing[];
 }, startOn: string | null, endOn: string): HistoryBeforeTrial {
-  const before = (on: string) => startOn === null || on < startOn;
+  const before = (on: string) => startOn === null || datedBeforeStart(on, startOn);
   const weighings = massChanges(h.weighings);
-  const baseline = startOn === null ? undefined : weighings.filter((w) => w.measuredOn <= startOn).at(-1);
+  const baseline = startOn === null ? undefined : weighings.filter((w) => weighedByStart(w.measuredOn, startOn)).at(-1);
   const final = baseline ? weighings.filter((w) => w.measuredOn > baseline.measuredOn && w.measuredOn <= endOn).at(-1) : undefined;
   const plain = (w: Weighing): Weighing => ({ measuredOn: w.measuredOn, massG: w.massG });
   return {

@@ -1,7 +1,7 @@
 // Rust scores and marks: one set of schemas for the score form (FormData strings), the JSON API and
 // the client (which reuses them to show the same messages before sending).
 import { z } from "zod";
-import { patchProblem } from "@/lib/scoring/colour-normalise";
+import { PATCH_LIGHTNESS_RANGE, patchProblem } from "@/lib/scoring/colour-normalise";
 import { ASTM_DISTRIBUTION } from "@/lib/scoring/grades";
 
 // Coordinates are original-image pixels; a 200-megapixel frame is ~20 000 px on a side, so ±1e6 is
@@ -53,7 +53,8 @@ export const colourPatchSchema = z
     y: coord,
     width: length,
     height: length,
-    patchLightness: z.number("Enter the patch's lightness L*.").min(20, "The patch's L* must be 20 or more.").max(95, "The patch's L* must be 95 or less."),
+    patchLightness: z.number("Enter the patch's lightness L*.").min(PATCH_LIGHTNESS_RANGE.min, `The patch's L* must be ${PATCH_LIGHTNESS_RANGE.min} or more.`)
+      .max(PATCH_LIGHTNESS_RANGE.max, `The patch's L* must be ${PATCH_LIGHTNESS_RANGE.max} or less.`),
     pixels: z.number().int().min(0),
     meanLinear: z.tuple([linearLevel, linearLevel, linearLevel]),
     clippedFraction: z.number().min(0).max(1),
