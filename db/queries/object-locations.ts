@@ -1,5 +1,5 @@
 import "server-only";
-import { and, asc, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
+import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { checkMove } from "@/lib/collection/stays";
 import type { MoveObjectInput } from "@/lib/validation/collection";

@@ -21,12 +21,23 @@ type PhotoRow = typeof photos.$inferSelect;
 
 const noPhoto = () => new AppError("not-found", "No such photo in this lab.");
 
-/** The photo, locked for update, with its trial share-locked and checked writable. */
+/**
+ * The photo, locked for update, with its trial share-locked and checked writable. The trial is locked
+ * first, then the photo: the order every trial writer takes (control points, scores), so two writers
+ * never wait on each other in opposite orders.
+ */
+export async function lockPhotoAndTrial(tx: Tx, actor: Actor, photoId: string) {
+  const [found] = await tx.select({ trialId: photos.trialId }).from(photos).where(and(eq(photos.id, photoId), eq(photos.labId, actor.labId)));
+  if (!found?.trialId) throw noPhoto();
+  const trial = await lockTrial(tx, actor.labId, found.trialId, "share");
+  assertWritable(trial);
+  const [p] = await tx.select().from(photos).where(and(eq(photos.id, photoId), eq(photos.labId, actor.labId), eq(photos.trialId, found.trialId))).for("update");
+  if (!p) throw noPhoto();
+  return { photo: p as PhotoRow & { trialId: string }, trial };
+}
+
 async function lockPhoto(tx: Tx, actor: Actor, photoId: string): Promise<PhotoRow & { trialId: string }> {
-  const [p] = await tx.select().from(photos).where(and(eq(photos.id, photoId), eq(photos.labId, actor.labId))).for("update");
-  if (!p || !p.trialId) throw noPhoto();
-  assertWritable(await lockTrial(tx, actor.labId, p.trialId, "share"));
-  return p as PhotoRow & { trialId: string };
+  return (await lockPhotoAndTrial(tx, actor, photoId)).photo;
 }
 
 /** Scores and marks made on one photo, with the specimen and day they belong to. */

@@ -11,18 +11,14 @@ import { AppError } from "@/lib/auth/errors";
 import { effectivePxPerMm, missingProtocolPoints } from "@/lib/photos/protocol-record";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { areaKey, outcomeAreasMm2, scaleScore, type ScaledScore } from "@/lib/scoring/scaled-areas";
-import { assertWritable } from "@/lib/trials/lock";
 import type { PhotoEvidenceInput } from "@/lib/validation/photo-evidence";
-import { lockTrial } from "./trial-access";
+import { lockPhotoAndTrial } from "./photo-edits";
 
 type Actor = { labId: string; userId: string };
 
 export async function savePhotoEvidence({ actor, input }: { actor: Actor; input: PhotoEvidenceInput }) {
   return db.transaction(async (tx) => {
-    const [p] = await tx.select().from(photos).where(and(eq(photos.id, input.photoId), eq(photos.labId, actor.labId))).for("update");
-    if (!p || !p.trialId) throw new AppError("not-found", "No such photo in this lab.");
-    const trial = await lockTrial(tx, actor.labId, p.trialId, "share");
-    assertWritable(trial);
+    const { photo: p, trial } = await lockPhotoAndTrial(tx, actor, input.photoId);
     const unknown = input.protocolConfirmed.filter((l) => !trial.photoProtocol.includes(l));
     if (unknown.length) throw new AppError("invalid", "The trial's photo protocol has changed; reload the page and tick again.", { "protocol[]": ["These points are not in the trial's protocol any more."] });
     const [before] = await tx.select().from(photoEvidence).where(and(eq(photoEvidence.photoId, p.id), eq(photoEvidence.labId, actor.labId)));

@@ -10,7 +10,7 @@ import { and, eq, ne } from "drizzle-orm";
 import { recordAudit } from "@/db/audit";
 import { db } from "@/db/client";
 import { enqueuePhotoProcess, type PhotoProcessJob } from "@/db/jobs/photos";
-import { inspections, photoEvidence, photos, specimens, trials } from "@/db/schema";
+import { inspections, photoEvidence, photos, specimens } from "@/db/schema";
 import { AppError } from "@/lib/auth/errors";
 import { checkCaptureTime, type CaptureCheck } from "@/lib/photos/capture-check";
 import { readPhotoConfig } from "@/lib/photos/config";

@@ -126,7 +126,6 @@ function dewOf(c: Candidate): { dewC: number | null; dewOver: DewOver | null } {
 }
 
 const toCandidate = (r: Row): Candidate => ({ t: r.takenAt.getTime(), rh: r.rhPercent, rhRaw: r.rhRaw, tempC: r.tempC, dewLogged: r.dewLogged, instrument: r.instrument });
-const byFrom = (a: OffsetInUse, b: OffsetInUse) => a.from.getTime() - b.from.getTime();
 
 /**
  * A chamber's readings over [fromMs, toMs] as lib/climate sees them, with applied hygrometer offsets:
@@ -212,7 +211,7 @@ export async function getChamberSeries({ labId, chamber, period, maxPoints = 160
     }
     return {
       period, from, count, firstAt: series[0]?.takenAt ?? null, lastAt: series[series.length - 1]?.takenAt ?? null,
-      points, band, stats, maxGapMinutes, offsets: offsets.sort(byFrom), settle, instruments,
+      points, band, stats, maxGapMinutes, offsets /* in time order (OffsetsUsed.list) */, settle, instruments,
     };
   });
 }

@@ -6,7 +6,7 @@ import { AppError } from "@/lib/auth/errors";
 import type { Mark, Point } from "@/lib/scoring/geometry";
 import { photoUrl } from "@/storage/photo-urls";
 import { db } from "../client";
-import { chambers, inspections, marks, photos, placements, scores, specimens, treatments, trials, users } from "../schema";
+import { chambers, inspections, marks, photos, placements, scores, specimens, treatments, users } from "../schema";
 import { loadSpecimenOutcomes } from "./analysis";
 import { getTrial, getTrialAccess } from "./trial-access";
 

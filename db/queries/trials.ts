@@ -7,7 +7,7 @@ import type { TrialDesign } from "@/lib/validation/trials";
 import { recordAudit } from "../audit";
 import { db, type Tx } from "../client";
 import {
-  chambers, inspections, memberships, placements, specimens, treatments, trialAllocations, trialArms, trialMembers, trialNotes, trials, users,
+  chambers, memberships, placements, specimens, treatments, trialAllocations, trialArms, trialMembers, trialNotes, trials, users,
 } from "../schema";
 import { assertAllowed, type Actor } from "./specimens";
 import { assertPrimaryIsScorer, assertTeamPeople } from "./team";

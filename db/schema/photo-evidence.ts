@@ -1,7 +1,7 @@
 // What was recorded with each photo: which points of the trial's photo protocol were followed, and
 // the photo's scale (two points on the scale bar, or px per mm typed in). A series scale holds for
 // every photo of one specimen in one trial when the framing is fixed; a photo's own scale wins.
-import { doublePrecision, index, jsonb, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
+import { doublePrecision, index, jsonb, pgTable, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import type { ScaleSource } from "../../lib/scoring/scale";
 import { labs, users } from "./auth";
 import { photos } from "./photos";

@@ -2,7 +2,7 @@
 // refused at the field, nothing saved), each placement's exposure equal to a direct computation
 // over the raw readings written here, and the re-analysis without out-of-band jars.
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { and, eq, inArray } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { addHygrometerCheckAction } from "@/app/_actions/chamber-records";

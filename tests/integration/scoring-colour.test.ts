@@ -7,7 +7,7 @@ import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { colourPatchForPage } from "@/db/queries/photo-colour";
 import { saveScoreAction } from "@/app/_actions/scores";
-import { renderSpecimenFace, specimenFaceOutline } from "@/lib/demo-images/specimen-face";
+import { renderSpecimenFace } from "@/lib/demo-images/specimen-face";
 import { measurePatch, patchGains } from "@/lib/scoring/colour-normalise";
 import { createTestLab, type TestLab } from "../support/db";
 import { ensureS3Fake, type S3Fake } from "../support/s3";

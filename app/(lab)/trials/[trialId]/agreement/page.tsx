@@ -1,4 +1,3 @@
-import Link from "next/link";
 import { ASTM_CATEGORIES, scorerAgreement, type PairAgreement } from "@/db/queries/scores-agreement";
 import { loadGradePairs } from "@/db/queries/analysis";
 import { scorerAgreement as recordAgreement } from "@/lib/analysis/compare";

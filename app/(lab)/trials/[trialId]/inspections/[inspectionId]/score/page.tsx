@@ -18,7 +18,7 @@ export default async function InspectionScoringPage({ params }: { params: Promis
   if (access.blind) redirect(`/trials/${trialId}/scoring`);
   const data = await listInspectionScoring({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId })
     .catch(orNotFound);
-  const { trial, inspection, rows } = data;
+  const { inspection, rows } = data;
   const scored = rows.filter((r) => r.mine).length;
   return (
     <div className="space-y-4">
