@@ -1,7 +1,7 @@
 import "server-only";
 import { and, asc, eq } from "drizzle-orm";
 import { chamberBand, type RhBand } from "@/lib/climate/band-stats";
-import { correctionOf, type TimedCorrection } from "@/lib/climate/hygrometer-check";
+import { OffsetTimeline } from "@/lib/climate/check-timeline";
 import { placementExposure, type Exposure } from "@/lib/climate/exposure";
 import { COARSE_MS, gapLimitMinutes, groupBlocks } from "@/lib/climate/readings-reduce";
 import { db } from "../client";
@@ -15,14 +15,9 @@ export type PlacementExposureRow = {
   fromAt: Date; toAt: Date; open: boolean; band: RhBand; exposure: Exposure;
 };
 
-/** Applied checks of the chamber's instruments as timed corrections, per instrument, oldest first. */
+/** Applied checks of the chamber's instruments as timed corrections, per instrument, oldest first (the chart's OffsetTimeline). */
 async function correctionsOf(snap: Snapshot, key: { labId: string; chamberId: string }) {
-  const byInstrument = new Map<string, TimedCorrection[]>();
-  for (const c of await loadAppliedChecks(snap, key)) {
-    byInstrument.set(c.instrument, [...(byInstrument.get(c.instrument) ?? []), { atMs: new Date(c.checkedAt).getTime(), ...correctionOf(c) }]);
-  }
-  for (const list of byInstrument.values()) list.sort((a, b) => a.atMs - b.atMs);
-  return byInstrument;
+  return new OffsetTimeline(await loadAppliedChecks(snap, key)).timed();
 }
 
 async function correctionsPerChamber(snap: Snapshot, labId: string, chamberIds: readonly string[]) {

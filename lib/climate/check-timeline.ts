@@ -28,6 +28,11 @@ export class OffsetTimeline {
     }
   }
 
+  /** Each instrument's applied checks as timed corrections, oldest first (what exposure corrects by). */
+  timed(): ReadonlyMap<string, readonly TimedCorrection[]> {
+    return new Map([...this.byInstrument].map(([instrument, e]) => [instrument, e.timed]));
+  }
+
   get empty(): boolean {
     return this.byInstrument.size === 0;
   }
