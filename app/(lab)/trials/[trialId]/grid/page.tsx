@@ -30,7 +30,11 @@ export default async function TrialGridPage({ params, searchParams }: { params: 
   const { trial, inspection, cells } = grid;
   const protocol = trialRow.photoProtocol;
   const [evidence, scaled] = await Promise.all([
-    loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol, photoRows: cells.flatMap((c) => c.photos.map((p) => ({ id: p.id, specimenId: c.specimen.id }))) }),
+    loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol, photoRows: cells.flatMap((c) => {
+      // Only the photo each cell shows is flagged.
+      const shown = representativePhoto(c.photos, c.score);
+      return shown ? [{ id: shown.id, specimenId: c.specimen.id }] : [];
+    }) }),
     // mm² comes from the score of record, which a blind scorer does not see.
     grid.blind || !inspection ? null : loadScaledRecords({ labId: ctx.labId, trialId: trial.id, inspectionId: inspection.id, protocol }),
   ]);

@@ -30,11 +30,14 @@ export default async function BlindScorePage({ params }: { params: Promise<{ tri
   const view = await getBlindPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, photoId }).catch(orNotFound);
   const canScore = can(ctx.role, "scores.write") && !access.locked;
   // This photo's own patch only: one carried over from an earlier photo would tie it to its specimen.
-  const initialPatch = await colourPatchForPage({ labId: ctx.labId, photoId: view.photo.id, previous: false });
   // Protocol points are the trial's and the photo's own; the scale's value is not shown here, since a
   // series scale is shared by every photo of a specimen and would tie them together.
-  const lab = await getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound);
-  const evidence = (await loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: [{ id: photoId, specimenId: lab.specimenId }] })).get(photoId);
+  const [initialPatch, evidence] = await Promise.all([
+    colourPatchForPage({ labId: ctx.labId, photoId: view.photo.id, previous: false }),
+    getLabPhoto({ labId: ctx.labId, photoId }).catch(orNotFound)
+      .then((lab) => loadPhotoEvidence({ labId: ctx.labId, trialId: trial.id, protocol: trial.photoProtocol, photoRows: [{ id: photoId, specimenId: lab.specimenId }] }))
+      .then((m) => m.get(photoId)),
+  ]);
 
   return (
     <div className="space-y-4">

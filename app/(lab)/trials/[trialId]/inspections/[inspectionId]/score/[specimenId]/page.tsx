@@ -34,12 +34,12 @@ export default async function ScorePage({ params, searchParams }: { params: Prom
   const canScore = can(ctx.role, "scores.write") && !concluded;
   const shown = canScore ? mine : record?.score ?? null;
   const base = `/trials/${trialId}/inspections/${inspectionId}/score`;
-  const initialPatch = data.photo ? await colourPatchForPage({ labId: ctx.labId, photoId: data.photo.id, previous: canScore }) : null;
-  const next = canScore ? await nextUnscoredPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId }) : null;
+  const [initialPatch, next, evidence] = await Promise.all([
+    data.photo ? colourPatchForPage({ labId: ctx.labId, photoId: data.photo.id, previous: canScore }) : null,
+    canScore ? nextUnscoredPhoto({ labId: ctx.labId, userId: ctx.userId, trialId, inspectionId, specimenId }) : null,
+    data.photo ? loadPhotoEvidence({ labId: ctx.labId, trialId, protocol: trial.photoProtocol, photoRows: [{ id: data.photo.id, specimenId }] }).then((m) => m.get(data.photo!.id)) : undefined,
+  ]);
   const others = data.pairScores.filter((r) => r.score.scorerId !== null);
-  const evidence = data.photo
-    ? (await loadPhotoEvidence({ labId: ctx.labId, trialId, protocol: trial.photoProtocol, photoRows: [{ id: data.photo.id, specimenId }] })).get(data.photo.id)
-    : undefined;
   const consensus = data.pairScores.find((r) => r.score.scorerId === null)?.score ?? null;
 
   return (
