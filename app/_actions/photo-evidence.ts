@@ -11,6 +11,6 @@ export const savePhotoEvidenceAction = labAction("photos.upload", photoEvidenceS
   revalidate(`/trials/${r.trialId}/grid`);
   revalidate(`/trials/${r.trialId}/report`);
   const missing = r.missing ? ` ${r.missing} protocol point${r.missing === 1 ? " is" : "s are"} marked as not followed; the photo is flagged in scoring, the grid and the report.` : " Every protocol point was followed.";
-  const scale = d.forSeries ? " The scale now holds for every photo of this specimen in this trial." : "";
+  const scale = d.forSeries ? " The scale now holds for every photo of this specimen in this trial that has no scale of its own." : "";
   return { ok: true, message: `Saved.${missing}${scale}` };
 });

@@ -95,7 +95,7 @@ export function PhotoEvidenceForm({ photoId, name, protocol, confirmed, hasOwnSc
       {(mode === "points" || mode === "typed") && (
         <label className="flex gap-2 items-start text-xs">
           <input type="checkbox" name="forSeries" defaultChecked={state?.values?.forSeries === "on"} key={state?.values?.forSeries ?? "off"} className="mt-0.5" aria-describedby={state?.errors?.forSeries ? `${id}-series-err` : undefined} />
-          <span>Framing is fixed: use this scale for every photo of this specimen in this trial</span>
+          <span>Framing is fixed: use this scale for every photo of this specimen in this trial (a photo's own scale still wins)</span>
         </label>
       )}
       <FieldError id={`${id}-series-err`} state={state} field="forSeries" />

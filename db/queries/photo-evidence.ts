@@ -44,7 +44,7 @@ export async function savePhotoEvidence({ actor, input }: { actor: Actor; input:
         .onConflictDoUpdate({ target: [seriesScales.labId, seriesScales.trialId, seriesScales.specimenId], set }).returning({ id: seriesScales.id });
       await recordAudit(tx, {
         labId: actor.labId, userId: actor.userId, entity: "series_scale", entityId: row.id, trialId: p.trialId, action: old ? "update" : "create",
-        summary: `Series scale ${input.scale.pxPerMm.toFixed(2)} px/mm for every photo of the specimen in this trial`,
+        summary: `Series scale ${input.scale.pxPerMm.toFixed(2)} px/mm for the photos of the specimen in this trial without their own scale`,
         before: old ? { pxPerMm: old.pxPerMm, scaleSource: old.scaleSource } : null, after: { specimenId: p.specimenId, pxPerMm: input.scale.pxPerMm, scaleSource: input.scale.source },
       });
     }
