@@ -118,7 +118,8 @@ async function run() {
   const client = await signedInClient(email, PASSWORD);
   // Two warming requests and five timed ones each first, then the load; the location page first, so the
   // overview's backlog does not count against it, and a pause after each load for the server to drain.
-  for (const [name, path] of [["location page", `/chambers/${ids[LOCATIONS - 1]}`], ["collection overview", "/collection/overview"]] as const) {
+  // The lab home last, for scale: what the lightest page of the lab costs on the same machine.
+  for (const [name, path] of [["location page", `/chambers/${ids[LOCATIONS - 1]}`], ["collection overview", "/collection/overview"], ["lab home (for scale)", "/"]] as const) {
     const single: number[] = [];
     for (let i = 0; i < 2; i++) await (await client.fetch(path)).text(); // warm the server's code for this page
     for (let i = 0; i < 5; i++) {
@@ -131,7 +132,8 @@ async function run() {
     const r = await loadRun({ url: `${APP_URL}${path}`, connections, duration: seconds, headers: { cookie: client.cookie } });
     const met = r.p95 < TARGET_MS && r.errors + r.non2xx === 0;
     await new Promise((r) => setTimeout(r, 15_000));
-    console.log(`${name.padEnd(20)} alone p50 ${one.p50.toFixed(0)} ms; at ${connections} connections p50 ${r.p50.toFixed(0)} ms  p95 ${r.p95.toFixed(0)} ms  ${r.rps} req/s  errors ${r.errors}  non-2xx ${r.non2xx}  ${met ? "target met" : "TARGET NOT MET"}`);
+    const cpu = r.cpuMsPerRequest === null ? "" : `  machine CPU ${r.cpuMsPerRequest.toFixed(1)} ms per request (${r.cores} cores: at most ~${Math.round((r.cores * 1000) / r.cpuMsPerRequest)} req/s)`;
+    console.log(`${name.padEnd(20)} alone p50 ${one.p50.toFixed(0)} ms; at ${connections} connections p50 ${r.p50.toFixed(0)} ms  p95 ${r.p95.toFixed(0)} ms  ${r.rps} req/s  errors ${r.errors}  non-2xx ${r.non2xx}${cpu}  ${path === "/" ? "" : met ? "target met" : "TARGET NOT MET"}`);
   }
   if (reused || process.env.COLLECTION_KEEP) {
     console.log(`bench lab kept: COLLECTION_LAB=${labId}`);

@@ -1,5 +1,7 @@
 // Shared by the benches: percentiles (simple-statistics' quantileSorted) and an autocannon run that keeps
 // every response time, since autocannon's own summary has no p95 (only p90 and p97.5).
+import { existsSync, readFileSync } from "node:fs";
+import os from "node:os";
 import autocannon from "autocannon";
 import { quantileSorted } from "simple-statistics";
 
@@ -14,11 +16,32 @@ export function percentiles(values: number[]): Percentiles {
 
 type Instance = Promise<autocannon.Result> & { on(event: "response", fn: (client: unknown, status: number, bytes: number, ms: number) => void): void };
 
-/** One autocannon run; the percentiles come from every response's time. */
+/**
+ * CPU time the whole machine spent busy so far, in ms (Linux /proc/stat: user, nice, system, irq,
+ * softirq over all cores), or null elsewhere. Differences over a run cover the app, PostgreSQL and
+ * the load generator together.
+ */
+export function machineBusyMs(): number | null {
+  if (!existsSync("/proc/stat")) return null;
+  const f = readFileSync("/proc/stat", "utf8").split("\n")[0].trim().split(/\s+/).slice(1).map(Number);
+  return ((f[0] + f[1] + f[2] + f[5] + f[6]) * 1000) / 100; // USER_HZ is 100 on Linux
+}
+
+/**
+ * One autocannon run; the percentiles come from every response's time. cpuMsPerRequest: the machine's
+ * busy CPU time over the run divided by the responses — what one request costs, whatever the
+ * concurrency; with C cores the machine answers at most about C × 1000 / cpuMsPerRequest per second.
+ */
 export async function loadRun(opts: { url: string; connections: number; duration: number; headers?: Record<string, string> }) {
   const times: number[] = [];
+  const busy0 = machineBusyMs();
   const instance = autocannon(opts) as unknown as Instance;
   instance.on("response", (_client, _status, _bytes, ms) => times.push(ms));
   const result = await instance;
-  return { ...percentiles(times), requests: times.length, rps: Math.round(result.requests.average), errors: result.errors + result.timeouts, non2xx: result.non2xx };
+  const busy1 = machineBusyMs();
+  const cpuMsPerRequest = busy0 === null || busy1 === null || !times.length ? null : (busy1 - busy0) / times.length;
+  return {
+    ...percentiles(times), requests: times.length, rps: Math.round(result.requests.average), errors: result.errors + result.timeouts, non2xx: result.non2xx,
+    cpuMsPerRequest, cores: os.availableParallelism?.() ?? os.cpus().length,
+  };
 }

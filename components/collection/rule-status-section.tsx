@@ -8,8 +8,19 @@ import { formatDate, formatDateTime } from "@/lib/format";
 const pct = (f: number | null) => (f === null ? "no readings" : `${(f * 100).toFixed(1)} %`);
 const hours = (minutes: number) => (minutes >= 2880 ? `${(minutes / 1440).toFixed(1)} d` : `${(minutes / 60).toFixed(1)} h`);
 
-export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
+/** Exceedances and objects at risk listed unless the page asks for every one (a link on the page does). */
+export const RULE_LIST_SHOWN = 20;
+
+/**
+ * fullListsHref: where the page lists every exceedance and object at risk; null when it already does.
+ */
+export function RuleStatusSection({ status, fullListsHref }: { status: LocationRuleStatus; fullListsHref: string | null }) {
   const { rule, windows, exceedances, atRisk, needs } = status;
+  const limit = fullListsHref === null ? Infinity : RULE_LIST_SHOWN;
+  const more = (shown: number, total: number, what: string) =>
+    total > shown && fullListsHref !== null ? (
+      <p className="text-xs mt-1">{shown} of {total} {what} shown. <Link className="link" href={fullListsHref}>Show all</Link></p>
+    ) : null;
   return (
     <section className="panel p-4 space-y-3" aria-labelledby="rule-h" data-testid="location-rule">
       <h2 id="rule-h" className="font-semibold">Storage rule</h2>
@@ -59,7 +70,7 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
               <table className="data mt-2" aria-label="Exceedances">
                 <thead><tr><th scope="col">start</th><th scope="col" className="text-right!">duration</th><th scope="col" className="text-right!">peak</th><th scope="col">ended</th></tr></thead>
                 <tbody>
-                  {exceedances.slice(0, 50).map((e) => (
+                  {exceedances.slice(0, limit).map((e) => (
                     <tr key={e.start.toISOString()}>
                       <td>{formatDateTime(e.start)}</td>
                       <td className="text-right tabular-nums">{hours(e.durationMinutes)}</td>
@@ -69,6 +80,7 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
                   ))}
                 </tbody>
               </table>
+              {more(Math.min(limit, exceedances.length), exceedances.length, "exceedances, latest first,")}
             </details>
           ) : <p className="text-sm">No exceedance in the last 365 days of readings.</p>}
         </>
@@ -77,9 +89,10 @@ export function RuleStatusSection({ status }: { status: LocationRuleStatus }) {
         <div className="space-y-1">
           <h3 className="text-sm font-semibold">Objects at risk</h3>
           <p className="text-xs muted">Their own rule was exceeded in the last 30 days (highest {status.max30dRhPercent?.toFixed(1)} %RH).</p>
-          <ul className="text-sm list-disc pl-5">
-            {atRisk.map((o) => <li key={o.id}><Link className="link" href={`/specimens/${o.id}`}>{o.label}</Link>{o.accessionNumber ? ` (${o.accessionNumber})` : ""}: keep below {o.thresholdRhPercent.toFixed(1)} %RH</li>)}
+          <ul className="text-sm list-disc pl-5" aria-label="Objects at risk">
+            {atRisk.slice(0, limit).map((o) => <li key={o.id}><Link className="link" href={`/specimens/${o.id}`}>{o.label}</Link>{o.accessionNumber ? ` (${o.accessionNumber})` : ""}: keep below {o.thresholdRhPercent.toFixed(1)} %RH</li>)}
           </ul>
+          {more(Math.min(limit, atRisk.length), atRisk.length, "objects at risk")}
         </div>
       )}
       {status.desiccantDueAt && (

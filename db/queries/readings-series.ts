@@ -20,8 +20,13 @@ export type SeriesPoint = ChartPoint;
 export type DewOver = NonNullable<ChartPoint["dewOver"]>;
 
 const DAY_MS = 86_400_000;
-/** Up to this many readings in the period, every reading is loaded (a finer chart for short periods). */
-export const ALL_ROWS_LIMIT = 20_000;
+/**
+ * Up to this many readings in the period, every reading is loaded (a finer chart for short periods).
+ * The chart shows at most 1,600 points, so beyond about that many it gains little from every reading,
+ * and the block summaries give the same statistics (tests/integration/chambers-climate-sql.test.ts):
+ * 30 days of 10-minute readings (4,320) are read as summaries plus the hours that cross the band.
+ */
+export const ALL_ROWS_LIMIT = 2_000;
 
 const floorTo = (ms: number | null, width: number) => (ms == null ? null : Math.floor(ms / width) * width);
 

@@ -108,4 +108,21 @@ describe("collection care walk", () => {
     await expect(page.getByTestId("location-settings").textContent()).resolves.toContain(`keeper researcher `);
     await expect(page.getByRole("form", { name: "Location settings" }).getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.researcher.id);
   }, 60_000);
+
+  it("lists the first 20 objects at risk and every one on asking", async () => {
+    // 24 more objects under the same rule join the room: 25 at risk from the exceedance above.
+    const more = await db.insert(s.specimens).values(Array.from({ length: 24 }, (_, i) => ({
+      labId: lab.labId, label: `WALK-${i + 2}`, materialClass: "archaeological-iron" as const, findName: "Walk find",
+    }))).returning({ id: s.specimens.id });
+    await db.insert(s.objectLocations).values(more.map((o) => ({ labId: lab.labId, specimenId: o.id, locationId: roomId, fromAt: new Date(Date.now() - 5 * 24 * HOUR) })));
+    await page.goto(`${APP_URL}/chambers/${roomId}`);
+    const section = page.getByTestId("location-rule");
+    const list = section.getByRole("list", { name: "Objects at risk" });
+    await expect(list.locator("li").count()).resolves.toBe(20);
+    await expect(section.textContent()).resolves.toContain("20 of 25 objects at risk shown.");
+    await section.getByRole("link", { name: "Show all" }).last().click();
+    await page.waitForURL(/full=1/);
+    await expect(page.getByTestId("location-rule").getByRole("list", { name: "Objects at risk" }).locator("li").count()).resolves.toBe(25);
+    await expect(page.getByTestId("location-rule").textContent()).resolves.not.toContain("objects at risk shown");
+  }, 60_000);
 });

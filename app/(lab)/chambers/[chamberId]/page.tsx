@@ -116,7 +116,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
         )}
       </section>
 
-      {ruleStatus && <RuleStatusSection status={ruleStatus} />}
+      {ruleStatus && <RuleStatusSection status={ruleStatus} fullListsHref={sp.full === "1" ? null : `/chambers/${chamber.id}?period=${period}&full=1#rule-h`} />}
       {storage && (
         <section className="panel p-4 space-y-3" aria-labelledby="location-h">
           <h2 id="location-h" className="font-semibold">Location</h2>
