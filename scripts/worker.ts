@@ -43,12 +43,12 @@ async function main() {
     const counted = await refreshStaleLocationStatuses();
     if (counted) console.log(`[worker] collection: ${counted} location status(es) counted`);
     const r = await runLocationAlertScan();
-    if (r.claimed || r.sent) console.log(`[worker] collection alerts: ${r.claimed} claimed, ${r.sent} sent`);
+    if (r.claimed || r.sent || r.withdrawn) console.log(`[worker] collection alerts: ${r.claimed} claimed, ${r.sent} sent, ${r.withdrawn} withdrawn (location archived or keeper left)`);
   });
   await boss.schedule(QUEUES.locationAlertScan, "*/10 * * * *", undefined, { retryLimit: 5, retryDelay: 60, retryBackoff: true });
   await boss.work(QUEUES.locationDigest, { pollingIntervalSeconds: Math.max(0.5, pollS) }, async () => {
     const r = await runLocationDigest();
-    if (r.digests) console.log(`[worker] collection digests: ${r.digests} sent for ${r.alerts} alert(s)`);
+    if (r.digests || r.withdrawn) console.log(`[worker] collection digests: ${r.digests} sent for ${r.alerts} alert(s), ${r.withdrawn} withdrawn`);
   });
   await boss.schedule(QUEUES.locationDigest, "0 7 * * *", undefined, { retryLimit: 5, retryDelay: 300, retryBackoff: true });
   await scanOnce().catch((e) => console.error("[worker] scan failed:", e.message));

@@ -3,8 +3,9 @@
 // delay (6 h unless set). Like the desiccant reminders, the scan first claims (exceedance, recipient)
 // in location_alerts; sending marks the claim. A scan after a worker restart finds the claims and
 // sends nothing twice; a failed mail stays unsent, the scan throws and pg-boss retries it. Keepers
-// who chose the digest get one e-mail a day listing their new exceedances instead.
-import { and, asc, eq, inArray, isNull, lt, sql } from "drizzle-orm";
+// who chose the digest get one e-mail a day listing their new exceedances instead. A claim whose
+// location was archived, or whose recipient left the lab, before it went out is withdrawn, not sent.
+import { and, asc, eq, inArray, isNull, lt, type SQL, sql } from "drizzle-orm";
 import { exceedancesToAlert, ruleBand } from "@/lib/collection/rule-status";
 import { isStorageKind } from "@/lib/collection/locations";
 import { formatDateTime } from "@/lib/format";
@@ -81,12 +82,40 @@ export async function claimLocationAlerts(now = new Date(), labId?: string) {
 
 const hours = (minutes: number) => `${(minutes / 60).toFixed(1)} h`;
 
-/** Send one claimed alert; throws when the mail server refuses, leaving the claim unsent. */
-export async function sendLocationAlert(alertId: string): Promise<"sent" | "already-sent"> {
-  const [a] = await db.select({ alert: locationAlerts, email: users.email, name: users.name, location: chambers.name })
+/** An alert with what decides whether it may still go out: its location's archiving and the recipient's membership. */
+const alertRows = (where: SQL | undefined) =>
+  db.select({ alert: locationAlerts, email: users.email, name: users.name, location: chambers.name, archivedAt: chambers.archivedAt, member: memberships.userId })
     .from(locationAlerts).innerJoin(users, eq(users.id, locationAlerts.recipientId)).innerJoin(chambers, eq(chambers.id, locationAlerts.locationId))
-    .where(eq(locationAlerts.id, alertId));
-  if (!a || a.alert.sentAt) return "already-sent";
+    .leftJoin(memberships, and(eq(memberships.userId, locationAlerts.recipientId), eq(memberships.labId, locationAlerts.labId)))
+    .where(where);
+
+type AlertRow = Awaited<ReturnType<typeof alertRows>>[number];
+
+/** Why a claimed alert must not go out any more, or null when it may. */
+export function withdrawalReason(a: Pick<AlertRow, "archivedAt" | "member">): string | null {
+  if (a.archivedAt) return "location archived";
+  if (a.member === null) return "recipient no longer a member of the lab";
+  return null;
+}
+
+/** Mark unsent claims withdrawn (each with its reason); returns how many. */
+async function withdraw(rows: readonly AlertRow[]) {
+  let n = 0;
+  for (const r of rows) {
+    const reason = withdrawalReason(r);
+    if (!reason) continue;
+    const done = await db.update(locationAlerts).set({ withdrawnAt: new Date(), withdrawnReason: reason })
+      .where(and(eq(locationAlerts.id, r.alert.id), isNull(locationAlerts.sentAt), isNull(locationAlerts.withdrawnAt))).returning({ id: locationAlerts.id });
+    n += done.length;
+  }
+  return n;
+}
+
+/** Send one claimed alert; throws when the mail server refuses, leaving the claim unsent. */
+export async function sendLocationAlert(alertId: string): Promise<"sent" | "already-sent" | "withdrawn"> {
+  const [a] = await alertRows(eq(locationAlerts.id, alertId));
+  if (!a || a.alert.sentAt || a.alert.withdrawnAt) return "already-sent";
+  if (await withdraw([a])) return "withdrawn";
   await db.update(locationAlerts).set({ attempts: sql`${locationAlerts.attempts} + 1` }).where(eq(locationAlerts.id, alertId));
   await sendMail({
     to: a.email,
@@ -105,29 +134,32 @@ export async function sendLocationAlert(alertId: string): Promise<"sent" | "alre
 /** The scheduled scan: claim what is due, then send every unsent immediate alert; throw if any mail failed. */
 export async function runLocationAlertScan(now = new Date(), labId?: string) {
   const claimed = await claimLocationAlerts(now, labId);
-  const where = [isNull(locationAlerts.sentAt), eq(locationAlerts.delivery, "each"), lt(locationAlerts.attempts, MAX_SEND_ATTEMPTS)];
+  const where = [isNull(locationAlerts.sentAt), isNull(locationAlerts.withdrawnAt), eq(locationAlerts.delivery, "each"), lt(locationAlerts.attempts, MAX_SEND_ATTEMPTS)];
   if (labId) where.push(eq(locationAlerts.labId, labId));
   const unsent = await db.select({ id: locationAlerts.id }).from(locationAlerts).where(and(...where)).orderBy(asc(locationAlerts.queuedAt));
   let sent = 0;
+  let withdrawn = 0;
   const failed: string[] = [];
   for (const u of unsent) {
     try {
-      if ((await sendLocationAlert(u.id)) === "sent") sent++;
+      const outcome = await sendLocationAlert(u.id);
+      if (outcome === "sent") sent++;
+      if (outcome === "withdrawn") withdrawn++;
     } catch (err) {
       failed.push(`${u.id}: ${(err as Error).message}`);
     }
   }
   if (failed.length) throw new Error(`${failed.length} collection alert(s) not sent, will retry: ${failed[0]}`);
-  return { claimed, sent };
+  return { claimed, sent, withdrawn };
 }
 
 /** The daily digest: one e-mail per keeper listing the unsent digest alerts, all marked sent together. */
 export async function runLocationDigest(labId?: string) {
-  const where = [isNull(locationAlerts.sentAt), eq(locationAlerts.delivery, "digest")];
+  const where = [isNull(locationAlerts.sentAt), isNull(locationAlerts.withdrawnAt), eq(locationAlerts.delivery, "digest")];
   if (labId) where.push(eq(locationAlerts.labId, labId));
-  const rows = await db.select({ alert: locationAlerts, email: users.email, name: users.name, location: chambers.name })
-    .from(locationAlerts).innerJoin(users, eq(users.id, locationAlerts.recipientId)).innerJoin(chambers, eq(chambers.id, locationAlerts.locationId))
-    .where(and(...where)).orderBy(asc(locationAlerts.startedAt));
+  const claims = await alertRows(and(...where)).orderBy(asc(locationAlerts.startedAt));
+  const withdrawn = await withdraw(claims);
+  const rows = claims.filter((r) => withdrawalReason(r) === null);
   const byRecipient = new Map<string, typeof rows>();
   for (const r of rows) byRecipient.set(`${r.alert.labId}|${r.alert.recipientId}`, [...(byRecipient.get(`${r.alert.labId}|${r.alert.recipientId}`) ?? []), r]);
   let sent = 0;
@@ -145,5 +177,5 @@ export async function runLocationDigest(labId?: string) {
     await db.update(locationAlerts).set({ sentAt: new Date() }).where(and(inArray(locationAlerts.id, list.map((r) => r.alert.id)), isNull(locationAlerts.sentAt)));
     sent++;
   }
-  return { digests: sent, alerts: rows.length };
+  return { digests: sent, alerts: rows.length, withdrawn };
 }

@@ -41,6 +41,9 @@ export const locationAlerts = pgTable("location_alerts", {
   queuedAt: timestamp("queued_at", { withTimezone: true }).notNull().defaultNow(),
   attempts: integer("attempts").notNull().default(0),
   sentAt: timestamp("sent_at", { withTimezone: true }),
+  /** Not sent after all: the location was archived, or the recipient left the lab, between claim and send. */
+  withdrawnAt: timestamp("withdrawn_at", { withTimezone: true }),
+  withdrawnReason: text("withdrawn_reason"),
 }, (t) => [
   uniqueIndex("location_alerts_once_idx").on(t.locationId, t.startedAt, t.recipientId),
   index("location_alerts_unsent_idx").on(t.sentAt, t.queuedAt),

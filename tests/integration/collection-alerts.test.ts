@@ -2,10 +2,10 @@
 // than its alert delay e-mails its keeper (or the keeper of the location it sits in) once per
 // exceedance. Scans run again, as after a worker restart (claims live in the database), send nothing
 // twice; a keeper who chose the digest gets one daily e-mail instead.
-import { eq } from "drizzle-orm";
+import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
-import { keeperOf, runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
+import { claimLocationAlerts, keeperOf, runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
 import { insertReadings, type NewReading } from "@/db/queries/readings";
 import * as s from "@/db/schema";
 import { listMessages } from "@/lib/mail-store";
@@ -70,9 +70,9 @@ describe("collection alerts", () => {
     await insertReadings(db, { labId: lab.labId, chamberId: box.id, source: "csv", rows: series([{ fromH: 72, hours: 8, rh: 25 }, { fromH: 30, hours: 2, rh: 26 }, { fromH: 7, hours: 7.5, rh: 24 }]) });
 
     const first = await runLocationAlertScan(now, lab.labId);
-    expect(first).toEqual({ claimed: 2, sent: 2 });
+    expect(first).toEqual({ claimed: 2, sent: 2, withdrawn: 0 });
     const again = await runLocationAlertScan(now, lab.labId);
-    expect(again).toEqual({ claimed: 0, sent: 0 });
+    expect(again).toEqual({ claimed: 0, sent: 0, withdrawn: 0 });
     const later = await runLocationAlertScan(new Date(now.getTime() + 10 * MIN), lab.labId);
     expect(later.sent).toBe(0);
     const mails = await inbox(lab.users.technician.email, /^Out of rule: Alert box$/);
@@ -90,10 +90,39 @@ describe("collection alerts", () => {
 
     expect((await runLocationAlertScan(now, lab.labId)).claimed).toBe(2);
     expect(await inbox(lab.users.researcher.email, /Digest box|digest/)).toHaveLength(0);
-    expect(await runLocationDigest(lab.labId)).toEqual({ digests: 1, alerts: 2 });
-    expect(await runLocationDigest(lab.labId)).toEqual({ digests: 0, alerts: 0 });
+    expect(await runLocationDigest(lab.labId)).toEqual({ digests: 1, alerts: 2, withdrawn: 0 });
+    expect(await runLocationDigest(lab.labId)).toEqual({ digests: 0, alerts: 0, withdrawn: 0 });
     const digest = await inbox(lab.users.researcher.email, /^Collection digest: 2 exceedance/);
     expect(digest).toHaveLength(1);
     expect(digest[0].text).toContain("Digest box");
+  });
+
+  it("withdraws a claimed alert whose location is archived, or whose keeper left the lab, before it goes out", async () => {
+    const box = await location("Archived box", null, lab.users.observer.id);
+    await keep(box.id, "AL-3");
+    await insertReadings(db, { labId: lab.labId, chamberId: box.id, source: "csv", rows: series([{ fromH: 50, hours: 8, rh: 27 }]) });
+    expect(await claimLocationAlerts(now, lab.labId)).toBe(1);
+    // Archived after the claim, before the scan sends it (a scan stopped between the two).
+    await db.update(s.chambers).set({ archivedAt: new Date() }).where(eq(s.chambers.id, box.id));
+    expect(await runLocationAlertScan(now, lab.labId)).toEqual({ claimed: 0, sent: 0, withdrawn: 1 });
+    expect(await inbox(lab.users.observer.email, /Archived box/)).toHaveLength(0);
+    const [claim] = await db.select().from(s.locationAlerts).where(eq(s.locationAlerts.locationId, box.id));
+    expect(claim.sentAt).toBeNull();
+    expect(claim.withdrawnReason).toBe("location archived");
+    expect(claim.withdrawnAt).toBeInstanceOf(Date);
+    // Withdrawn stays withdrawn: a later scan neither sends nor claims it again.
+    expect(await runLocationAlertScan(now, lab.labId)).toEqual({ claimed: 0, sent: 0, withdrawn: 0 });
+
+    // A digest keeper who leaves the lab between the claim and the daily digest gets nothing.
+    await db.update(s.users).set({ collectionDigest: true }).where(eq(s.users.id, lab.users.lead.id));
+    const leaving = await location("Leaving keeper's box", null, lab.users.lead.id);
+    await keep(leaving.id, "AL-4");
+    await insertReadings(db, { labId: lab.labId, chamberId: leaving.id, source: "csv", rows: series([{ fromH: 40, hours: 7, rh: 23 }]) });
+    expect(await claimLocationAlerts(now, lab.labId)).toBe(1);
+    await db.delete(s.memberships).where(and(eq(s.memberships.userId, lab.users.lead.id), eq(s.memberships.labId, lab.labId)));
+    expect(await runLocationDigest(lab.labId)).toEqual({ digests: 0, alerts: 0, withdrawn: 1 });
+    expect(await inbox(lab.users.lead.email, /digest/i)).toHaveLength(0);
+    const [left] = await db.select().from(s.locationAlerts).where(eq(s.locationAlerts.locationId, leaving.id));
+    expect(left.withdrawnReason).toBe("recipient no longer a member of the lab");
   });
 });
