@@ -77,6 +77,17 @@ async function accessionTaken(labId: string, accession: string | null | undefine
 }
 const accessionConflict = (a: string) => new AppError("conflict", `Accession number "${a}" is already used in this lab.`, { accessionNumber: ["This accession number is already used in this lab."] });
 
+/** A race past the checks above meets the database's unique indexes: the same field errors as the checks give. */
+function raceConflict(err: unknown, input: { label?: string; accessionNumber?: string | null }): never {
+  const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } };
+  const constraint = e.constraint ?? e.cause?.constraint;
+  if ((e.code ?? e.cause?.code) === "23505") {
+    if (constraint === "specimens_lab_accession_idx" && input.accessionNumber) throw accessionConflict(input.accessionNumber);
+    if (constraint === "specimens_lab_label_idx" && input.label) throw labelConflict(input.label);
+  }
+  throw err;
+}
+
 const labelConflict = (label: string) => new AppError("conflict", `A specimen labelled "${label}" already exists in this lab.`, { label: ["This label is already used in this lab."] });
 
 export async function createSpecimen({ actor, input }: { actor: Actor; input: SpecimenInput }) {
@@ -87,7 +98,7 @@ export async function createSpecimen({ actor, input }: { actor: Actor; input: Sp
     const [row] = await tx.insert(specimens).values({ ...input, massG: input.massG ?? null, labId: actor.labId, createdBy: actor.userId }).returning();
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "specimen", entityId: row.id, action: "create", summary: `Specimen ${row.label} added`, after: row });
     return row;
-  });
+  }).catch((err) => raceConflict(err, input));
 }
 
 export async function updateSpecimen({ actor, specimenId, input }: { actor: Actor; specimenId: string; input: Partial<Omit<SpecimenInput, "massG" | "accessionNumber">> & { massG?: number | null; accessionNumber?: string | null } }) {
@@ -102,7 +113,7 @@ export async function updateSpecimen({ actor, specimenId, input }: { actor: Acto
     const [after] = await tx.update(specimens).set({ ...patch, updatedAt: new Date() }).where(eq(specimens.id, specimenId)).returning();
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity: "specimen", entityId: specimenId, action: "update", summary: `Specimen ${after.label} edited`, before, after });
     return after;
-  });
+  }).catch((err) => raceConflict(err, input));
 }
 
 export type ImportResult = { ok: true; created: number } | { ok: false; errors: CsvRowError[]; total: number };

@@ -1,3 +1,4 @@
+import { sql } from "drizzle-orm";
 import { doublePrecision, index, pgTable, text, timestamp, uniqueIndex, uuid } from "drizzle-orm/pg-core";
 import { labs, users } from "./auth";
 import { chlorideStateEnum, materialClassEnum, treatmentKindEnum } from "./enums";
@@ -28,7 +29,8 @@ export const specimens = pgTable("specimens", {
   updatedAt: timestamp("updated_at", { withTimezone: true }).notNull().defaultNow(),
 }, (t) => [
   uniqueIndex("specimens_lab_label_idx").on(t.labId, t.label),
-  uniqueIndex("specimens_lab_accession_idx").on(t.labId, t.accessionNumber),
+  // Accession numbers are unique in a lab whatever their case ("TAR.1" and "tar.1" are one number), as the app checks.
+  uniqueIndex("specimens_lab_accession_idx").on(t.labId, sql`lower(${t.accessionNumber})`),
   index("specimens_lab_class_idx").on(t.labId, t.materialClass),
   index("specimens_lab_created_idx").on(t.labId, t.createdAt),
 ]);

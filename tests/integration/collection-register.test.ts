@@ -71,6 +71,9 @@ describe("register CSV import", () => {
     expect(r).toMatchObject({ ok: false, errors: { accessionNumber: ["This accession number is already used in this lab."] } });
     const ok = await createSpecimenAction.withIdentity(a.as("researcher"), { label: "NEW-9", materialClass: "other", accessionNumber: "", chlorideState: "present" });
     expect(ok.ok, ok.message).toBe(true);
+    // The database holds the same rule, so two writers racing past the app's check cannot both win.
+    const race = db.insert(s.specimens).values({ labId: a.labId, label: "NEW-10", materialClass: "other", findName: "Race", accessionNumber: "TAR.2001.2".toLowerCase() });
+    await expect(race).rejects.toMatchObject({ cause: { code: "23505", constraint: "specimens_lab_accession_idx" } });
   });
 
   it("exports the register with each place as a path, and the file reads back", async () => {
