@@ -13,9 +13,10 @@ const KIND_LABELS: Record<(typeof HISTORY_KINDS)[number], string> = {
 
 export type EditedEntry = { id: string; kind: (typeof HISTORY_KINDS)[number]; values: Record<string, string> };
 
-export function HistoryForm({ specimenId, today, maxDate, entry }: { specimenId: string; today: string; maxDate: string; entry?: EditedEntry }) {
+/** kinds: what the viewer may record (all unless given; the server checks each entry's kind again). */
+export function HistoryForm({ specimenId, today, maxDate, entry, kinds = HISTORY_KINDS }: { specimenId: string; today: string; maxDate: string; entry?: EditedEntry; kinds?: readonly (typeof HISTORY_KINDS)[number][] }) {
   const [state, action] = useActionState((entry ? updateSpecimenHistoryAction : addSpecimenHistoryAction) as typeof addSpecimenHistoryAction, undefined);
-  const [kind, setKind] = useState<(typeof HISTORY_KINDS)[number]>(entry?.kind ?? ((state?.values?.kind as (typeof HISTORY_KINDS)[number] | undefined) ?? "mass"));
+  const [kind, setKind] = useState<(typeof HISTORY_KINDS)[number]>(entry?.kind ?? ((state?.values?.kind as (typeof HISTORY_KINDS)[number] | undefined) ?? (kinds.includes("mass") ? "mass" : kinds[0])));
   const v = (name: string, fallback?: string) => entry?.values[name] ?? fallback;
   const day = (name: string) => v(name, today);
   return (
@@ -27,7 +28,7 @@ export function HistoryForm({ specimenId, today, maxDate, entry }: { specimenId:
         <div className="space-y-1">
           <label htmlFor="f-kind" className="block text-sm font-medium">Record</label>
           <select id="f-kind" name="kind" className="field" value={kind} onChange={(e) => setKind(e.target.value as typeof kind)}>
-            {HISTORY_KINDS.map((k) => <option key={k} value={k}>{KIND_LABELS[k]}</option>)}
+            {kinds.map((k) => <option key={k} value={k}>{KIND_LABELS[k]}</option>)}
           </select>
         </div>
       )}

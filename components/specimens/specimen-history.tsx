@@ -32,9 +32,13 @@ function Table({ caption, head, children }: { caption: string; head: string[]; c
 
 type Kind = "mass" | "chloride" | "akaganeite" | "treatment";
 
-/** `correctHref` (for those who may write) adds a link on each row to correct or delete it. */
-export function SpecimenHistory({ history, correctHref }: { history: History; correctHref?: (kind: Kind, id: string) => string }) {
-  const fix = (kind: Kind, id: string) => (correctHref ? <td className="no-print"><a className="link text-sm" href={correctHref(kind, id)}>Correct or delete</a></td> : null);
+/** `correctHref` (for those who may write) adds a link on each row to correct or delete it; undefined for a kind the viewer may not change. */
+export function SpecimenHistory({ history, correctHref }: { history: History; correctHref?: (kind: Kind, id: string) => string | undefined }) {
+  const fix = (kind: Kind, id: string) => {
+    if (!correctHref) return null;
+    const href = correctHref(kind, id);
+    return <td className="no-print">{href ? <a className="link text-sm" href={href}>Correct or delete</a> : null}</td>;
+  };
   const head = (cols: string[]) => (correctHref ? [...cols, "Fix"] : cols);
   const { weighings, chlorideTests, akaganeiteChecks, priorTreatments } = history;
   const last = weighings.at(-1);

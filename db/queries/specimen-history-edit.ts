@@ -6,7 +6,7 @@ import { and, eq } from "drizzle-orm";
 import { AppError } from "@/lib/auth/errors";
 import { massToTenthMg, tenthMgToGramsText } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
-import type { HistoryEntryDeleteInput, HistoryEntryEditInput } from "@/lib/validation/specimen-history";
+import { historyPermission, type HistoryEntryDeleteInput, type HistoryEntryEditInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { akaganeiteChecks, chlorideTests, massMeasurements, placements, priorTreatments, specimens } from "../schema";
@@ -53,7 +53,7 @@ function valuesOf(input: HistoryEntryEditInput) {
 
 /** Correct a history entry in place, audited with before and after. */
 export async function updateHistoryEntry({ actor, input }: { actor: Actor; input: HistoryEntryEditInput }) {
-  assertAllowed(actor, "specimens.write");
+  assertAllowed(actor, historyPermission(input.kind));
   const { table, entity, name, on } = KINDS[input.kind];
   return db.transaction(async (tx) => {
     const { specimen, row, spans, day: was } = await lockEntry(tx, actor, input.kind, input.specimenId, input.entryId);
@@ -70,7 +70,7 @@ export async function updateHistoryEntry({ actor, input }: { actor: Actor; input
 
 /** Delete a wrong history entry, audited with the row and the reason. */
 export async function deleteHistoryEntry({ actor, input }: { actor: Actor; input: HistoryEntryDeleteInput }) {
-  assertAllowed(actor, "specimens.write");
+  assertAllowed(actor, historyPermission(input.kind));
   const { table, entity, name } = KINDS[input.kind];
   return db.transaction(async (tx) => {
     const { specimen, row, spans, day } = await lockEntry(tx, actor, input.kind, input.specimenId, input.entryId);

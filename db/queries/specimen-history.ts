@@ -8,7 +8,7 @@ import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
 import { akaganeiteSeenOf, chlorideStateOf, datedBeforeStart, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, weighedByStart, type ChlorideState } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
-import type { HistoryEntryInput } from "@/lib/validation/specimen-history";
+import { historyPermission, type HistoryEntryInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { akaganeiteChecks, chlorideTests, massMeasurements, placements, priorTreatments, specimens } from "../schema";
@@ -18,7 +18,7 @@ const notFound = () => new AppError("not-found", "No such specimen in this lab."
 
 /** Record one dated history entry of a specimen of the actor's lab, with its audit event. */
 export async function addHistoryEntry({ actor, input }: { actor: Actor; input: HistoryEntryInput }) {
-  assertAllowed(actor, "specimens.write");
+  assertAllowed(actor, historyPermission(input.kind));
   if (!isUuid(input.specimenId)) throw notFound();
   return db.transaction(async (tx) => {
     const [specimen] = await tx.select({ id: specimens.id, label: specimens.label }).from(specimens)

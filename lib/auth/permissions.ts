@@ -18,6 +18,10 @@ export const PERMISSIONS = {
   "readings.write": STAFF,
   "desiccant.write": STAFF,
   "specimens.write": DESIGN,
+  // Bench measurements in a specimen's history — weighings, chloride tests, akaganeite checks — are
+  // recorded (and corrected) by whoever makes them, technicians too; earlier treatments stay with
+  // specimens.write (lib/validation/specimen-history historyPermission).
+  "history.record": STAFF,
   "treatments.write": DESIGN,
   "trials.write": DESIGN,
   "trials.conclude": ["lead"],
@@ -45,6 +49,6 @@ export function can(role: Role | null | undefined, permission: Permission): bool
 export const ROLE_LABELS: Record<Role, { name: string; summary: string }> = {
   lead: { name: "Lead", summary: "Everything, including members, scorer assignment and concluding trials" },
   researcher: { name: "Researcher", summary: "Designs trials, chambers, specimens and treatments; runs analysis" },
-  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings, desiccant upkeep and object moves" },
+  technician: { name: "Technician", summary: "Records inspections, photos, scores, readings, weighings and tests, desiccant upkeep and object moves" },
   observer: { name: "Observer", summary: "Reads everything except photo locations; changes nothing" },
 };

@@ -1,5 +1,6 @@
 // Input for a specimen's history entries (one form per kind on the specimen page, one action).
 // The method lists here are the ones the database checks (db/schema/specimen-history.ts).
+import type { Permission } from "@/lib/auth/permissions";
 import { z } from "zod";
 import { latestToday, massToTenthMg } from "@/lib/specimens/history";
 
@@ -56,6 +57,10 @@ const mass = z.object({
 });
 
 export const HISTORY_KINDS = ["chloride", "akaganeite", "treatment", "mass"] as const;
+export type HistoryKind = (typeof HISTORY_KINDS)[number];
+
+/** Who may record, correct or delete an entry of this kind: bench measurements are staff work; an earlier treatment is the specimen's record. */
+export const historyPermission = (kind: HistoryKind): Permission => (kind === "treatment" ? "specimens.write" : "history.record");
 export const historyEntrySchema = z.discriminatedUnion("kind", [chloride, akaganeite, treatment, mass], { error: "Choose what to record." });
 export type HistoryEntryInput = z.infer<typeof historyEntrySchema>;
 

@@ -78,9 +78,9 @@ export const ENTRY_POINTS: Record<string, Entry> = {
   [`${SPECIMENS}#createSpecimenAction`]: { permission: "specimens.write", empty: "invalid" },
   [`${SPECIMENS}#updateSpecimenAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, label: "TAKEN-1", materialClass: "steel-coupon" }) },
   [`${SPECIMENS}#importSpecimensAction`]: { permission: "specimens.write", empty: "invalid" },
-  [`${HISTORY}#addSpecimenHistoryAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, kind: "mass", measuredOn: "2026-01-05", mass: "12.3456", unit: "g" }) },
-  [`${HISTORY}#updateSpecimenHistoryAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, entryId: f.weighingId, kind: "mass", measuredOn: "2026-01-05", mass: "12.3456", unit: "g" }) },
-  [`${HISTORY}#deleteSpecimenHistoryAction`]: { permission: "specimens.write", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, entryId: f.weighingId, kind: "mass", reason: "taken over" }) },
+  [`${HISTORY}#addSpecimenHistoryAction`]: { permission: "history.record", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, kind: "mass", measuredOn: "2026-01-05", mass: "12.3456", unit: "g" }) },
+  [`${HISTORY}#updateSpecimenHistoryAction`]: { permission: "history.record", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, entryId: f.weighingId, kind: "mass", measuredOn: "2026-01-05", mass: "12.3456", unit: "g" }) },
+  [`${HISTORY}#deleteSpecimenHistoryAction`]: { permission: "history.record", empty: "invalid", foreign: (f) => ({ specimenId: f.specimenId, entryId: f.weighingId, kind: "mass", reason: "taken over" }) },
   [`${TREATMENTS}#createTreatmentAction`]: { permission: "treatments.write", empty: "invalid" },
   [`${TREATMENTS}#updateTreatmentAction`]: { permission: "treatments.write", empty: "invalid", foreign: (f) => ({ treatmentId: f.treatmentId, name: "Taken over", kind: "control" }) },
   // Looking after a recorded photo is part of taking photos (the same roles as uploading them).

@@ -64,7 +64,7 @@ describe("correcting specimen history", () => {
     expect(del.before).toMatchObject({ treatment: "entered on the wrong specimen" });
   });
 
-  it("does not find another lab's entry, nor an entry under the wrong kind; technicians and observers cannot change history", async () => {
+  it("does not find another lab's entry, nor an entry under the wrong kind; observers change nothing, technicians only bench measurements", async () => {
     const [{ id: otherSpecimen }] = await addSpecimens(b, { "iron-meteorite": 1 });
     const theirs = await add({ kind: "akaganeite", checkedOn: "2026-01-02", method: "visual", seen: "no" }, b, otherSpecimen);
     const cross = await deleteSpecimenHistoryAction.withIdentity(a.as("lead"), { specimenId: otherSpecimen, entryId: theirs, kind: "akaganeite", reason: "not ours" });
@@ -72,10 +72,17 @@ describe("correcting specimen history", () => {
     const wrongKind = await deleteSpecimenHistoryAction.withIdentity(b.as("lead"), { specimenId: otherSpecimen, entryId: theirs, kind: "chloride", reason: "wrong kind" });
     expect(wrongKind).toMatchObject({ ok: false, code: "not-found" });
     expect(await db.select().from(s.akaganeiteChecks).where(eq(s.akaganeiteChecks.id, theirs))).toHaveLength(1);
-    for (const role of ["technician", "observer"] as const) {
-      const denied = await deleteSpecimenHistoryAction.withIdentity(b.as(role), { specimenId: otherSpecimen, entryId: theirs, kind: "akaganeite", reason: "try" });
-      expect(denied).toMatchObject({ ok: false, code: "forbidden" });
-    }
+    const observer = await deleteSpecimenHistoryAction.withIdentity(b.as("observer"), { specimenId: otherSpecimen, entryId: theirs, kind: "akaganeite", reason: "try" });
+    expect(observer).toMatchObject({ ok: false, code: "forbidden" });
+    // An earlier treatment is the specimen's record (specimens.write); a technician may not change it.
+    const treated = await add({ kind: "treatment", treatedOn: "2025-11-02", treatment: "Tannic acid" }, b, otherSpecimen);
+    const treatment = await deleteSpecimenHistoryAction.withIdentity(b.as("technician"), { specimenId: otherSpecimen, entryId: treated, kind: "treatment", reason: "try" });
+    expect(treatment).toMatchObject({ ok: false, code: "forbidden" });
+    expect(await db.select().from(s.priorTreatments).where(eq(s.priorTreatments.id, treated))).toHaveLength(1);
+    // The check is a bench measurement: the technician who made it may correct it.
+    const fixed = await updateSpecimenHistoryAction.withIdentity(b.as("technician"), { specimenId: otherSpecimen, entryId: theirs, kind: "akaganeite", checkedOn: "2026-01-03", method: "visual", seen: "yes" });
+    expect(fixed.ok, fixed.message).toBe(true);
+    expect((await db.select().from(s.akaganeiteChecks).where(eq(s.akaganeiteChecks.id, theirs)))[0].seen).toBe(true);
   });
 
   it("a blind scorer cannot correct or delete an entry dated inside the trial they score blind", async () => {

@@ -97,14 +97,21 @@ describe("specimen history", () => {
     expect(await rowsOf(spec.id)).toBe(CHLORIDE_METHODS.length + AKAGANEITE_METHODS.length);
   });
 
-  it("does not write to another lab's specimen, and a technician or observer cannot write", async () => {
+  it("does not write to another lab's specimen; a technician records bench measurements but not an earlier treatment; an observer nothing", async () => {
     const r = await addSpecimenHistoryAction.withIdentity(a.as("researcher"), { specimenId: otherLabSpecimenId, kind: "mass", measuredOn: "2026-01-02", mass: "1", unit: "g" });
     expect(r).toMatchObject({ ok: false, code: "not-found" });
     expect(await rowsOf(otherLabSpecimenId)).toBe(0);
-    for (const role of ["technician", "observer"] as const) {
-      const denied = await addSpecimenHistoryAction.withIdentity(a.as(role), { specimenId, kind: "mass", measuredOn: "2026-01-02", mass: "1", unit: "g" });
-      expect(denied).toMatchObject({ ok: false, code: "forbidden" });
-    }
+    const before = await rowsOf(specimenId);
+    const observer = await addSpecimenHistoryAction.withIdentity(a.as("observer"), { specimenId, kind: "mass", measuredOn: "2026-01-02", mass: "1", unit: "g" });
+    expect(observer).toMatchObject({ ok: false, code: "forbidden" });
+    const treatment = await addSpecimenHistoryAction.withIdentity(a.as("technician"), { specimenId, kind: "treatment", treatedOn: "2026-01-02", treatment: "Tannic acid" });
+    expect(treatment).toMatchObject({ ok: false, code: "forbidden" });
+    expect(await rowsOf(specimenId)).toBe(before);
+    const weighing = await addSpecimenHistoryAction.withIdentity(a.as("technician"), { specimenId, kind: "mass", measuredOn: "2026-01-02", mass: "1.2345", unit: "g" });
+    expect(weighing.ok, weighing.message).toBe(true);
+    const test = await addSpecimenHistoryAction.withIdentity(a.as("technician"), { specimenId, kind: "chloride", testedOn: "2026-01-02", method: CHLORIDE_METHODS[0], result: CHLORIDE_RESULTS[0] });
+    expect(test.ok, test.message).toBe(true);
+    expect(await rowsOf(specimenId)).toBe(before + 2);
   });
 
   it("hides entries dated from the specimen's entry into a trial from that trial's blind scorer, page and audit trail alike", async () => {

@@ -5,8 +5,8 @@ import type { Permission, Role } from "@/lib/auth/permissions";
 
 const READ: Permission[] = ["lab.read", "audit.read", "analysis.read", "export.read"];
 // Technicians: inspections, photos (with their locations), scores, readings, desiccant upkeep, trial notes,
-// moving collection objects between storage locations.
-const BENCH: Permission[] = ["readings.write", "desiccant.write", "inspections.record", "photos.upload", "photos.gps", "scores.write", "trials.notes", "collection.move"];
+// moving collection objects between storage locations, recording bench measurements in a specimen's history.
+const BENCH: Permission[] = ["readings.write", "desiccant.write", "inspections.record", "photos.upload", "photos.gps", "scores.write", "trials.notes", "collection.move", "history.record"];
 // Researchers: design trials, chambers (and their logger tokens), specimens, treatments; move inspections;
 // record the agreed score after scorers discussed a disagreement.
 const DESIGN: Permission[] = ["chambers.write", "chambers.tokens", "specimens.write", "treatments.write", "trials.write", "inspections.reschedule", "scores.consensus"];

@@ -14,6 +14,7 @@ import { latestToday } from "@/lib/specimens/history";
 import { HistoryForm, type EditedEntry } from "@/components/specimens/history-form";
 import { HistoryDeleteForm } from "@/components/specimens/history-delete-form";
 import { SpecimenHistory } from "@/components/specimens/specimen-history";
+import { HISTORY_KINDS, historyPermission, type HistoryKind } from "@/lib/validation/specimen-history";
 
 export const metadata = { title: "Specimen" };
 
@@ -52,8 +53,11 @@ export default async function SpecimenPage({ params, searchParams }: { params: P
   ]);
   const placements = hideArmsOfTrials(rawPlacements, blindIn);
   const history = await loadSpecimenHistory({ labId: ctx.labId, specimenId, blindTrialIds: blindIn });
-  const writable = can(ctx.role, "specimens.write");
-  const correcting = writable ? entryToCorrect(history, raw.entry) : null;
+  // Technicians record bench measurements; earlier treatments need specimens.write (historyPermission).
+  const recordable = HISTORY_KINDS.filter((k) => can(ctx.role, historyPermission(k)));
+  const mayFix = (kind: HistoryKind) => recordable.includes(kind);
+  const asked = entryToCorrect(history, raw.entry);
+  const correcting = asked && mayFix(asked.kind) ? asked : null;
   const today = new Date().toISOString().slice(0, 10);
   return (
     <div className="space-y-6">
@@ -101,7 +105,7 @@ export default async function SpecimenPage({ params, searchParams }: { params: P
       </section>
       <section className="space-y-2" aria-labelledby="history-h">
         <h2 id="history-h" className="text-lg font-semibold">Specimen history</h2>
-        <SpecimenHistory history={history} correctHref={writable ? (kind, id) => `/specimens/${specimen.id}?entry=${kind}:${id}#correct-h` : undefined} />
+        <SpecimenHistory history={history} correctHref={recordable.length ? (kind, id) => (mayFix(kind) ? `/specimens/${specimen.id}?entry=${kind}:${id}#correct-h` : undefined) : undefined} />
         {correcting ? (
           <div className="panel p-4 space-y-4">
             <h3 id="correct-h" className="font-medium">Correct the entry</h3>
@@ -110,10 +114,10 @@ export default async function SpecimenPage({ params, searchParams }: { params: P
             <HistoryDeleteForm specimenId={specimen.id} entry={correcting} />
             <p className="text-sm"><Link className="link" href={`/specimens/${specimen.id}`}>Cancel</Link></p>
           </div>
-        ) : writable && (
+        ) : recordable.length > 0 && (
           <details className="panel p-4">
-            <summary className="cursor-pointer font-medium">Record a weighing, test, check or treatment</summary>
-            <div className="mt-3"><HistoryForm specimenId={specimen.id} today={today} maxDate={latestToday()} /></div>
+            <summary className="cursor-pointer font-medium">Record a weighing, test, check{mayFix("treatment") ? " or treatment" : ""}</summary>
+            <div className="mt-3"><HistoryForm specimenId={specimen.id} today={today} maxDate={latestToday()} kinds={recordable} /></div>
           </details>
         )}
       </section>
