@@ -17,9 +17,9 @@ export const RULE_LIST_SHOWN = 20;
 export function RuleStatusSection({ status, fullListsHref }: { status: LocationRuleStatus; fullListsHref: string | null }) {
   const { rule, windows, exceedances, atRisk, needs } = status;
   const limit = fullListsHref === null ? Infinity : RULE_LIST_SHOWN;
-  const more = (shown: number, total: number, what: string) =>
-    total > shown && fullListsHref !== null ? (
-      <p className="text-xs mt-1">{shown} of {total} {what} shown. <Link className="link" href={fullListsHref}>Show all</Link></p>
+  const more = (total: number, says: string) =>
+    total > limit && fullListsHref !== null ? (
+      <p className="text-xs mt-1">{says} <Link className="link" href={fullListsHref}>Show all</Link></p>
     ) : null;
   return (
     <section className="panel p-4 space-y-3" aria-labelledby="rule-h" data-testid="location-rule">
@@ -80,7 +80,7 @@ export function RuleStatusSection({ status, fullListsHref }: { status: LocationR
                   ))}
                 </tbody>
               </table>
-              {more(Math.min(limit, exceedances.length), exceedances.length, "exceedances, latest first,")}
+              {more(exceedances.length, `The latest ${RULE_LIST_SHOWN} of ${exceedances.length} exceedances shown.`)}
             </details>
           ) : <p className="text-sm">No exceedance in the last 365 days of readings.</p>}
         </>
@@ -92,7 +92,7 @@ export function RuleStatusSection({ status, fullListsHref }: { status: LocationR
           <ul className="text-sm list-disc pl-5" aria-label="Objects at risk">
             {atRisk.slice(0, limit).map((o) => <li key={o.id}><Link className="link" href={`/specimens/${o.id}`}>{o.label}</Link>{o.accessionNumber ? ` (${o.accessionNumber})` : ""}: keep below {o.thresholdRhPercent.toFixed(1)} %RH</li>)}
           </ul>
-          {more(Math.min(limit, atRisk.length), atRisk.length, "objects at risk")}
+          {more(atRisk.length, `${RULE_LIST_SHOWN} of ${atRisk.length} objects at risk shown.`)}
         </div>
       )}
       {status.desiccantDueAt && (
