@@ -13,7 +13,7 @@ import { rustedAreaDetail, type Mark } from "@/lib/scoring/geometry";
 import { formatMm2 } from "@/components/photos/area-mm2";
 import { deleteKeys } from "@/storage/objects";
 import { signedInClient } from "../support/http";
-import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
+import { APP_URL, axeViolations, launch, screenshot, signIn, streamed } from "./support/browser";
 
 const PX_PER_MM = 20;
 const tag = randomBytes(3).toString("hex");
@@ -73,7 +73,7 @@ describe("photo protocol and scale", () => {
     expect((await db.select().from(s.photoEvidence).where(eq(s.photoEvidence.photoId, photo.id)))[0]?.protocolConfirmed).toEqual([trial.photoProtocol[0]]);
     // The recorded list picks the photo up, flagged for the points not ticked.
     const card = page.locator("figure", { hasText: filename });
-    await expect.poll(async () => { await page.reload(); return card.count(); }, { timeout: 30_000 }).toBe(1);
+    await expect.poll(async () => { await page.reload(); await streamed(page); return card.count(); }, { timeout: 30_000 }).toBe(1);
     await expect(card.locator("[data-protocol-flag]").first().getAttribute("data-protocol-flag")).resolves.toBe(String(trial.photoProtocol.length - 1));
     await card.locator("summary", { hasText: "Protocol and scale" }).click();
     const form = page.getByRole("form", { name: `Protocol and scale of ${specimen.label} (${filename})` });

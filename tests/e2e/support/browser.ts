@@ -24,6 +24,14 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"), { timeout: 20_000 });
 }
 
+/**
+ * Wait until React has put every streamed part of the page in place: until then a streamed part sits
+ * in a hidden container (id "S:n") beside what it replaces, and a locator can match both.
+ */
+export async function streamed(page: Page) {
+  await page.waitForFunction(() => !document.querySelector('div[hidden][id^="S:"]'), undefined, { timeout: 30_000 });
+}
+
 export async function screenshot(page: Page, name: string) {
   fs.mkdirSync(shotDir, { recursive: true });
   await page.screenshot({ path: path.join(shotDir, `${name}.png`), fullPage: true });
