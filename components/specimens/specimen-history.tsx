@@ -8,10 +8,11 @@ type History = Awaited<ReturnType<typeof loadSpecimenHistory>>;
 
 const signed = (x: number, digits: number) => `${x > 0 ? "+" : x < 0 ? "−" : "±"}${Math.abs(x).toFixed(digits)}`;
 
-function Change({ s }: { s: MassStep | null }) {
+/** wrap: may break across lines (the summary above the tables); table cells keep one line. */
+function Change({ s, wrap = false }: { s: MassStep | null; wrap?: boolean }) {
   if (!s) return <span className="muted">first weighing</span>;
   return (
-    <span className="whitespace-nowrap">
+    <span className={wrap ? undefined : "whitespace-nowrap"}>
       {signed(s.changeG, 4)}&#8239;g ({signed(s.changePercent, 3)}&#8239;%) over {s.days} d
       {s.gPerDay !== null && <span className="muted"> · {signed(s.gPerDay * 1000, 3)}&#8239;mg/d, {signed(s.percentPerDay!, 4)}&#8239;%/d</span>}
     </span>
@@ -47,7 +48,7 @@ export function SpecimenHistory({ history, correctHref }: { history: History; co
       <dl className="grid gap-4 md:grid-cols-3 panel p-4">
         <div><dt className="text-xs muted">Chloride (latest test)</dt><dd>{CHLORIDE_STATE_LABELS[history.chlorideState]}</dd></div>
         <div><dt className="text-xs muted">Akaganeite</dt><dd>{history.akaganeiteSeen === null ? "not checked" : history.akaganeiteSeen ? "seen" : "not seen"}</dd></div>
-        <div><dt className="text-xs muted">Mass change since first weighing</dt><dd>{last?.sinceFirst ? <Change s={last.sinceFirst} /> : weighings.length ? "one weighing so far" : "not weighed"}</dd></div>
+        <div><dt className="text-xs muted">Mass change since first weighing</dt><dd>{last?.sinceFirst ? <Change s={last.sinceFirst} wrap /> : weighings.length ? "one weighing so far" : "not weighed"}</dd></div>
       </dl>
       {history.hidden > 0 && <p className="text-sm muted">{history.hidden} later entr{history.hidden === 1 ? "y is" : "ies are"} {BLIND_HIDDEN}.</p>}
       {weighings.length > 0 && (

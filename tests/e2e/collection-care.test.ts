@@ -109,13 +109,17 @@ describe("collection care walk", () => {
     await expect(page.getByRole("form", { name: "Location settings" }).getByLabel("Keeper", { exact: true }).inputValue()).resolves.toBe(lab.users.researcher.id);
   }, 60_000);
 
-  it("lists the first 20 objects at risk and every one on asking", async () => {
+  it("lists the first 20 objects at risk and every one on asking, under Collection in the menu", async () => {
     // 24 more objects under the same rule join the room: 25 at risk from the exceedance above.
     const more = await db.insert(s.specimens).values(Array.from({ length: 24 }, (_, i) => ({
       labId: lab.labId, label: `WALK-${i + 2}`, materialClass: "archaeological-iron" as const, findName: "Walk find",
     }))).returning({ id: s.specimens.id });
     await db.insert(s.objectLocations).values(more.map((o) => ({ labId: lab.labId, specimenId: o.id, locationId: roomId, fromAt: new Date(Date.now() - 5 * 24 * HOUR) })));
     await page.goto(`${APP_URL}/chambers/${roomId}`);
+    // A storage location's page belongs to Collection in the main menu, though its address is a chamber's.
+    const menu = page.getByRole("navigation", { name: "Main" });
+    await expect.poll(() => menu.getByRole("link", { name: "Collection", exact: true }).getAttribute("aria-current")).toBe("page");
+    await expect(menu.getByRole("link", { name: "Chambers", exact: true }).getAttribute("aria-current")).resolves.toBeNull();
     const section = page.getByTestId("location-rule");
     const list = section.getByRole("list", { name: "Objects at risk" });
     await expect(list.locator("li").count()).resolves.toBe(20);

@@ -21,6 +21,7 @@ import { ClimateSummary } from "@/components/chambers/climate-summary";
 import { DesiccantSection, HygrometerSection, ReadingsSection } from "@/components/chambers/chamber-sections";
 import { HazardPanel } from "@/components/chambers/hazard-panel";
 import { EmptyState } from "@/components/ui/empty-state";
+import { NavSection } from "@/components/shell/nav-section";
 import { orNotFound } from "@/lib/auth/not-found";
 
 export const metadata = { title: "Chamber" };
@@ -57,7 +58,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
   return (
     <div className="space-y-6">
       {isStorageKind(chamber.locationKind) ? (
-        <p className="text-sm"><Link className="link" href="/collection">Collection</Link> / {LOCATION_KIND_LABELS[chamber.locationKind]} {chamber.name}</p>
+        <p className="text-sm"><NavSection href="/collection" /><Link className="link" href="/collection">Collection</Link> / {LOCATION_KIND_LABELS[chamber.locationKind]} {chamber.name}</p>
       ) : (
         <p className="text-sm"><Link className="link" href="/chambers">Chambers</Link> / {chamber.name}</p>
       )}

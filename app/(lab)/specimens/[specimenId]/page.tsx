@@ -116,7 +116,7 @@ export default async function SpecimenPage({ params, searchParams }: { params: P
           </div>
         ) : recordable.length > 0 && (
           <details className="panel p-4">
-            <summary className="cursor-pointer font-medium">Record a weighing, test, check{mayFix("treatment") ? " or treatment" : ""}</summary>
+            <summary className="cursor-pointer font-medium">Record a weighing, test{mayFix("treatment") ? ", check or treatment" : " or check"}</summary>
             <div className="mt-3"><HistoryForm specimenId={specimen.id} today={today} maxDate={latestToday()} kinds={recordable} /></div>
           </details>
         )}
