@@ -12,7 +12,7 @@ import * as s from "@/db/schema";
 import { createTestLab, TEST_PASSWORD, type TestLab } from "../support/db";
 import { ensureS3Fake, type S3Fake } from "../support/s3";
 import { createReadyPhoto, createScoringTrial, type MadePhoto, type ScoringTrial } from "../integration/scoring-fixtures";
-import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
+import { APP_URL, axeViolations, launch, screenshot, signIn, streamed } from "./support/browser";
 
 let browser: Browser;
 let s3: S3Fake;
@@ -56,6 +56,7 @@ afterAll(async () => {
 async function openPhotos(page: Page) {
   await page.goto(`${APP_URL}/trials/${t.trialId}/inspections/${t.inspectionIds[1]}/photos`);
   await page.getByRole("heading", { name: "Photos · day 7" }).waitFor();
+  await streamed(page);
 }
 const card = (page: Page, photoId: string) => page.locator(`figure[data-photo-id="${photoId}"]`);
 

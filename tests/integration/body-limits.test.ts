@@ -56,12 +56,16 @@ function sendUntilAnswered(path: string, headers: Record<string, string>, declar
     });
     req.on("error", (err) => { if (!answered) reject(err); });
     const chunk = Buffer.alloc(64 * 1024, "1");
+    // At most 1 MB per turn of the event loop, so that an answer is noticed while the server still
+    // reads (a tight loop whose writes never fill the socket would not let the response in).
     const pump = () => {
-      while (!answered && written < SENT_AT_MOST && !req.destroyed) {
+      for (let n = 0; n < 16 && !answered && written < SENT_AT_MOST && !req.destroyed; n++) {
         written += chunk.length;
         if (!req.write(chunk)) return void req.once("drain", pump);
       }
-      if (!answered && written >= SENT_AT_MOST) req.end();
+      if (answered || req.destroyed) return;
+      if (written >= SENT_AT_MOST) req.end();
+      else setImmediate(pump);
     };
     pump();
   });
