@@ -92,7 +92,7 @@ const alertRows = (where: SQL | undefined) =>
 type AlertRow = Awaited<ReturnType<typeof alertRows>>[number];
 
 /** Why a claimed alert must not go out any more, or null when it may. */
-export function withdrawalReason(a: Pick<AlertRow, "archivedAt" | "member">): string | null {
+function withdrawalReason(a: Pick<AlertRow, "archivedAt" | "member">): string | null {
   if (a.archivedAt) return "location archived";
   if (a.member === null) return "recipient no longer a member of the lab";
   return null;

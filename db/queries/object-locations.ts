@@ -1,6 +1,6 @@
 import "server-only";
 import { and, desc, eq, inArray, isNotNull, isNull } from "drizzle-orm";
-import { AppError } from "@/lib/auth/errors";
+import { AppError, pgErrorOf } from "@/lib/auth/errors";
 import { checkMove } from "@/lib/collection/stays";
 import type { MoveObjectInput } from "@/lib/validation/collection";
 import { recordAudit } from "../audit";
@@ -11,7 +11,7 @@ import { blindTrialIds } from "./trial-access";
 
 export type ObjectStay = typeof objectLocations.$inferSelect;
 
-const pgCode = (err: unknown) => (err as { code?: string }).code ?? (err as { cause?: { code?: string } }).cause?.code;
+const pgCode = (err: unknown) => pgErrorOf(err).code;
 
 /**
  * Move an object (a register entry) to a storage location at `at`: the open stay closes at `at` and

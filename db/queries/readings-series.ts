@@ -20,13 +20,15 @@ export type SeriesPoint = ChartPoint;
 export type DewOver = NonNullable<ChartPoint["dewOver"]>;
 
 const DAY_MS = 86_400_000;
+/** The most points the chamber chart shows. */
+export const CHART_MAX_POINTS = 1600;
 /**
  * Up to this many readings in the period, every reading is loaded (a finer chart for short periods).
- * The chart shows at most 1,600 points, so beyond about that many it gains little from every reading,
+ * The chart shows at most CHART_MAX_POINTS, so beyond about that many it gains little from every reading,
  * and the block summaries give the same statistics (tests/integration/chambers-climate-sql.test.ts):
  * 30 days of 10-minute readings (4,320) are read as summaries plus the hours that cross the band.
  */
-export const ALL_ROWS_LIMIT = 2_000;
+export const ALL_ROWS_LIMIT = Math.round(CHART_MAX_POINTS * 1.25);
 
 const floorTo = (ms: number | null, width: number) => (ms == null ? null : Math.floor(ms / width) * width);
 
@@ -188,7 +190,7 @@ export async function getBandWindowStats({ labId, chamberId, band, from, to }: {
  * edge; the results equal lib/climate on every reading (tests/integration/chambers-climate-sql.test.ts).
  * Periods of up to allRowsLimit readings load every reading (a finer chart).
  */
-export async function getChamberSeries({ labId, chamber, period, maxPoints = 1600, now = new Date(), settleFrom = [], allRowsLimit = ALL_ROWS_LIMIT }: {
+export async function getChamberSeries({ labId, chamber, period, maxPoints = CHART_MAX_POINTS, now = new Date(), settleFrom = [], allRowsLimit = ALL_ROWS_LIMIT }: {
   labId: string; chamber: Chamber; period: Period; maxPoints?: number; now?: Date; settleFrom?: { label: string; at: Date }[]; allRowsLimit?: number;
 }) {
   const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);

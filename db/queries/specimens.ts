@@ -1,6 +1,6 @@
 import "server-only";
 import { and, asc, desc, eq, ilike, inArray, isNotNull, isNull, or, sql, type SQL } from "drizzle-orm";
-import { AppError } from "@/lib/auth/errors";
+import { AppError, pgErrorOf } from "@/lib/auth/errors";
 import { can, type Permission, type Role } from "@/lib/auth/permissions";
 import { parseSpecimenCsv, type CsvRowError, type SpecimenInput, type SpecimenListParams } from "@/lib/validation/specimens";
 import { recordAudit } from "../audit";
@@ -79,9 +79,8 @@ const accessionConflict = (a: string) => new AppError("conflict", `Accession num
 
 /** A race past the checks above meets the database's unique indexes: the same field errors as the checks give. */
 function raceConflict(err: unknown, input: { label?: string; accessionNumber?: string | null }): never {
-  const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } };
-  const constraint = e.constraint ?? e.cause?.constraint;
-  if ((e.code ?? e.cause?.code) === "23505") {
+  const { code, constraint } = pgErrorOf(err);
+  if (code === "23505") {
     if (constraint === "specimens_lab_accession_idx" && input.accessionNumber) throw accessionConflict(input.accessionNumber);
     if (constraint === "specimens_lab_label_idx" && input.label) throw labelConflict(input.label);
   }

@@ -24,6 +24,12 @@ export class AppError extends Error {
   }
 }
 
+/** A PostgreSQL error's SQLSTATE and constraint, whether thrown by pg or wrapped by Drizzle (as its cause). */
+export function pgErrorOf(err: unknown): { code?: string; constraint?: string } {
+  const e = err as { code?: string; constraint?: string; cause?: { code?: string; constraint?: string } } | null | undefined;
+  return { code: e?.code ?? e?.cause?.code, constraint: e?.constraint ?? e?.cause?.constraint };
+}
+
 /** Turn anything thrown into an AppError safe to show; unexpected errors are logged. */
 export function toAppError(err: unknown): AppError {
   if (err instanceof AppError) return err;
@@ -31,7 +37,7 @@ export function toAppError(err: unknown): AppError {
   if ((err as Error)?.name === "StorageUnavailableError") {
     return new AppError("unavailable", "Photo storage is not reachable right now. Nothing was recorded; try the upload again in a moment.");
   }
-  const pgCode = e?.code ?? e?.cause?.code;
+  const pgCode = pgErrorOf(err).code;
   if (pgCode === "23505") return new AppError("conflict", "That already exists.");
   if (pgCode === "23503") return new AppError("conflict", "Other records still refer to this one.");
   if (pgCode === "22P02" || pgCode === "22003" || pgCode === "22007" || pgCode === "22008") return new AppError("invalid", "A value was not in the expected form.");
