@@ -5,6 +5,7 @@ import { condensationPointC } from "@/lib/humidity/psychrometrics";
 import type { Period } from "@/lib/validation/chambers";
 import type { ChartPoint } from "@/lib/climate/chart-pack";
 import type { Chamber } from "./chambers";
+import { getPool } from "../client";
 import { loadAppliedChecks, loadBlocks, loadRows, withSnapshot, type RowRange, type Snapshot } from "./climate-sql";
 import {
   blockFacts, BucketPicker, COARSE_MS, gapLimitMinutes, groupBlocks, HOUR_MS, noteBlockOffsets, RunFolder,
@@ -190,36 +191,94 @@ export async function getBandWindowStats({ labId, chamberId, band, from, to }: {
  * edge; the results equal lib/climate on every reading (tests/integration/chambers-climate-sql.test.ts).
  * Periods of up to allRowsLimit readings load every reading (a finer chart).
  */
-export async function getChamberSeries({ labId, chamber, period, maxPoints = CHART_MAX_POINTS, now = new Date(), settleFrom = [], allRowsLimit = ALL_ROWS_LIMIT }: {
-  labId: string; chamber: Chamber; period: Period; maxPoints?: number; now?: Date; settleFrom?: { label: string; at: Date }[]; allRowsLimit?: number;
-}) {
+export async function getChamberSeries(args: SeriesArgs) {
+  return withSnapshot((snap) => computeSeries(snap, args));
+}
+
+type SeriesArgs = {
+  labId: string; chamber: Pick<Chamber, "id" | "setpointRhPercent" | "toleranceRhPercent">; period: Period; maxPoints?: number; now?: Date;
+  settleFrom?: { label: string; at: Date }[]; allRowsLimit?: number;
+};
+
+async function computeSeries(snap: Snapshot, { labId, chamber, period, maxPoints = CHART_MAX_POINTS, now = new Date(), settleFrom = [], allRowsLimit = ALL_ROWS_LIMIT }: SeriesArgs) {
   const from = period === "all" ? null : new Date(now.getTime() - (period === "7d" ? 7 : 30) * DAY_MS);
   const fromMs = from?.getTime() ?? null;
   const band: RhBand = chamberBand(chamber);
   const key = { labId, chamberId: chamber.id };
+  const { timeline, maxGapMinutes, series, count, instruments, offsets, picked } =
+    await windowSeries(snap, { ...key, band, fromMs, toMs: null, maxPoints, allRowsLimit });
+  const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, ...dewOf(c), instrument: c.instrument }));
+  const stats = bandStats(series, band, { maxGapMinutes });
 
-  return withSnapshot(async (snap) => {
-    const { timeline, maxGapMinutes, series, count, instruments, offsets, picked } =
-      await windowSeries(snap, { ...key, band, fromMs, toMs: null, maxPoints, allRowsLimit });
-    const points: SeriesPoint[] = picked.map((c) => ({ t: c.t, rh: c.rh, rhRaw: c.rhRaw, tempC: c.tempC, ...dewOf(c), instrument: c.instrument }));
-    const stats = bandStats(series, band, { maxGapMinutes });
-
-    const settle = [];
-    for (const ev of settleFrom) {
-      let data = series;
-      if (fromMs !== null && ev.at.getTime() < fromMs) {
-        // Settling is judged on the data after the event, whether or not the chosen period covers it.
-        const range = { fromMs: ev.at.getTime() - DAY_MS, toMs: ev.at.getTime() + 30 * DAY_MS };
-        const windowBlocks = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(range.fromMs, COARSE_MS), toMs: range.toMs }] }));
-        data = (await reduce(snap, { ...key, coarse: windowBlocks, range, band, timeline, maxGapMinutes, maxPoints })).series;
-      }
-      const hasAfter = data.length > 0 && data[data.length - 1].takenAt > ev.at;
-      settle.push({ ...ev, minutes: hasAfter ? settleTimeMinutes(data, band, ev.at, { maxGapMinutes }) : null, hasData: hasAfter });
+  const settle = [];
+  for (const ev of settleFrom) {
+    let data = series;
+    if (fromMs !== null && ev.at.getTime() < fromMs) {
+      // Settling is judged on the data after the event, whether or not the chosen period covers it.
+      const range = { fromMs: ev.at.getTime() - DAY_MS, toMs: ev.at.getTime() + 30 * DAY_MS };
+      const windowBlocks = groupBlocks(await loadBlocks(snap, { ...key, widthMs: COARSE_MS, ranges: [{ fromMs: floorTo(range.fromMs, COARSE_MS), toMs: range.toMs }] }));
+      data = (await reduce(snap, { ...key, coarse: windowBlocks, range, band, timeline, maxGapMinutes, maxPoints })).series;
     }
-    return {
-      period, from, count, firstAt: series[0]?.takenAt ?? null, lastAt: series[series.length - 1]?.takenAt ?? null,
-      points, band, stats, maxGapMinutes, offsets /* in time order (OffsetsUsed.list) */, settle, instruments,
-    };
-  });
+    const hasAfter = data.length > 0 && data[data.length - 1].takenAt > ev.at;
+    settle.push({ ...ev, minutes: hasAfter ? settleTimeMinutes(data, band, ev.at, { maxGapMinutes }) : null, hasData: hasAfter });
+  }
+  return {
+    period, from, count, firstAt: series[0]?.takenAt ?? null, lastAt: series[series.length - 1]?.takenAt ?? null,
+    points, band, stats, maxGapMinutes, offsets /* in time order (OffsetsUsed.list) */, settle, instruments,
+  };
 }
 export type ChamberSeries = Awaited<ReturnType<typeof getChamberSeries>>;
+
+/** How many computed charts a process keeps for reuse (about 0.3 MB each at the chart's 1,600 points). */
+export const SERIES_KEPT = 64;
+const kept = new Map<string, ChamberSeries>();
+const computing = new Map<string, Promise<ChamberSeries>>();
+
+/** The chamber's climate token (climate_versions, kept by triggers); null until its first reading. */
+async function climateVersion(q: Pick<Snapshot["client"], "query">, labId: string, chamberId: string): Promise<string | null> {
+  const res = await q.query<{ version: string }>({ text: "select version from climate_versions where chamber_id = $1 and lab_id = $2", values: [chamberId, labId] });
+  return res.rows[0]?.version ?? null;
+}
+
+/**
+ * getChamberSeries for the chamber page, reused while nothing it is read or computed from changes:
+ * the chamber's climate token (renewed by triggers whenever its readings or the lab's hygrometer checks
+ * change, by any writer), its band, the period, the settling events and `now`, which is taken to the
+ * whole minute so that the requests of one minute share one result. Concurrent requests for the same
+ * result wait for one computation. The result is shared: read it, never change it.
+ */
+export async function getChamberSeriesReused(args: SeriesArgs): Promise<ChamberSeries> {
+  const now = new Date(Math.floor((args.now ?? new Date()).getTime() / 60_000) * 60_000);
+  const band = chamberBand(args.chamber);
+  const keyOf = (version: string) => JSON.stringify([
+    args.labId, args.chamber.id, version, band.minRh, band.maxRh, args.period, args.maxPoints ?? CHART_MAX_POINTS, args.allRowsLimit ?? ALL_ROWS_LIMIT,
+    now.getTime(), (args.settleFrom ?? []).map((e) => [e.label, e.at.getTime()]),
+  ]);
+  const current = await climateVersion(getPool(), args.labId, args.chamber.id);
+  const key = current === null ? null : keyOf(current);
+  if (key !== null) {
+    const hit = kept.get(key);
+    if (hit) {
+      kept.delete(key); // most recently used last
+      kept.set(key, hit);
+      return hit;
+    }
+    const running = computing.get(key);
+    if (running) return running;
+  }
+  const work = withSnapshot(async (snap) => {
+    // The token as this snapshot sees it names exactly the data the result is computed from.
+    const version = await climateVersion(snap.client, args.labId, args.chamber.id);
+    const value = await computeSeries(snap, { ...args, now });
+    if (version !== null) {
+      kept.set(keyOf(version), value);
+      while (kept.size > SERIES_KEPT) kept.delete(kept.keys().next().value!);
+    }
+    return value;
+  });
+  if (key !== null) {
+    computing.set(key, work);
+    work.then(() => computing.delete(key), () => computing.delete(key));
+  }
+  return work;
+}

@@ -3,7 +3,7 @@ import { isStorageKind, LOCATION_KIND_LABELS } from "@/lib/collection/locations"
 import { desiccantStatus } from "@/lib/humidity/desiccant-status";
 import { getChamber, lastInspectionOpening, listChamberInstruments, listDesiccantEvents, listHygrometerChecks } from "@/db/queries/chambers";
 import { listReadingImports, listRecentReadings } from "@/db/queries/readings";
-import { getChamberSeries } from "@/db/queries/readings-series";
+import { getChamberSeriesReused } from "@/db/queries/readings-series";
 import { getLocationRuleStatus } from "@/db/queries/location-status";
 import { listMembers } from "@/db/queries/memberships";
 import { RuleStatusSection } from "@/components/collection/rule-status-section";
@@ -50,7 +50,7 @@ export default async function ChamberPage({ params, searchParams }: { params: Pr
     ...(status?.lastCharge ? [{ label: `the last desiccant ${status.lastCharge.kind === "charged" ? "charge" : status.lastCharge.kind === "regenerated" ? "regeneration" : "replacement"}`, at: status.lastCharge.at }] : []),
     ...(opening ? [{ label: "the last inspection opening", at: opening }] : []),
   ];
-  const series = await getChamberSeries({ labId: ctx.labId, chamber, period, settleFrom });
+  const series = await getChamberSeriesReused({ labId: ctx.labId, chamber, period, settleFrom });
   const checks = await listHygrometerChecks({ labId: ctx.labId, instruments: [...new Set([...instruments, ...series.instruments])] });
   const salt = chamber.saltId && isSaltId(chamber.saltId) ? chamber.saltId : null;
   const eq = salt ? saltAt(salt, chamber.nominalTempC) : null;
