@@ -1,7 +1,6 @@
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import { listUserLabs } from "@/db/queries/memberships";
-import { currentIdentity } from "@/lib/auth/context";
+import { currentIdentity, labsOfUser } from "@/lib/auth/context";
 import { pageRule } from "@/lib/auth/page-routes";
 import { can, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
 import { LabChooser } from "@/components/shell/lab-chooser";
@@ -15,7 +14,7 @@ export const dynamic = "force-dynamic";
 export default async function LabLayout({ children }: { children: React.ReactNode }) {
   const identity = await currentIdentity();
   if (!identity) redirect("/sign-in");
-  const labs = await listUserLabs({ userId: identity.userId });
+  const labs = await labsOfUser(identity.userId);
   const active = labs.find((l) => l.labId === identity.labId) ?? null;
   if (!active) {
     return (

@@ -2,6 +2,7 @@ import "server-only";
 // The one trial loader, the row lock writes take, and the viewer's access to a trial (scorer role,
 // blind, locked) as decided by lib/trials/access. Every page, route and query loads trials here.
 import { and, eq, ne } from "drizzle-orm";
+import { cache } from "react";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
 import { trialAccess, type TrialAccess } from "@/lib/trials/access";
@@ -50,9 +51,15 @@ export async function getTrialAccess({ labId, trialId, userId }: { labId: string
 }
 
 /** Trials this viewer scores blind right now (not concluded): for pages that span several trials. */
-export async function blindTrialIds({ labId, userId }: { labId: string; userId: string }): Promise<Set<string>> {
+export function blindTrialIds({ labId, userId }: { labId: string; userId: string }): Promise<ReadonlySet<string>> {
+  return blindTrialIdsOf(labId, userId);
+}
+
+// Once per rendered request (React cache; outside a render, such as in the worker or a server action,
+// every call reads): a page's rules, objects and lists all ask.
+const blindTrialIdsOf = cache(async (labId: string, userId: string): Promise<ReadonlySet<string>> => {
   const rows = await db.select({ trialId: trialMembers.trialId }).from(trialMembers)
     .innerJoin(trials, eq(trials.id, trialMembers.trialId))
     .where(and(eq(trialMembers.labId, labId), eq(trialMembers.userId, userId), eq(trialMembers.role, "scorer"), eq(trialMembers.blind, true), ne(trials.status, "concluded")));
   return new Set(rows.map((r) => r.trialId));
-}
+});

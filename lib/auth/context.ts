@@ -1,7 +1,7 @@
 // Resolve who is calling and in which lab, and check one permission. Every server action and
 // route handler goes through requireLab (via labAction / labRoute); nothing trusts the UI.
 import { cache } from "react";
-import { getMembership } from "@/db/queries/memberships";
+import { listUserLabs } from "@/db/queries/memberships";
 import { AppError } from "./errors";
 import { can, type Permission, type Role } from "./permissions";
 import { readSessionIdentity, type SessionIdentity } from "./session";
@@ -12,8 +12,14 @@ export type LabContext = { userId: string; labId: string; role: Role; labName: s
 // Per request (React cache): the layout and the page both ask, but the session is decoded once.
 export const currentIdentity = cache(readSessionIdentity);
 
-// Read fresh from the database on every request (a changed role applies at once), but once per request.
-const membershipOf = cache((userId: string, labId: string) => getMembership({ userId, labId }));
+// Read fresh from the database on every request (a changed role applies at once), but once per request:
+// the lab layout lists the viewer's labs, and the membership checked below is one of them.
+export const labsOfUser = cache((userId: string) => listUserLabs({ userId }));
+
+async function membershipOf(userId: string, labId: string) {
+  const m = (await labsOfUser(userId)).find((l) => l.labId === labId);
+  return m ? { role: m.role, labName: m.labName } : null;
+}
 
 /** Session → membership (read fresh from the database) → permission. */
 export async function requireLab(identity: SessionIdentity, permission: Permission): Promise<LabContext> {
