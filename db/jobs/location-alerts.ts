@@ -45,10 +45,10 @@ export async function claimLocationAlerts(now = new Date(), labId?: string) {
   let claimed = 0;
   for (const [lab, locs] of byLab) {
     const byId = new Map(locs.map((l) => [l.id, l]));
-    const watched = locs.filter((l) => isStorageKind(l.locationKind) && !l.archivedAt);
+    const watched = locs.filter((l) => isStorageKind(l.locationKind));
     const keepers = [...new Set(watched.map((l) => keeperOf(l.id, byId)).filter((k): k is string => k !== null))];
     if (keepers.length === 0) continue;
-    // Only keepers who are still members of the lab get mail about its store.
+    // Members of the lab among the keepers: only they get mail about its store (alertBarred).
     const recipients = await db.select({ id: users.id, digest: users.collectionDigest }).from(users)
       .innerJoin(memberships, and(eq(memberships.userId, users.id), eq(memberships.labId, lab))).where(inArray(users.id, keepers));
     const digest = new Map(recipients.map((r) => [r.id, r.digest]));
@@ -64,7 +64,7 @@ export async function claimLocationAlerts(now = new Date(), labId?: string) {
     for (const l of watched) {
       const rule = rules.get(l.id);
       const keeper = keeperOf(l.id, byId);
-      if (!rule || !keeper || !digest.has(keeper)) continue;
+      if (!rule || !keeper || alertBarred({ archivedAt: l.archivedAt, recipientIsMember: digest.has(keeper) })) continue;
       const from = new Date(now.getTime() - SCAN_DAYS * DAY_MS);
       const stats = await getBandWindowStats({ labId: lab, chamberId: l.id, band: ruleBand(rule.thresholdRhPercent), from, to: now });
       const due = exceedancesToAlert(stats.excursions, l.alertAfterHours).filter((e) => e.start.getTime() >= from.getTime() + DAY_MS);
@@ -91,12 +91,17 @@ const alertRows = (where: SQL | undefined) =>
 
 type AlertRow = Awaited<ReturnType<typeof alertRows>>[number];
 
-/** Why a claimed alert must not go out any more, or null when it may. */
-function withdrawalReason(a: Pick<AlertRow, "archivedAt" | "member">): string | null {
-  if (a.archivedAt) return "location archived";
-  if (a.member === null) return "recipient no longer a member of the lab";
+/**
+ * Why an alert about a location may not go to a recipient, or null when it may: the one rule, applied
+ * when an exceedance is claimed and again when its claim is sent (a claim barred by then is withdrawn).
+ */
+export function alertBarred({ archivedAt, recipientIsMember }: { archivedAt: Date | null; recipientIsMember: boolean }): string | null {
+  if (archivedAt) return "location archived";
+  if (!recipientIsMember) return "recipient no longer a member of the lab";
   return null;
 }
+
+const withdrawalReason = (a: Pick<AlertRow, "archivedAt" | "member">) => alertBarred({ archivedAt: a.archivedAt, recipientIsMember: a.member !== null });
 
 /** Mark unsent claims withdrawn (each with its reason); returns how many. */
 async function withdraw(rows: readonly AlertRow[]) {

@@ -5,7 +5,7 @@
 import { and, eq } from "drizzle-orm";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { closeDb, db } from "@/db/client";
-import { claimLocationAlerts, keeperOf, runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
+import { alertBarred, claimLocationAlerts, keeperOf, runLocationAlertScan, runLocationDigest } from "@/db/jobs/location-alerts";
 import { insertReadings, type NewReading } from "@/db/queries/readings";
 import * as s from "@/db/schema";
 import { listMessages } from "@/lib/mail-store";
@@ -124,5 +124,22 @@ describe("collection alerts", () => {
     expect(await inbox(lab.users.lead.email, /digest/i)).toHaveLength(0);
     const [left] = await db.select().from(s.locationAlerts).where(eq(s.locationAlerts.locationId, leaving.id));
     expect(left.withdrawnReason).toBe("recipient no longer a member of the lab");
+  });
+
+  it("claims nothing for an archived location, nor for a keeper who is not a member of the lab, by the same rule that withdraws", async () => {
+    expect(alertBarred({ archivedAt: new Date(), recipientIsMember: true })).toBe("location archived");
+    expect(alertBarred({ archivedAt: null, recipientIsMember: false })).toBe("recipient no longer a member of the lab");
+    expect(alertBarred({ archivedAt: null, recipientIsMember: true })).toBeNull();
+    const archived = await location("Box archived before its exceedance was seen", null, lab.users.observer.id);
+    await keep(archived.id, "AL-5");
+    await insertReadings(db, { labId: lab.labId, chamberId: archived.id, source: "csv", rows: series([{ fromH: 30, hours: 8, rh: 26 }]) });
+    await db.update(s.chambers).set({ archivedAt: new Date() }).where(eq(s.chambers.id, archived.id));
+    const formerKeeper = await location("Box of a former member", null, lab.users.technician.id);
+    await keep(formerKeeper.id, "AL-6");
+    await insertReadings(db, { labId: lab.labId, chamberId: formerKeeper.id, source: "csv", rows: series([{ fromH: 30, hours: 8, rh: 26 }]) });
+    await db.delete(s.memberships).where(and(eq(s.memberships.userId, lab.users.technician.id), eq(s.memberships.labId, lab.labId)));
+    expect(await claimLocationAlerts(now, lab.labId)).toBe(0);
+    expect(await db.select().from(s.locationAlerts).where(eq(s.locationAlerts.locationId, archived.id))).toHaveLength(0);
+    expect(await db.select().from(s.locationAlerts).where(eq(s.locationAlerts.locationId, formerKeeper.id))).toHaveLength(0);
   });
 });
