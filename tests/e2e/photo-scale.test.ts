@@ -63,6 +63,7 @@ describe("photo protocol and scale", () => {
     const page = await context.newPage();
     await signIn(page, "technician@tarrow.example");
     await page.goto(`${APP_URL}/trials/${trial.id}/inspections/${inspection.id}/photos`);
+    await streamed(page);
     // One point ticked at the bench goes with the upload; the others are then missing.
     await page.getByRole("group", { name: "Photo protocol" }).getByLabel(trial.photoProtocol[0], { exact: true }).check();
     await page.getByLabel("Choose photos").setInputFiles([{ name: filename, mimeType: "image/jpeg", buffer: jpeg }]);

@@ -10,7 +10,7 @@ import { closeDb, db } from "@/db/client";
 import * as s from "@/db/schema";
 import { deleteKeys } from "@/storage/objects";
 import { anonymous, signedInClient } from "../support/http";
-import { APP_URL, axeViolations, launch, screenshot, signIn } from "./support/browser";
+import { APP_URL, axeViolations, launch, screenshot, signIn, streamed } from "./support/browser";
 
 let browser: Browser;
 const tag = randomBytes(3).toString("hex");
@@ -59,6 +59,7 @@ async function waitForReadyPreview(page: Page, filename: string) {
     if ((await card.getAttribute("data-status").catch(() => null)) === "ready") break;
     await page.waitForTimeout(1500);
     await page.reload();
+    await streamed(page);
   }
   const img = card.locator("img");
   await img.waitFor();
@@ -73,6 +74,7 @@ describe("inspection photos", () => {
     const page = await context.newPage();
     await signIn(page, "technician@tarrow.example");
     await page.goto(`${APP_URL}/trials/${trialId}/inspections/${inspection.id}/photos`);
+    await streamed(page);
     await page.getByRole("heading", { name: `Photos · day ${inspection.dayNumber}` }).waitFor();
     await expect(page.getByRole("group", { name: "Photo protocol" }).isVisible()).resolves.toBe(true);
 
@@ -117,6 +119,7 @@ describe("inspection photos", () => {
     const page = await context.newPage();
     await signIn(page, "technician@tarrow.example");
     await page.goto(`${APP_URL}/trials/${trialId}/inspections/${inspection.id}/photos`);
+    await streamed(page);
     await page.getByLabel("Choose photos").waitFor();
     // A noisy 1000 × 750 JPEG (~0.5 MB) over a throttled uplink stays in flight long enough to cancel.
     const noisy = await sharp({ create: { width: 1000, height: 750, channels: 3, background: { r: 128, g: 128, b: 128 }, noise: { type: "gaussian", mean: 128, sigma: 60 } } })
@@ -165,6 +168,7 @@ describe("inspection photos", () => {
     const page = await context.newPage();
     await signIn(page, "observer@tarrow.example");
     await page.goto(`${APP_URL}/trials/${trialId}/inspections/${inspection.id}/photos`);
+    await streamed(page);
     await page.getByRole("heading", { name: `Photos · day ${inspection.dayNumber}` }).waitFor();
     await expect(page.getByLabel("Choose photos").count()).resolves.toBe(0);
     await expect(page.getByText("recorded; hidden for your role").first().count()).resolves.toBe(1);
