@@ -6,12 +6,13 @@ import { and, asc, eq, inArray, lte } from "drizzle-orm";
 import type { PgColumn } from "drizzle-orm/pg-core";
 import { AppError } from "@/lib/auth/errors";
 import { isUuid } from "@/lib/ids";
-import { akaganeiteSeenOf, chlorideStateOf, datedBeforeStart, historyBeforeTrial, massChanges, massToTenthMg, tenthMgToGramsText, weighedByStart, type ChlorideState } from "@/lib/specimens/history";
+import { akaganeiteSeenOf, chlorideStateOf, datedBeforeStart, historyBeforeTrial, massChanges, weighedByStart, type ChlorideState } from "@/lib/specimens/history";
 import { historyForViewer, trialOfHistoryDate } from "@/lib/trials/access";
 import { historyPermission, type HistoryEntryInput } from "@/lib/validation/specimen-history";
 import { recordAudit } from "../audit";
 import { db } from "../client";
 import { akaganeiteChecks, chlorideTests, massMeasurements, placements, priorTreatments, specimens } from "../schema";
+import { HISTORY_TABLES, historyOutcome, historyValues, type HistoryRow } from "./specimen-history-kinds";
 import { assertAllowed, type Actor } from "./specimens";
 
 const notFound = () => new AppError("not-found", "No such specimen in this lab.");
@@ -26,36 +27,12 @@ export async function addHistoryEntry({ actor, input }: { actor: Actor; input: H
     if (!specimen) throw notFound();
     const spans = await tx.select({ trialId: placements.trialId, fromAt: placements.fromAt }).from(placements)
       .where(and(eq(placements.labId, actor.labId), eq(placements.specimenId, specimen.id)));
-    const own = { labId: actor.labId, specimenId: specimen.id, notes: input.notes, createdBy: actor.userId };
-    let row: { id: string };
-    let entity: string;
-    let summary: string;
-    let on: string;
-    switch (input.kind) {
-      case "chloride":
-        [row] = await tx.insert(chlorideTests).values({ ...own, testedOn: input.testedOn, method: input.method, result: input.result }).returning();
-        entity = "chloride_test"; on = input.testedOn;
-        summary = `Chloride test of ${specimen.label} on ${on}: ${input.result}`;
-        break;
-      case "akaganeite":
-        [row] = await tx.insert(akaganeiteChecks).values({ ...own, checkedOn: input.checkedOn, method: input.method, seen: input.seen === "yes" }).returning();
-        entity = "akaganeite_check"; on = input.checkedOn;
-        summary = `Akaganeite check of ${specimen.label} on ${on}: ${input.seen === "yes" ? "seen" : "not seen"}`;
-        break;
-      case "treatment":
-        [row] = await tx.insert(priorTreatments).values({ ...own, treatedOn: input.treatedOn, treatment: input.treatment }).returning();
-        entity = "prior_treatment"; on = input.treatedOn;
-        summary = `Treatment of ${specimen.label} on ${on} recorded`;
-        break;
-      case "mass": {
-        const massG = tenthMgToGramsText(massToTenthMg(input.mass, input.unit)!);
-        [row] = await tx.insert(massMeasurements).values({ ...own, measuredOn: input.measuredOn, massG }).returning();
-        entity = "mass_measurement"; on = input.measuredOn;
-        summary = `Weighing of ${specimen.label} on ${on}: ${massG} g`;
-        break;
-      }
-    }
-    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(on, spans), action: "create", summary, after: row });
+    const { table, entity, name, on } = HISTORY_TABLES[input.kind];
+    const values = historyValues(input);
+    const [row] = (await tx.insert(table).values({ ...values, labId: actor.labId, specimenId: specimen.id, createdBy: actor.userId } as never).returning()) as HistoryRow[];
+    const day = on(values as never);
+    const summary = `${name} of ${specimen.label} on ${day}${historyOutcome(values)}`;
+    await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(day, spans), action: "create", summary, after: row });
     return { id: row.id, specimenLabel: specimen.label };
   });
 }
