@@ -32,12 +32,11 @@ export function machineBusyMs(): number | null {
  * busy CPU time over the run divided by the responses — what one request costs, whatever the
  * concurrency; with C cores the machine answers at most about C × 1000 / cpuMsPerRequest per second.
  */
-export async function loadRun({ paths, ...opts }: { url: string; connections: number; duration: number; headers?: Record<string, string>; paths?: readonly string[] }) {
+export async function loadRun({ nextPath, ...opts }: { url: string; connections: number; duration: number; headers?: Record<string, string>; nextPath?: () => string }) {
   const times: number[] = [];
   const busy0 = machineBusyMs();
-  // paths: each request asks for the next of these in turn (on the url's origin) instead of the url's own path.
-  let next = 0;
-  const requests = paths?.length ? [{ setupRequest: (req: Record<string, unknown>) => ({ ...req, path: paths[next++ % paths.length] }) }] : undefined;
+  // nextPath: each request asks for the path it gives (on the url's origin) instead of the url's own path.
+  const requests = nextPath ? [{ setupRequest: (req: Record<string, unknown>) => ({ ...req, path: nextPath() }) }] : undefined;
   const instance = autocannon({ ...opts, ...(requests ? { requests } : {}) } as autocannon.Options) as unknown as Instance;
   instance.on("response", (_client, _status, _bytes, ms) => times.push(ms));
   const result = await instance;

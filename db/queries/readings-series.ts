@@ -234,17 +234,27 @@ export const SERIES_KEPT = 64;
 const kept = new Map<string, ChamberSeries>();
 const computing = new Map<string, Promise<ChamberSeries>>();
 
-/** The chamber's climate token (climate_versions, kept by triggers); null until its first reading. */
+/**
+ * The chamber's climate token (climate_versions) with its lab's hygrometer-check token (check_versions),
+ * both kept by triggers; null until the chamber's first reading. A lab without a check token has had no
+ * check since tokens began (migration 0029 gave every lab one).
+ */
 async function climateVersion(q: Pick<Snapshot["client"], "query">, labId: string, chamberId: string): Promise<string | null> {
-  const res = await q.query<{ version: string }>({ text: "select version from climate_versions where chamber_id = $1 and lab_id = $2", values: [chamberId, labId] });
-  return res.rows[0]?.version ?? null;
+  const res = await q.query<{ readings: string | null; checks: string | null }>({
+    text: `select (select version from climate_versions where chamber_id = $1 and lab_id = $2) as readings,
+                  (select version from check_versions where lab_id = $2) as checks`,
+    values: [chamberId, labId],
+  });
+  const { readings, checks } = res.rows[0];
+  return readings === null ? null : `${readings}/${checks ?? "no checks"}`;
 }
 
 /**
  * getChamberSeries for the chamber page, reused while nothing it is read or computed from changes:
- * the chamber's climate token (renewed by triggers whenever its readings or the lab's hygrometer checks
- * change, by any writer), its band, the period, the settling events and `now`, which is taken to the
- * whole minute so that the requests of one minute share one result. Concurrent requests for the same
+ * the chamber's climate tokens (renewed by triggers whenever its readings or the lab's hygrometer checks
+ * change, by any writer), its band, the period, the settling events and, for the 7- and 30-day periods,
+ * `now`, which is taken down to the whole minute (so the period starts up to a minute earlier than at
+ * the exact time) so that the requests of one minute share one result. Concurrent requests for the same
  * result wait for one computation. The result is shared: read it, never change it.
  */
 export async function getChamberSeriesReused(args: SeriesArgs): Promise<ChamberSeries> {
@@ -252,7 +262,7 @@ export async function getChamberSeriesReused(args: SeriesArgs): Promise<ChamberS
   const band = chamberBand(args.chamber);
   const keyOf = (version: string) => JSON.stringify([
     args.labId, args.chamber.id, version, band.minRh, band.maxRh, args.period, args.maxPoints ?? CHART_MAX_POINTS, args.allRowsLimit ?? ALL_ROWS_LIMIT,
-    now.getTime(), (args.settleFrom ?? []).map((e) => [e.label, e.at.getTime()]),
+    args.period === "all" ? null : now.getTime(), (args.settleFrom ?? []).map((e) => [e.label, e.at.getTime()]),
   ]);
   const current = await climateVersion(getPool(), args.labId, args.chamber.id);
   const key = current === null ? null : keyOf(current);

@@ -80,16 +80,21 @@ export const readingBlocks = pgTable("reading_blocks", {
   maxSpanMs: doublePrecision("max_span_ms").notNull().default(0),
 }, (t) => [primaryKey({ columns: [t.labId, t.chamberId, t.widthHours, t.blockStart, t.instrument] })]);
 
-// A token that changes whenever anything a chamber's chart and band statistics are read from changes:
-// its readings (insert, update, delete, truncate) and the lab's hygrometer checks (their offsets follow
-// the instrument). Kept by triggers (migration 0028), so every writer bumps it; a new random value each
-// time, never reused, even across a database rebuilt from scratch. The chamber page reuses a computed
-// chart while the token stands (db/queries/readings-series.ts getChamberSeriesReused).
+// Tokens that change whenever anything a chamber's chart and band statistics are read from changes:
+// one per chamber for its readings (insert, update, delete, truncate; migration 0028) and one per lab for
+// its hygrometer checks, whose offsets follow the instrument into every chamber (migration 0029). Kept by
+// triggers, so every writer renews them; a new random value each time, never reused, even across a
+// database rebuilt from scratch. The chamber page reuses a computed chart while both stand
+// (db/queries/readings-series.ts getChamberSeriesReused).
 export const climateVersions = pgTable("climate_versions", {
   chamberId: uuid("chamber_id").primaryKey().references(() => chambers.id, { onDelete: "cascade" }),
   labId: uuid("lab_id").notNull().references(() => labs.id, { onDelete: "cascade" }),
   version: uuid("version").notNull().defaultRandom(),
 }, (t) => [index("climate_versions_lab_idx").on(t.labId)]);
+export const checkVersions = pgTable("check_versions", {
+  labId: uuid("lab_id").primaryKey().references(() => labs.id, { onDelete: "cascade" }),
+  version: uuid("version").notNull().defaultRandom(),
+});
 
 export const readingImports = pgTable("reading_imports", {
   id: uuid("id").primaryKey().defaultRandom(),

@@ -5,7 +5,7 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { and, eq } from "drizzle-orm";
 import { closeDb, db } from "@/db/client";
-import { climateVersions, labs, readings } from "@/db/schema";
+import { checkVersions, climateVersions, labs, readings } from "@/db/schema";
 import { addHygrometerCheck, createChamber, getChamber, setHygrometerCheckApplied, updateChamber } from "@/db/queries/chambers";
 import { insertReadings } from "@/db/queries/readings";
 import { getChamberSeries, getChamberSeriesReused } from "@/db/queries/readings-series";
@@ -67,11 +67,21 @@ describe("reusing the chamber chart", () => {
     const args = { labId: lab.labId, chamber: c, period: "30d" as const, now };
     const before = await getChamberSeriesReused(args);
     expect(before.offsets).toHaveLength(0);
+    const tokens = async () => ({
+      chamber: (await db.select().from(climateVersions).where(eq(climateVersions.chamberId, c.id)))[0]?.version,
+      lab: (await db.select().from(checkVersions).where(eq(checkVersions.labId, lab.labId)))[0]?.version,
+    });
+    const tokensBefore = await tokens();
 
-    // Recorded in the other chamber; the offset follows the instrument into this one.
+    // Recorded in the other chamber; the offset follows the instrument into this one (the lab's check token).
     const check = await addHygrometerCheck({ labId: lab.labId, userId: lab.users.technician.id, chamberId: other.id, values: { instrument: "handheld", saltId: "NaCl", tempC: 25, readingRhPercent: 77.4, checkedAt: new Date(t0), apply: true, notes: "" } });
     const checked = await getChamberSeriesReused(args);
     expect(checked.offsets).toHaveLength(1);
+    // A check renews the lab's check token only: no other chamber's row is written (or locked).
+    const tokensAfter = await tokens();
+    expect(tokensAfter.chamber).toBe(tokensBefore.chamber);
+    expect(tokensAfter.lab).toBeDefined();
+    expect(tokensAfter.lab).not.toBe(tokensBefore.lab);
     expect(checked).toEqual(await getChamberSeries(args));
 
     await setHygrometerCheckApplied({ labId: lab.labId, userId: lab.users.technician.id, checkId: check.id, applied: false });
@@ -100,6 +110,12 @@ describe("reusing the chamber chart", () => {
     const args = { labId: lab.labId, chamber: c, period: "7d" as const, now };
     const results = await Promise.all(Array.from({ length: 6 }, () => getChamberSeriesReused(args)));
     for (const r of results) expect(r).toBe(results[0]);
+    // The whole record does not depend on the time of asking; the last 7 days do, to the minute.
+    const all = await getChamberSeriesReused({ ...args, period: "all" });
+    expect(await getChamberSeriesReused({ ...args, period: "all", now: new Date(now.getTime() + 3 * 60_000) })).toBe(all);
+    const later = await getChamberSeriesReused({ ...args, now: new Date(now.getTime() + 3 * 60_000) });
+    expect(later).not.toBe(results[0]);
+    expect(later).toEqual(await getChamberSeries({ ...args, now: new Date(now.getTime() + 3 * 60_000) }));
 
     const empty = await jar("Empty jar");
     expect(await db.select().from(climateVersions).where(eq(climateVersions.chamberId, empty.id))).toHaveLength(0);
