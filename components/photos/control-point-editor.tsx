@@ -5,6 +5,7 @@
 import { useActionState, useState } from "react";
 import { saveControlPointsAction } from "@/app/_actions/photo-align";
 import { FormMessage, SubmitButton } from "@/components/ui/form";
+import { photoPointAt } from "@/lib/photos/click-point";
 import type { Point } from "@/lib/scoring/geometry";
 
 type PhotoSide = { id: string; src: string | null; width: number; height: number };
@@ -30,8 +31,7 @@ function Markers({ points, W }: { points: readonly Point[]; W: number }) {
 export function PhotoWithPoints({ photo, points, label, onPlace }: { photo: PhotoSide; points: readonly Point[]; label: string; onPlace?: (p: Point) => void }) {
   const click = (e: React.MouseEvent<SVGSVGElement>) => {
     if (!onPlace) return;
-    const box = e.currentTarget.getBoundingClientRect();
-    onPlace({ x: Math.round(((e.clientX - box.left) / box.width) * photo.width * 10) / 10, y: Math.round(((e.clientY - box.top) / box.height) * photo.height * 10) / 10 });
+    onPlace(photoPointAt(e, e.currentTarget.getBoundingClientRect(), photo, 1));
   };
   return (
     <svg viewBox={`0 0 ${photo.width} ${photo.height}`} role="img" aria-label={label} onClick={click}

@@ -3,11 +3,11 @@
 // click fills the next pair of fields (End 1, then End 2) in original-photo pixels, whatever size the
 // preview is shown at. The fields stay editable, so a click can be corrected by hand.
 import { useState } from "react";
-
-type Pt = { x: number; y: number };
+import { photoPointAt } from "@/lib/photos/click-point";
+import type { Point } from "@/lib/scoring/geometry";
 
 export function ScalePointPicker({ fieldId, src, width, height }: { fieldId: string; src: string; width: number; height: number }) {
-  const [points, setPoints] = useState<Pt[]>([]);
+  const [points, setPoints] = useState<Point[]>([]);
   const set = (name: string, v: number) => {
     const el = document.getElementById(`${fieldId}-${name}`) as HTMLInputElement | null;
     if (el) el.value = String(v);
@@ -21,8 +21,7 @@ export function ScalePointPicker({ fieldId, src, width, height }: { fieldId: str
         {/* eslint-disable-next-line @next/next/no-img-element -- signed storage URL */}
         <img src={src} alt="The photo: click the ends of the scale bar" aria-describedby={`${fieldId}-picker-hint`} className="w-full h-auto rounded cursor-crosshair"
           onClick={(e) => {
-            const box = e.currentTarget.getBoundingClientRect();
-            const p = { x: Math.round(((e.clientX - box.left) / box.width) * width), y: Math.round(((e.clientY - box.top) / box.height) * height) };
+            const p = photoPointAt(e, e.currentTarget.getBoundingClientRect(), { width, height });
             const next = points.length >= 2 ? [p] : [...points, p];
             setPoints(next);
             const n = next.length;
