@@ -1,6 +1,6 @@
 import Link from "next/link";
 import { redirect } from "next/navigation";
-import { currentIdentity, labsOfUser } from "@/lib/auth/context";
+import { currentIdentity, labsOfUser, membershipOf } from "@/lib/auth/context";
 import { pageRule } from "@/lib/auth/page-routes";
 import { can, ROLE_LABELS, type Role } from "@/lib/auth/permissions";
 import { LabChooser } from "@/components/shell/lab-chooser";
@@ -15,7 +15,7 @@ export default async function LabLayout({ children }: { children: React.ReactNod
   const identity = await currentIdentity();
   if (!identity) redirect("/sign-in");
   const labs = await labsOfUser(identity.userId);
-  const active = labs.find((l) => l.labId === identity.labId) ?? null;
+  const active = identity.labId ? await membershipOf(identity.userId, identity.labId) : null;
   if (!active) {
     return (
       <main className="max-w-xl mx-auto p-8 space-y-4">

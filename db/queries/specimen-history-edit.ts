@@ -45,7 +45,7 @@ export async function updateHistoryEntry({ actor, input }: { actor: Actor; input
       labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(was, spans) ?? trialOfHistoryDate(day, spans), action: "update",
       summary: `${name} of ${specimen.label} on ${day} corrected`, before: row, after,
     });
-    return { id: row.id, specimenLabel: specimen.label };
+    return { id: row.id, specimenLabel: specimen.label, name };
   });
 }
 
@@ -60,6 +60,6 @@ export async function deleteHistoryEntry({ actor, input }: { actor: Actor; input
       labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(day, spans), action: "delete",
       summary: `${name} of ${specimen.label} on ${day} deleted: ${input.reason}`, before: row,
     });
-    return { id: row.id, specimenLabel: specimen.label };
+    return { id: row.id, specimenLabel: specimen.label, name };
   });
 }

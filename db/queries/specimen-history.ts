@@ -33,7 +33,7 @@ export async function addHistoryEntry({ actor, input }: { actor: Actor; input: H
     const day = on(values as never);
     const summary = `${name} of ${specimen.label} on ${day}${historyOutcome(values)}`;
     await recordAudit(tx, { labId: actor.labId, userId: actor.userId, entity, entityId: row.id, trialId: trialOfHistoryDate(day, spans), action: "create", summary, after: row });
-    return { id: row.id, specimenLabel: specimen.label };
+    return { id: row.id, specimenLabel: specimen.label, name };
   });
 }
 

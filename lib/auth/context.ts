@@ -16,9 +16,9 @@ export const currentIdentity = cache(readSessionIdentity);
 // the lab layout lists the viewer's labs, and the membership checked below is one of them.
 export const labsOfUser = cache((userId: string) => listUserLabs({ userId }));
 
-async function membershipOf(userId: string, labId: string) {
-  const m = (await labsOfUser(userId)).find((l) => l.labId === labId);
-  return m ? { role: m.role, labName: m.labName } : null;
+/** The viewer's membership of one lab (one of labsOfUser), or null when they are not a member of it. */
+export async function membershipOf(userId: string, labId: string) {
+  return (await labsOfUser(userId)).find((l) => l.labId === labId) ?? null;
 }
 
 /** Session → membership (read fresh from the database) → permission. */
